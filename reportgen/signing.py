@@ -775,7 +775,8 @@ def render_verify_report(report: dict) -> str:
                      + (f" ({', '.join(s['changed_fields'])})" if s.get("changed_fields") else ""))
         lines.append(f"  changes permitted: {_yes_no(s.get('docmdp_ok'))}")
         if s.get("error"):
-            lines.append(f"  note:              {s['error']}")
+            note = str(s["error"]).replace("\n", "\n" + " " * 21)
+            lines.append(f"  note:              {note}")
     if report.get("unsigned_fields"):
         lines.append(f"Unsigned fields: {', '.join(report['unsigned_fields'])}")
     inp = report.get("inputs", {})
