@@ -71,6 +71,9 @@ class HullGeometry:
     length_bp_m: Lpp, m (midships at Lpp/2 is the trim reference).
     size_m: a length larger than any section dimension (for half-planes), m.
     deck_edge_yz: (n, 2) starboard deck-edge point (last offset) of each station, m.
+    vertices: each section's exterior ring, (k, 2) arrays of (y, z), m.
+    coords_yz, coords_index: all section coordinates as shapely.get_coordinates gives them,
+    and the station of each.
     """
 
     x_m: np.ndarray
@@ -80,6 +83,8 @@ class HullGeometry:
     size_m: float
     deck_edge_yz: np.ndarray
     vertices: tuple[np.ndarray, ...]
+    coords_yz: np.ndarray
+    coords_index: np.ndarray
 
 
 def simpson_weights(x_m: np.ndarray) -> np.ndarray:
@@ -99,6 +104,7 @@ def prepare_hull(hull: Hull, length_bp_m: float) -> HullGeometry:
     )
     allpts = np.vstack([v for v in verts if len(v)] or [np.zeros((1, 2))])
     size = 4.0 * (float(np.max(np.abs(allpts))) + float(np.ptp(hull.x_m)) + 1.0)
+    coords, index = shapely.get_coordinates(sections, return_index=True)
     return HullGeometry(
         x_m=np.asarray(hull.x_m, dtype=float),
         sections=sections,
@@ -107,6 +113,8 @@ def prepare_hull(hull: Hull, length_bp_m: float) -> HullGeometry:
         size_m=size,
         deck_edge_yz=hull.deck_edge_yz,
         vertices=verts,
+        coords_yz=coords,
+        coords_index=index,
     )
 
 
@@ -141,7 +149,58 @@ class SectionSlices:
 
 
 def clip_sections(geom: HullGeometry, plane: Plane) -> SectionSlices:
-    """Immersed part of every section and its waterline, in one vectorised shapely call each."""
+    """Immersed part of every section and its waterline breadth.
+
+    All sections of the waterplane are clipped in one vectorised shapely call: the section
+    coordinates are taken to waterline axes (s along the waterline, h along its upward
+    normal, h measured from each station's own waterline) with shapely.set_coordinates, and
+    shapely.clip_by_rect keeps h <= 0. Areas and centroids come from shapely.area and
+    shapely.centroid (also vectorised); the waterline of a section is the part of the
+    clipped boundary lying on h = 0. clip_by_rect is GEOS's rectangle clipper, several
+    times faster than the general overlay (clip_sections_by_intersection, which the tests
+    use as the reference).
+    """
+    u, n = _axes(plane.heel_deg)
+    c = plane_height(geom, plane)
+    r = geom.size_m
+    coords = geom.coords_yz @ np.column_stack([u, n])
+    coords[:, 1] -= c[geom.coords_index]
+    moved = shapely.set_coordinates(geom.sections.copy(), coords)
+    clipped = shapely.clip_by_rect(moved, -r, -r, r, 0.0)
+    area = shapely.area(clipped)
+    my = np.zeros_like(area)
+    mz = np.zeros_like(area)
+    full = area > 0.0
+    if np.any(full):
+        cen = shapely.get_coordinates(shapely.centroid(clipped[full]))
+        s_c, h_c = cen[:, 0], cen[:, 1] + c[full]
+        my[full] = area[full] * (s_c * u[0] + h_c * n[0])
+        mz[full] = area[full] * (s_c * u[1] + h_c * n[1])
+
+    breadth = np.zeros_like(area)
+    s1 = np.zeros_like(area)
+    s2 = np.zeros_like(area)
+    rings, ring_geom = shapely.get_rings(clipped, return_index=True)
+    if len(rings):
+        pts, ring_of = shapely.get_coordinates(rings, return_index=True)
+        same = ring_of[1:] == ring_of[:-1]
+        tol = 1e-9 * r
+        on_cut = (np.abs(pts[1:, 1]) < tol) & (np.abs(pts[:-1, 1]) < tol) & same
+        if np.any(on_cut):
+            a, b = pts[:-1, 0][on_cut], pts[1:, 0][on_cut]
+            lo, hi = np.minimum(a, b), np.maximum(a, b)
+            idx = ring_geom[ring_of[1:][on_cut]]
+            np.add.at(breadth, idx, hi - lo)
+            np.add.at(s1, idx, 0.5 * (hi**2 - lo**2))
+            np.add.at(s2, idx, (hi**3 - lo**3) / 3.0)
+    return SectionSlices(area, my, mz, breadth, s1, s2)
+
+
+def clip_sections_by_intersection(geom: HullGeometry, plane: Plane) -> SectionSlices:
+    """Reference version of clip_sections by shapely's general overlay: shapely.intersection
+    of all sections with the half-planes below their waterlines (one vectorised call) and
+    with the waterlines themselves (another). Same result, about four times slower; the
+    tests compare the two."""
     u, n = _axes(plane.heel_deg)
     c = plane_height(geom, plane)
     r = geom.size_m
