@@ -1,0 +1,388 @@
+"""Write the invented demo ship's vessel file (hull offsets, tanks, windage, openings).
+
+Run:  .venv/bin/python conditions/make_demo_ship.py
+
+Writes conditions/vessels/linnet-demo-hull.yaml: a `reportgen/vessel-1` file with hull
+offsets but without hydrostatics or cross curves; `reportgen tables` makes those into
+conditions/vessels/linnet-demo.yaml. Everything here is invented: the ship, its owner,
+its identifier and every number. The output is deterministic (fixed decimals, fixed order).
+
+The hull is a smooth general-cargo form built waterline by waterline (lengths in m):
+a midship section with a small rise of floor, a round bilge and a vertical side; each
+waterline runs from the stern profile to the stem, full (parallel middle body) between
+PMB_AFT and PMB_FORE and falling off as a power curve towards the ends, fuller at the
+higher waterlines (hence flare forward). The stem is raked with a rounded forefoot, the
+stern a transom whose lower edge is above the summer waterline.
+"""
+
+from __future__ import annotations
+
+import sys
+from dataclasses import dataclass
+from pathlib import Path
+
+import numpy as np
+from scipy.optimize import brentq
+from shapely import union_all
+from shapely.geometry import Polygon
+from shapely.geometry.polygon import orient
+
+ROOT = Path(__file__).resolve().parent.parent
+if str(ROOT) not in sys.path:
+    sys.path.insert(0, str(ROOT))
+
+from reportgen.hull.compartments import (
+    TankBox,
+    sounding_grid,
+    tank_depth,
+    tank_table,
+)
+from reportgen.hull.sections import Hull, hull_from_stations
+
+SHIP_SLUG = "linnet-demo"
+OUT_PATH = ROOT / "conditions" / "vessels" / f"{SHIP_SLUG}-hull.yaml"
+
+# --- main dimensions (m) -------------------------------------------------------------------
+LPP = 97.0
+BREADTH = 15.6
+DEPTH = 8.0
+SUMMER_DRAFT = 6.2
+KEEL_THICKNESS = 0.016
+BILGE_KEEL_AREA = 18.0  # two bilge keels of about 0.35 m x 26 m (m²)
+HALF_B = BREADTH / 2.0
+RISE_OF_FLOOR = 0.15
+BILGE_RADIUS = 1.8
+
+PMB_AFT = 38.0  # parallel middle body, x from AP
+PMB_FORE = 60.0
+TRANSOM_X = -2.0  # transom plane, x from AP
+TRANSOM_EDGE_Z = 6.6  # lower edge of the transom above base
+STERNPOST_X = 3.5  # where the keel meets the stern profile
+STEM_RAKE = 0.45  # dx/dz of the straight part of the stem
+FOREFOOT_Z = 3.0
+STEM_END_X = 98.0  # the stem's top is vertical forward of this x
+
+LIGHTSHIP = {"mass": 2400.0, "lcg": 44.00, "vcg": 6.30, "tcg": 0.0}
+DB_HEIGHT = 1.2  # double bottom (tank top) above base
+WING_INNER_Y = 6.6  # inboard side of the wing tanks, m from centreline
+ER_AFT, ER_FORE = 5.0, 18.0  # engine room bulkheads
+HOLD_1 = (18.0, 53.0)  # hold bulkheads, x from AP
+HOLD_2 = (53.0, 90.5)
+COLLISION_BHD = 90.5
+
+
+# --- hull form ------------------------------------------------------------------------------
+
+
+def midship_half_breadth(z: float) -> float:
+    """Half-breadth of the midship section at height z above base, m."""
+    flat = HALF_B - BILGE_RADIUS
+    if z <= RISE_OF_FLOOR:
+        return flat * z / RISE_OF_FLOOR
+    if z <= RISE_OF_FLOOR + BILGE_RADIUS:
+        dz = RISE_OF_FLOOR + BILGE_RADIUS - z
+        return flat + float(np.sqrt(BILGE_RADIUS**2 - dz**2))
+    return HALF_B
+
+
+def raked_stem_x(z: float) -> float:
+    """x of the raked stem line at height z (straight above the rounded forefoot)."""
+    x = LPP + STEM_RAKE * (z - SUMMER_DRAFT)
+    if z < FOREFOOT_Z:
+        x -= 1.5 * (1.0 - z / FOREFOOT_Z) ** 2
+    return x
+
+
+def stem_x(z: float) -> float:
+    """x of the stem at height z: the raked line, vertical above STEM_END_X."""
+    return min(raked_stem_x(z), STEM_END_X)
+
+
+def stern_x(z: float) -> float:
+    """x of the stern profile at height z: from the sternpost up to the transom edge."""
+    if z >= TRANSOM_EDGE_Z:
+        return TRANSOM_X
+    return TRANSOM_X + (STERNPOST_X - TRANSOM_X) * (1.0 - z / TRANSOM_EDGE_Z) ** 1.5
+
+
+def deck_z(x: float) -> float:
+    """Deck at side: moulded depth amidships with sheer forward and aft."""
+    fore = 1.2 * max(0.0, (x - 60.0) / 38.0) ** 2
+    aft = 0.4 * max(0.0, (15.0 - x) / 17.0) ** 2
+    return DEPTH + fore + aft
+
+
+def transom_fraction(z: float) -> float:
+    """Half-breadth of the transom as a fraction of the midship half-breadth."""
+    return 0.0 if z <= TRANSOM_EDGE_Z else 0.62 * min(1.0, (z - TRANSOM_EDGE_Z) / 1.8) ** 1.5
+
+
+def half_breadth(x: float, z: float) -> float:
+    """Hull half-breadth at (x, z), m; 0 outside the profile."""
+    xa, xf = stern_x(z), stem_x(z)
+    if x < xa - 1e-9 or x > xf + 1e-9:
+        return 0.0
+    ym = midship_half_breadth(z)
+    zr = min(z / 9.0, 1.0)
+    if x > PMB_FORE:
+        p_fore = 1.45 + 1.25 * zr  # fuller higher up: flare forward
+        w = 1.0 - ((x - PMB_FORE) / (xf - PMB_FORE)) ** p_fore
+    elif x < PMB_AFT:
+        p_aft = 1.5 + 1.4 * zr
+        w0 = transom_fraction(z)
+        w = 1.0 - (1.0 - w0) * ((PMB_AFT - x) / (PMB_AFT - xa)) ** p_aft
+    else:
+        w = 1.0
+    return ym * max(w, 0.0)
+
+
+def keel_z(x: float) -> float:
+    """Lowest z of the hull at station x (the keel or the stern/stem profile)."""
+    if STERNPOST_X <= x <= stem_x(0.0):
+        return 0.0
+    if x < STERNPOST_X:
+        if x <= TRANSOM_X + 1e-9:
+            return TRANSOM_EDGE_Z
+        return float(brentq(lambda z: stern_x(z) - x, 0.0, TRANSOM_EDGE_Z, xtol=1e-10))
+    return float(brentq(lambda z: raked_stem_x(z) - x, 0.0, deck_z(x), xtol=1e-10))
+
+
+def _z_levels() -> np.ndarray:
+    phi = np.radians(np.arange(5.0, 90.1, 5.0))
+    bilge = RISE_OF_FLOOR + BILGE_RADIUS * (1.0 - np.cos(phi))
+    side = np.arange(2.0, 9.6, 0.4)
+    return np.unique(np.round(np.concatenate([[0.0, 0.05, RISE_OF_FLOOR], bilge, side]), 3))
+
+
+def station_xs() -> np.ndarray:
+    """Transom, 41 stations at Lpp/40 (AP to FP) and a few in the overhangs, m from AP."""
+    regular = np.round(np.arange(41) * LPP / 40.0, 4)
+    extra = np.array([TRANSOM_X, -1.0, 97.5, STEM_END_X])
+    return np.unique(np.concatenate([regular, extra]))
+
+
+def station_points(x: float) -> list[tuple[float, float]]:
+    """Starboard half-section at x: keel (on the centreline) to deck edge, z not decreasing."""
+    zk, zd = keel_z(x), deck_z(x)
+    levels = [z for z in _z_levels() if zk + 1e-3 < z < zd - 1e-3]
+    zs = [zk, *levels, zd]
+    pts: list[tuple[float, float]] = []
+    for i, z in enumerate(zs):
+        y = 0.0 if i == 0 else half_breadth(x, z)
+        p = (round(y, 3), round(z, 3))
+        if not pts or p != pts[-1]:
+            pts.append(p)
+    if len(pts) == 1:
+        pts.append((0.0, round(zd, 3)))
+    return pts
+
+
+def stations() -> list[tuple[float, list[tuple[float, float]]]]:
+    return [(float(x), station_points(float(x))) for x in station_xs()]
+
+
+# --- compartments ---------------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class TankDef:
+    id: str
+    name: str
+    content: str
+    density: float  # t/m³
+    box: TankBox
+
+
+def _pair(tid: str, name: str, content: str, density: float, x0: float, x1: float,
+          y_in: float, z0: float, z1: float) -> list[TankDef]:
+    return [
+        TankDef(f"{tid}P", f"{name} (P)", content, density,
+                TankBox(x0, x1, -20.0, -y_in, z0, z1)),
+        TankDef(f"{tid}S", f"{name} (S)", content, density,
+                TankBox(x0, x1, y_in, 20.0, z0, z1)),
+    ]
+
+
+def tank_defs() -> list[TankDef]:
+    wb, fo, fw = 1.025, 0.94, 1.000
+    return [
+        TankDef("APT", "Aft peak", "ballast", wb, TankBox(-3.0, ER_AFT, -20.0, 20.0, 0.0, 6.6)),
+        *_pair("FW", "Fresh water", "fresh water", fw, ER_AFT, 10.0, 1.0, 2.0, 7.0),
+        *_pair("FO", "Fuel oil", "fuel oil", fo, 10.0, ER_FORE, 2.5, DB_HEIGHT, 7.0),
+        *_pair("DB3", "No.3 double bottom", "ballast", wb, HOLD_1[0], 45.0, 0.0, 0.0,
+               DB_HEIGHT),
+        *_pair("DB2", "No.2 double bottom", "ballast", wb, 45.0, 70.0, 0.0, 0.0, DB_HEIGHT),
+        *_pair("DB1", "No.1 double bottom", "ballast", wb, 70.0, COLLISION_BHD, 0.0, 0.0,
+               DB_HEIGHT),
+        *_pair("WT2", "No.2 wing tank", "ballast", wb, HOLD_1[0], HOLD_1[1], WING_INNER_Y,
+               DB_HEIGHT, DEPTH),
+        *_pair("WT1", "No.1 wing tank", "ballast", wb, HOLD_2[0], 80.0, WING_INNER_Y,
+               DB_HEIGHT, DEPTH),
+        TankDef("FPT", "Fore peak", "ballast", wb,
+                TankBox(COLLISION_BHD, 100.0, -20.0, 20.0, 0.0, 7.6)),
+    ]
+
+
+HOLDS = [
+    ("Hold 1", TankBox(HOLD_1[0], HOLD_1[1], -WING_INNER_Y, WING_INNER_Y, DB_HEIGHT, 12.0)),
+    ("Hold 2", TankBox(HOLD_2[0], HOLD_2[1], -WING_INNER_Y, WING_INNER_Y, DB_HEIGHT, 12.0)),
+]
+
+
+# --- windage and openings -------------------------------------------------------------------
+
+
+def windage_polygon() -> Polygon:
+    """Lateral projection: hull to the deck at side, hatch coamings, deckhouse, funnel."""
+    zs = np.linspace(0.0, TRANSOM_EDGE_Z, 12)
+    stern = [(stern_x(z), z) for z in zs]
+    deck = [(x, deck_z(x)) for x in np.linspace(TRANSOM_X, STEM_END_X, 40)]
+    zs_f = np.linspace(deck_z(STEM_END_X), 0.0, 16)
+    stem = [(stem_x(z), z) for z in zs_f]
+    hull = Polygon([*stern, *deck, *stem])
+    coaming = 1.6
+    parts = [
+        hull,
+        Polygon([(20.0, 7.5), (51.0, 7.5), (51.0, DEPTH + coaming), (20.0, DEPTH + coaming)]),
+        Polygon([(55.0, 7.5), (86.0, 7.5), (86.0, deck_z(86.0) + coaming),
+                 (55.0, deck_z(55.0) + coaming)]),
+        Polygon([(0.5, 7.5), (15.5, 7.5), (15.5, 16.1), (0.5, 16.1)]),  # poop + 2 tiers
+        Polygon([(6.0, 16.0), (15.5, 16.0), (15.5, 18.8), (6.0, 18.8)]),  # wheelhouse
+        Polygon([(2.0, 16.0), (5.6, 16.0), (5.0, 21.0), (2.4, 21.0)]),  # funnel
+    ]
+    return orient(union_all(parts).simplify(0.0005), sign=1.0)
+
+
+OPENINGS = [
+    ("Engine room ventilator (S)", 12.5, 5.0, 11.6),
+    ("Engine room ventilator (P)", 12.5, -5.0, 11.6),
+    ("Engine room air intake (S)", 8.0, 6.2, 13.9),
+    ("Engine room air intake (P)", 8.0, -6.2, 13.9),
+]
+
+
+# --- output ---------------------------------------------------------------------------------
+
+
+def _f(v: float, nd: int) -> str:
+    s = f"{v:.{nd}f}"
+    return "0." + "0" * nd if s == "-0." + "0" * nd else s
+
+
+def _row(values: np.ndarray, nd: int) -> str:
+    return "[" + ", ".join(_f(float(v), nd) for v in values) + "]"
+
+
+def _pairs(points: list[tuple[float, float]], nd: int) -> str:
+    return "[" + ", ".join(f"[{_f(a, nd)}, {_f(b, nd)}]" for a, b in points) + "]"
+
+
+def _printable_rows(volume_m3: np.ndarray, nd: int) -> np.ndarray:
+    """Rows whose volumes stay strictly increasing once printed with nd decimals."""
+    printed = np.round(volume_m3, nd)
+    keep = [0]
+    for i in range(1, len(printed)):
+        if printed[i] > printed[keep[-1]]:
+            keep.append(i)
+    if keep[-1] != len(printed) - 1:
+        keep[-1] = len(printed) - 1  # the full row always stays
+    return np.array(keep)
+
+
+def demo_tank_table(t: TankDef, hull: Hull) -> dict[str, np.ndarray]:
+    """The table printed for tank t: every 0.2 m of sounding (0.1 m in tanks under 2 m deep),
+    keeping the rows that print distinctly."""
+    z_low, z_high = tank_depth(hull, t.box)
+    step = 0.1 if z_high - z_low < 2.0 else 0.2
+    tab = tank_table(hull, t.box, sounding_grid(hull, t.box, step_m=step))
+    rows = _printable_rows(tab["volume"], 3)
+    return {k: v[rows] for k, v in tab.items()}
+
+
+def _tank_lines(t: TankDef, hull: Hull) -> list[str]:
+    tab = demo_tank_table(t, hull)
+    return [
+        f"  - id: {t.id}",
+        f"    name: {t.name}",
+        f"    content: {t.content}",
+        f"    density: {_f(t.density, 3)}",
+        "    table:",
+        f"      sounding: {_row(tab['sounding'], 3)}",
+        f"      volume: {_row(tab['volume'], 3)}",
+        f"      lcg: {_row(tab['lcg'], 3)}",
+        f"      vcg: {_row(tab['vcg'], 3)}",
+        f"      tcg: {_row(tab['tcg'], 3)}",
+        f"      fsi: {_row(tab['fsi'], 2)}",
+    ]
+
+
+def _box_note(box: TankBox) -> str:
+    return (f"x {_f(box.x_aft, 2)}..{_f(box.x_fore, 2)}, y {_f(box.y_min, 2)}..{_f(box.y_max, 2)},"
+            f" z {_f(box.z_min, 2)}..{_f(box.z_max, 2)} (m; inside the hull)")
+
+
+def vessel_text() -> str:
+    """The whole -hull.yaml vessel file as text (deterministic)."""
+    st = stations()
+    hull = hull_from_stations([(x, np.array(p, dtype=float)) for x, p in st])
+    lines = [
+        "format: reportgen/vessel-1",
+        "# Invented demo ship: generated by conditions/make_demo_ship.py; do not edit by hand.",
+        "vessel: {name: Linnet Demo, identifier: RG-DEMO-01, type: general cargo}",
+        "particulars:",
+        f"  length_bp: {_f(LPP, 2)}",
+        f"  breadth: {_f(BREADTH, 2)}",
+        f"  depth: {_f(DEPTH, 2)}",
+        f"  summer_draft: {_f(SUMMER_DRAFT, 3)}",
+        f"  keel_thickness: {_f(KEEL_THICKNESS, 3)}",
+        "  bilge: round",
+        f"  bilge_keel_area: {_f(BILGE_KEEL_AREA, 1)}",
+        "lightship: {" + ", ".join(f"{k}: {_f(v, 2)}" for k, v in LIGHTSHIP.items()) + "}",
+        "openings:",
+        *[f"  - {{name: {n}, x: {_f(x, 2)}, y: {_f(y, 2)}, z: {_f(z, 2)}}}"
+          for n, x, y, z in OPENINGS],
+        "windage:",
+        "  profile: " + _pairs(
+            [(round(x, 3), round(z, 3)) for x, z in windage_polygon().exterior.coords[:-1]], 3),
+        "tanks:",
+    ]
+    for t in tank_defs():
+        lines += _tank_lines(t, hull)
+    lines += [
+        "criteria: [is2008.general, is2008.weather]",
+        "calculation: {slack_below_percent: 2.0, slack_above_percent: 98.0, "
+        + "wind_lever: half_draft}",
+        "hull:",
+        "  density: 1.025",
+        "  stations:",
+    ]
+    for x, pts in st:
+        lines += [f"    - x: {_f(x, 4)}", f"      points: {_pairs(pts, 3)}"]
+    lines += [
+        "notes:",
+        "  owner: Harrowgate Coastal Carriers (invented; no such company)",
+        "  description: >-",
+        "    Invented single-deck general cargo ship for the reportgen demonstration;",
+        "    not a real ship. Two box holds above a double bottom, wing ballast tanks,",
+        "    engine room and deckhouse aft. Identifier RG-DEMO-01 is made up.",
+        "  holds:",
+        *[f"    - {name}: {_box_note(box)}" for name, box in HOLDS],
+        "  engine_room: " + f"x {_f(ER_AFT, 2)}..{_f(ER_FORE, 2)} (m)",
+        "  tank_boxes:",
+        *[f"    {t.id}: {_box_note(t.box)}" for t in tank_defs()],
+    ]
+    return "\n".join(lines) + "\n"
+
+
+def write(path: Path = OUT_PATH) -> Path:
+    """Write the vessel file to `path` (temporary name, then rename)."""
+    text = vessel_text()
+    path.parent.mkdir(parents=True, exist_ok=True)
+    tmp = path.with_suffix(path.suffix + ".tmp")
+    tmp.write_text(text, encoding="utf-8")
+    tmp.replace(path)
+    return path
+
+
+if __name__ == "__main__":
+    print(write())
