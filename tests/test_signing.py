@@ -103,8 +103,10 @@ def _standin_sheet(results_text: str | None = None, with_fields: bool = True) ->
 
 
 @pytest.fixture(autouse=True)
-def standin_evaluation(monkeypatch):
-    monkeypatch.setattr(signing, "_recompute_json", _standin_json)
+def standin_evaluation(request, monkeypatch):
+    """Stand-in sheets get the stand-in evaluation; tests of real demo sheets use the real one."""
+    if "demo_sheet" not in request.fixturenames:
+        monkeypatch.setattr(signing, "_recompute_json", _standin_json)
 
 
 # ---------------------------------------------------------------------------------------------
@@ -486,3 +488,71 @@ def test_bad_identity_is_refused(sheets, ids, tmp_path):
         signing.sign_sheet(sheets["one"], out, "approved", key_path=ids["alice"] / "key.pem",
                            cert_path=ids["alice"] / "cert.pem")
     assert not out.exists()
+
+
+# ---------------------------------------------------------------------------------------------
+# Real demo sheets: conditions/*.yaml through the real evaluation and renderer
+
+
+DEMO_CONDITIONS = sorted((Path(__file__).resolve().parent.parent / "conditions").glob("*.yaml"))
+
+
+@pytest.fixture(scope="module")
+def demo_sheet(tmp_path_factory, ids) -> dict:
+    if not DEMO_CONDITIONS:
+        pytest.skip("no demo condition in conditions/*.yaml yet")
+    from reportgen.inputs import load_case
+    from reportgen.pipeline import evaluate
+    from reportgen.report.render import render_sheet
+    from reportgen.results import Results
+
+    base = tmp_path_factory.mktemp("demo")
+    case = load_case(DEMO_CONDITIONS[0])
+    results = evaluate(case)
+    unsigned = base / "unsigned.pdf"
+    unsigned.write_bytes(render_sheet(case, results))
+    one, two = base / "one.pdf", base / "two.pdf"
+    signing.sign_sheet(unsigned, one, "prepared", key_path=ids["alice"] / "key.pem",
+                       cert_path=ids["alice"] / "cert.pem")
+    signing.sign_sheet(one, two, "checked", p12_path=ids["bob"] / "identity.p12",
+                       passphrase=b"correct horse")
+    altered_doc = results.to_dict()
+    altered_doc["hydrostatics"]["gm_fluid"] += 0.05  # not what the inputs give
+    altered = base / "altered.pdf"
+    altered.write_bytes(render_sheet(case, Results.from_document(altered_doc)))
+    return {"unsigned": unsigned, "two": two, "altered": altered}
+
+
+def test_demo_sheet_signed_twice_verifies(demo_sheet, ids):
+    report = signing.verify_sheet(demo_sheet["two"], _trust(ids, "alice", "bob"))
+    assert report["ok"], signing.render_verify_report(report)
+    assert [s["field"] for s in report["signatures"]] == ["prepared", "checked"]
+    assert report["recomputation"]["ok"] and report["recomputation"]["differences"] == []
+
+
+def test_demo_sheet_signatures_valid_in_pdfsig(demo_sheet):
+    if shutil.which("pdfsig") is None:
+        pytest.skip("poppler's pdfsig is not installed (apt-get install poppler-utils)")
+    out = subprocess.run(["pdfsig", str(demo_sheet["two"])], capture_output=True, text=True,
+                         check=False).stdout
+    assert out.count("Signature Validation: Signature is Valid.") == 2, out
+
+
+def test_demo_sheet_with_altered_results_is_caught(demo_sheet, ids, tmp_path):
+    report = signing.verify_sheet(demo_sheet["altered"], _trust(ids, "alice"))
+    assert not report["ok"]
+    assert "hydrostatics.gm_fluid" in report["recomputation"]["differences"]
+    with pytest.raises(InputError, match="hydrostatics.gm_fluid"):
+        signing.sign_sheet(demo_sheet["altered"], tmp_path / "s.pdf", "prepared",
+                           key_path=ids["alice"] / "key.pem",
+                           cert_path=ids["alice"] / "cert.pem")
+
+
+def test_demo_sheet_page_added_after_signing_is_caught(demo_sheet, ids, tmp_path):
+    writer = PdfWriter(demo_sheet["two"], incremental=True)
+    writer.add_blank_page(595, 842)
+    bad = tmp_path / "page.pdf"
+    with bad.open("wb") as fh:
+        writer.write(fh)
+    report = signing.verify_sheet(bad, _trust(ids, "alice", "bob"))
+    assert not report["ok"] and not any(s["docmdp_ok"] for s in report["signatures"])
