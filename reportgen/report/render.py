@@ -1,0 +1,319 @@
+"""The calculation sheet: results -> HTML (jinja2, templates/) -> PDF/A-3b (WeasyPrint).
+
+Python passes values; every word of the sheet is in templates/ (sheet.html.j2,
+sheet.css, labels.j2). The PDF carries the condition and vessel files byte for byte
+and the results document as PDF/A-3 associated files (ISO 19005-3:2012, 6.8), and
+three empty signature fields (ISO 32000-1:2008, 12.7.4.5) placed over the boxes of
+the signature block, for pyHanko to fill by name.
+
+Lengths in this module: CSS px from WeasyPrint's layout, PDF points in the file
+(1 px = 0.75 pt, CSS Values and Units Level 3, 5.2).
+"""
+
+from __future__ import annotations
+
+import base64
+import hashlib
+import os
+import tempfile
+from collections.abc import Mapping
+from datetime import UTC, date, datetime
+from functools import lru_cache
+from importlib.resources import files
+from pathlib import Path
+from typing import Any, Protocol
+
+import jinja2
+import pydyf
+import weasyprint
+
+from reportgen.errors import InputError
+from reportgen.report.figures import curve_towards_side, gz_figure_svg, weather_figure_svg
+
+PX_TO_PT = 0.75  # CSS px to PDF pt (96 px = 72 pt = 1 in)
+SIGNATURE_ROLES = ("prepared", "checked", "reviewed")
+FIXED_EPOCH = datetime(1970, 1, 1, tzinfo=UTC)  # document date when the condition states none
+GZ_TABLE_STEP_DEG = 5
+
+# Decimals printed per quantity (a house choice, finer than the MSC.1/Circ.1229 tolerances).
+DECIMALS = {
+    "mass": 1,  # t
+    "coord": 3,  # m, LCG/VCG/TCG/LCB/LCF/KG/KM
+    "draft": 3,  # m
+    "lever": 3,  # m, GZ, GM, lw
+    "lever4": 4,  # m, the small wind levers
+    "fsm": 1,  # t·m
+    "percent": 1,  # %
+    "volume": 1,  # m³
+    "density": 4,  # t/m³
+    "angle": 1,  # deg
+    "area": 4,  # m·rad
+    "mct": 1,  # t·m/cm
+    "tpc": 2,  # t/cm
+    "factor": 3,  # dimensionless
+    "period": 2,  # s
+    "wind_area": 1,  # m²
+    "pressure": 0,  # N/m²
+    "length": 2,  # m
+}
+UNIT_QUANTITY = {"m·rad": "area", "m": "lever", "deg": "angle", "°": "angle", "t": "mass"}
+
+
+class ResultsLike(Protocol):
+    """What the sheet needs of reportgen.results.Results."""
+
+    def to_dict(self) -> dict: ...
+
+    def to_json(self) -> str: ...
+
+
+def format_number(value: float | None, quantity: str) -> str:
+    """Fixed decimals per quantity (``DECIMALS``); an en dash for a missing value."""
+    if value is None:
+        return "–"
+    text = f"{float(value):.{DECIMALS[quantity]}f}"
+    if text.startswith("-") and float(text) == 0.0:
+        text = text[1:]
+    return text.replace("-", "−")
+
+
+def format_signed(value: float | None, quantity: str) -> str:
+    """Like ``format_number`` with an explicit + sign on positive values."""
+    text = format_number(value, quantity)
+    return text if text.startswith(("−", "–")) or float(text) == 0.0 else "+" + text
+
+
+def format_by_unit(value: float | None, unit: str) -> str:
+    """Decimals chosen by the unit of a criterion (m·rad, m, deg)."""
+    return format_number(value, UNIT_QUANTITY.get(unit, "factor"))
+
+
+def document_number(inputs_sha256: str) -> str:
+    """The sheet's document number: the first 12 hex digits of the inputs' SHA-256."""
+    return inputs_sha256[:12]
+
+
+def attachment_names(condition_name: str, vessel_name: str) -> tuple[str, str]:
+    """Names of the two embedded input files; the vessel's gets "vessel-" when they clash."""
+    if vessel_name == condition_name:
+        return condition_name, "vessel-" + vessel_name
+    return condition_name, vessel_name
+
+
+def document_date(stated: str | date | None) -> datetime:
+    """The fixed date of the document: the condition's date at 00:00 UTC, else 1970-01-01."""
+    if stated is None:
+        return FIXED_EPOCH
+    day = stated if isinstance(stated, date) else date.fromisoformat(str(stated)[:10])
+    return datetime(day.year, day.month, day.day, tzinfo=UTC)
+
+
+def gz_table(gz: Mapping[str, Any], side: str, step_deg: int = GZ_TABLE_STEP_DEG) -> list[dict]:
+    """Rows {heel, gz} at every ``step_deg`` from 0° to the table's end, towards ``side``."""
+    heel, lever = curve_towards_side(gz, side)
+    rows = []
+    for h, g in zip(heel, lever, strict=True):
+        if h >= 0.0 and abs(h - round(h)) < 1e-9 and round(h) % step_deg == 0:
+            rows.append({"heel": float(h), "gz": float(g)})
+    return rows
+
+
+def deadweight_line(lines: list[Mapping[str, Any]]) -> dict:
+    """Mass (t), centres (m) and FSM (t·m) of everything but the lightship."""
+    rest = [line for line in lines if line["kind"] != "lightship"]
+    mass = sum(line["mass"] for line in rest)
+    if mass == 0.0:
+        return {"mass": 0.0, "lcg": None, "vcg": None, "tcg": None, "fsm": 0.0}
+    return {
+        "mass": mass,
+        "lcg": sum(line["mass"] * line["lcg"] for line in rest) / mass,
+        "vcg": sum(line["mass"] * line["vcg"] for line in rest) / mass,
+        "tcg": sum(line["mass"] * line["tcg"] for line in rest) / mass,
+        "fsm": sum(line["fsm"] for line in rest),
+    }
+
+
+def _read_template(name: str) -> str:
+    return (files("reportgen") / "templates" / name).read_text(encoding="utf-8")
+
+
+@lru_cache(maxsize=1)
+def _environment() -> jinja2.Environment:
+    env = jinja2.Environment(
+        loader=jinja2.FunctionLoader(_read_template),
+        autoescape=jinja2.select_autoescape(default=True, default_for_string=True),
+        undefined=jinja2.StrictUndefined,
+        trim_blocks=True,
+        lstrip_blocks=True,
+        keep_trailing_newline=True,
+    )
+    env.filters["num"] = format_number
+    env.filters["signed"] = format_signed
+    env.filters["by_unit"] = format_by_unit
+    return env
+
+
+@lru_cache(maxsize=1)
+def _labels() -> tuple[dict[str, str], dict[str, str]]:
+    module = _environment().get_template("labels.j2").module
+    return dict(module.figure_labels), dict(module.attachment_labels)
+
+
+@lru_cache(maxsize=1)
+def _stylesheet() -> weasyprint.CSS:
+    return weasyprint.CSS(string=_read_template("sheet.css"))
+
+
+def _svg_data_uri(svg: str) -> str:
+    return "data:image/svg+xml;base64," + base64.b64encode(svg.encode("utf-8")).decode("ascii")
+
+
+def sheet_html(case: Any, results: Mapping[str, Any]) -> str:
+    """The sheet as HTML text (the input of WeasyPrint), from the results document."""
+    figure_labels, _ = _labels()
+    created = document_date(results["condition"]["date"]).strftime("%Y-%m-%dT%H:%M:%SZ")
+    return _environment().get_template("sheet.html.j2").render(
+        r=results,
+        docno=document_number(results["inputs_sha256"]),
+        created=created,
+        gz_rows=gz_table(results["gz"], results["angles"]["side"]),
+        deadweight=deadweight_line(results["loading"]["lines"]),
+        gz_figure=_svg_data_uri(gz_figure_svg(results, figure_labels)),
+        weather_figure=(_svg_data_uri(weather_figure_svg(results, figure_labels))
+                        if results.get("weather") else None),
+        roles=SIGNATURE_ROLES,
+    )
+
+
+def _attachments(case: Any, results_json: str, when: datetime) -> list[weasyprint.Attachment]:
+    _, words = _labels()
+    condition_file, vessel_file = attachment_names(case.condition_name, case.vessel_name)
+    made = {"created": when, "modified": when}
+    return [
+        weasyprint.Attachment(string=case.condition_bytes, name=condition_file,
+                              description=words["condition"], relationship="Source", **made),
+        weasyprint.Attachment(string=case.vessel_bytes, name=vessel_file,
+                              description=words["vessel"], relationship="Source", **made),
+        weasyprint.Attachment(string=results_json.encode("utf-8"), name="results.json",
+                              description=words["results"], relationship="Data", **made),
+    ]
+
+
+def _find_box(page_box: Any, element_id: str) -> Any | None:
+    for box in page_box.descendants(placeholders=True):
+        element = getattr(box, "element", None)
+        if element is not None and element.get("id") == element_id:
+            return box
+    return None
+
+
+def signature_rectangles(document: weasyprint.Document) -> dict[str, tuple[int, list[float]]]:
+    """For each role, (page index, [x0, y0, x1, y1] in PDF pt from the page's lower left).
+
+    Taken from the laid-out border box of the element with id ``sig-<role>``.
+    """
+    found: dict[str, tuple[int, list[float]]] = {}
+    for index, page in enumerate(document.pages):
+        for role in SIGNATURE_ROLES:
+            box = _find_box(page._page_box, f"sig-{role}")
+            if box is None or role in found:
+                continue
+            x, y = box.border_box_x(), box.border_box_y()
+            w, h = box.border_width(), box.border_height()
+            found[role] = (index, [round(x * PX_TO_PT, 2), round((page.height - y - h) * PX_TO_PT, 2),
+                                   round((x + w) * PX_TO_PT, 2), round((page.height - y) * PX_TO_PT, 2)])
+    missing = [role for role in SIGNATURE_ROLES if role not in found]
+    if missing:
+        raise RuntimeError(f"sheet template lacks the signature areas for {missing}")
+    return found
+
+
+def _add_signature_fields(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
+    """Empty /FT /Sig fields with print-flagged widgets and an empty /AP /N (PDF/A-3, 6.3.3)."""
+    page_numbers = list(pdf.pages["Kids"])[0::3]  # pydyf stores Kids as number, 0, "R"
+    fields = pydyf.Array()
+    for role, (index, rect) in signature_rectangles(document).items():
+        appearance = pydyf.Stream([], {
+            "Type": "/XObject", "Subtype": "/Form",
+            "BBox": pydyf.Array([0, 0, round(rect[2] - rect[0], 2), round(rect[3] - rect[1], 2)]),
+            "Resources": pydyf.Dictionary({}),
+        })
+        pdf.add_object(appearance)
+        widget = pydyf.Dictionary({
+            "Type": "/Annot", "Subtype": "/Widget", "FT": "/Sig",
+            "T": pydyf.String(role), "F": 4,
+            "Rect": pydyf.Array(rect),
+            "P": f"{page_numbers[index]} 0 R",
+            "AP": pydyf.Dictionary({"N": appearance.reference}),
+        })
+        pdf.add_object(widget)
+        page = pdf.objects[page_numbers[index]]
+        if "Annots" not in page:
+            page["Annots"] = pydyf.Array()
+        page["Annots"].append(widget.reference)
+        fields.append(widget.reference)
+    pdf.catalog["AcroForm"] = pydyf.Dictionary({"Fields": fields})
+
+
+def _deduplicate_associated_files(pdf: pydyf.PDF) -> None:
+    """The catalog's /AF lists each embedded file once (ISO 19005-3, 6.8)."""
+    if "AF" in pdf.catalog:
+        unique: list = []
+        for reference in pdf.catalog["AF"]:
+            if reference not in unique:
+                unique.append(reference)
+        pdf.catalog["AF"] = pydyf.Array(unique)
+
+
+def _finisher(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
+    _deduplicate_associated_files(pdf)
+    _add_signature_fields(document, pdf)
+
+
+def render_sheet(case: Any, results: ResultsLike) -> bytes:
+    """The calculation sheet as PDF/A-3b bytes; equal inputs give equal bytes."""
+    data = results.to_dict()
+    results_json = results.to_json()
+    when = document_date(data["condition"]["date"])
+    html = weasyprint.HTML(string=sheet_html(case, data))
+    document = html.render(stylesheets=[_stylesheet()], pdf_variant="pdf/a-3b")
+    identifier = hashlib.sha256((data["inputs_sha256"] + results_json).encode("utf-8")).hexdigest()
+    return document.write_pdf(
+        finisher=_finisher,
+        pdf_variant="pdf/a-3b",
+        attachments=_attachments(case, results_json, when),
+        pdf_identifier=identifier[:32].encode("ascii"),
+    )
+
+
+def _current_umask() -> int:
+    mask = os.umask(0o022)
+    os.umask(mask)
+    return mask
+
+
+def write_sheet(case: Any, results: ResultsLike, out_path: str | os.PathLike,
+                force: bool = False) -> None:
+    """Write the sheet to ``out_path`` atomically (temporary file, then rename).
+
+    Raises InputError when ``out_path`` exists and ``force`` is false, or when its
+    directory does not exist; nothing is written then.
+    """
+    target = Path(out_path)
+    if target.exists() and not force:
+        raise InputError(f"{target}: the file exists; not overwritten (use --force to replace it)")
+    if not target.parent.is_dir():
+        raise InputError(f"{target}: the directory {target.parent} does not exist")
+    pdf_bytes = render_sheet(case, results)
+    handle, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part",
+                                         dir=target.parent)
+    try:
+        os.chmod(temporary, 0o666 & ~_current_umask())
+        with os.fdopen(handle, "wb") as stream:
+            stream.write(pdf_bytes)
+            stream.flush()
+            os.fsync(stream.fileno())
+        os.replace(temporary, target)
+    except BaseException:
+        Path(temporary).unlink(missing_ok=True)
+        raise
