@@ -491,12 +491,13 @@ _STAMP_HTML = """<!doctype html><html><head><meta charset="utf-8"><style>
 @page {{ size: {w:.2f}pt {h:.2f}pt; margin: 0 }}
 html, body {{ margin: 0; font-family: "DejaVu Sans", sans-serif; color: #102a43 }}
 body {{ padding: 3pt 5pt; font-size: {fs:.1f}pt; line-height: 1.25 }}
-.role {{ font-weight: bold }}
+.role {{ font-size: {fs1:.1f}pt }}
 .small {{ font-size: {fs2:.1f}pt }}
 </style></head><body>
 <div class="role">{role}</div>
 <div>{signer}</div>
-<div class="small">digitally signed {when}</div>
+<div class="small">digitally signed</div>
+<div class="small">{when}</div>
 </body></html>"""
 
 
@@ -505,9 +506,9 @@ def _stamp_pdf(role: str, signer: str, when: dt.datetime, width_pt: float,
     """A one-page PDF, the size of the field, with role, signer and date; fonts embedded."""
     from weasyprint import HTML
 
-    fs = max(5.0, min(9.0, height_pt / 4.6))
+    fs = max(5.0, min(9.0, height_pt / 6.0))  # four lines fit the field
     page = _STAMP_HTML.format(
-        w=width_pt, h=height_pt, fs=fs, fs2=fs * 0.85,
+        w=width_pt, h=height_pt, fs=fs, fs1=fs * 1.1, fs2=fs * 0.85,
         role=html.escape(_ROLE_WORDS[role]), signer=html.escape(signer),
         when=when.strftime("%Y-%m-%d %H:%M UTC"),
     )

@@ -281,6 +281,15 @@ def _xobject_text(xobj) -> str:
         return ""
 
 
+def test_qpdf_finds_signed_sheet_well_formed(sheets):
+    if shutil.which("qpdf") is None:
+        pytest.skip("qpdf is not installed (apt-get install qpdf)")
+    # qpdf exit status (its manual): 0 no errors, 2 errors, 3 warnings only
+    done = subprocess.run(["qpdf", "--check", str(sheets["two"])], capture_output=True,
+                          text=True, check=False)
+    assert done.returncode == 0, done.stdout + done.stderr
+
+
 def test_pdfsig_finds_every_signature_valid(sheets):
     if shutil.which("pdfsig") is None:
         pytest.skip("poppler's pdfsig is not installed (apt-get install poppler-utils)")
