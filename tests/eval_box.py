@@ -11,6 +11,7 @@ from the keel K to the centroid of the immersed section in the heeled frame.
 
 from __future__ import annotations
 
+import functools
 import math
 from pathlib import Path
 
@@ -20,10 +21,10 @@ from scipy.optimize import brentq
 from shapely import affinity
 from shapely.geometry import Polygon, box
 
-L, B, D = 100.0, 20.0, 10.0
+L, B, D = 100.0, 16.0, 14.0
 RHO = 1.025
 HEELS = [float(h) for h in range(0, 91, 5)]
-DRAFTS = [round(1.0 + 0.2 * i, 4) for i in range(41)]  # 1.0 .. 9.0 m
+DRAFTS = [round(2.0 + 0.25 * i, 4) for i in range(41)]  # 2.0 .. 12.0 m
 
 
 def kn_exact(draft_m: float, heel_deg: float) -> float:
@@ -51,14 +52,20 @@ def wall_sided_gz(draft_m: float, kg_m: float, heel_deg: float) -> float:
     return math.sin(t) * (gm + 0.5 * bm * math.tan(t) ** 2)
 
 
+@functools.lru_cache(maxsize=1)
+def kn_table() -> tuple[tuple[float, ...], ...]:
+    """KN (m) at every DRAFTS row and HEELS column, by kn_exact (computed once)."""
+    return tuple(tuple(kn_exact(t, h) for h in HEELS) for t in DRAFTS)
+
+
 def vessel_dict(criteria: tuple[str, ...] = ("is2008.general", "is2008.weather"),
                 **extra: object) -> dict:
     drafts = np.array(DRAFTS)
-    kn = [[kn_exact(t, h) for h in HEELS] for t in DRAFTS]
+    kn = [list(row) for row in kn_table()]
     d = {
         "format": "reportgen/vessel-1",
         "vessel": {"name": "Test box barge", "identifier": "TEST-BOX-0001", "type": "barge"},
-        "particulars": {"length_bp": L, "breadth": B, "depth": D, "summer_draft": 8.0,
+        "particulars": {"length_bp": L, "breadth": B, "depth": D, "summer_draft": 10.0,
                         "keel_thickness": 0.02, "bilge": "sharp", "bilge_keel_area": 0.0},
         "lightship": {"mass": 1000.0, "lcg": L / 2, "vcg": 4.0, "tcg": 0.0},
         "hydrostatics": {
