@@ -45,7 +45,7 @@ OUT_PATH = ROOT / "conditions" / "vessels" / f"{SHIP_SLUG}-hull.yaml"
 # --- main dimensions (m) -------------------------------------------------------------------
 LPP = 97.0
 BREADTH = 15.6
-DEPTH = 8.0
+DEPTH = 8.4
 SUMMER_DRAFT = 6.2
 KEEL_THICKNESS = 0.016
 BILGE_KEEL_AREA = 18.0  # two bilge keels of about 0.35 m x 26 m (m²)
