@@ -113,6 +113,10 @@ def _free_trim_residual(geom: HullGeometry, volume_m3: float, heel_deg: float, l
     return fun
 
 
+def _converged(f: np.ndarray, lpp: float) -> bool:
+    return abs(f[0]) < 10 * _VOL_RTOL and abs(f[1]) * lpp < _LCB_TOL_M
+
+
 def solve_free_trim(geom: HullGeometry, volume_m3: float, heel_deg: float, lcg_m: float,
                     guess: Plane | None = None) -> Plane:
     """The plane at heel `heel_deg` immersing `volume_m3` with xB = `lcg_m`.
@@ -124,12 +128,15 @@ def solve_free_trim(geom: HullGeometry, volume_m3: float, heel_deg: float, lcg_m
     if guess is None:
         guess = solve_draft(geom, volume_m3, heel_deg, 0.0)
     fun = _free_trim_residual(geom, volume_m3, heel_deg, lcg_m)
-    sol = root(fun, np.array([guess.d_m, guess.slope * lpp]), jac=True, method="hybr",
-               options={"xtol": 1e-12})
-    if sol.success:
-        f, _ = fun(sol.x)
-        if abs(f[0]) < 1e-9 and abs(f[1]) * lpp < _LCB_TOL_M:
-            return Plane(float(sol.x[0]), float(sol.x[1]) / lpp, heel_deg)
+    z0 = np.array([guess.d_m, guess.slope * lpp])
+    if _converged(fun(z0)[0], lpp):
+        return Plane(guess.d_m, guess.slope, heel_deg)
+    sol = root(fun, z0, jac=True, method="hybr",
+               options={"xtol": 1e-10})
+    # Accept on the residual itself: hybrj reports "not making good progress" when it
+    # starts at (or reaches) the root to machine precision.
+    if _converged(sol.fun, lpp):
+        return Plane(float(sol.x[0]), float(sol.x[1]) / lpp, heel_deg)
     return _free_trim_nested(geom, volume_m3, heel_deg, lcg_m)
 
 

@@ -100,6 +100,13 @@ def clearance_m(geom: HullGeometry, plane: Plane, points_xyz: np.ndarray) -> flo
     return float(np.min(pts[:, 1:] @ n - c))
 
 
+def _between(a: Plane, b: Plane, heel_deg: float) -> Plane:
+    """The plane linearly inter- or extrapolated in heel from planes a and b (a first
+    guess for the equilibrium solver)."""
+    f = (heel_deg - a.heel_deg) / (b.heel_deg - a.heel_deg)
+    return Plane(a.d_m + f * (b.d_m - a.d_m), a.slope + f * (b.slope - a.slope), heel_deg)
+
+
 def immersion_angle(
     geom: HullGeometry,
     points_xyz: np.ndarray,
@@ -124,8 +131,10 @@ def immersion_angle(
         if gaps[j] <= 0.0:
             prev = scanned[j - 1].plane
 
-            def gap(h: float, prev: Plane = prev) -> float:
-                e = equilibrium(geom, volume_m3, h, lcg_m, guess=prev)
+            nxt = scanned[j].plane
+
+            def gap(h: float, prev: Plane = prev, nxt: Plane = nxt) -> float:
+                e = equilibrium(geom, volume_m3, h, lcg_m, guess=_between(prev, nxt, h))
                 return clearance_m(geom, e.plane, points_xyz)
 
             return float(brentq(gap, heels[j - 1], heels[j], xtol=1e-4))
@@ -186,11 +195,14 @@ def build_tables(
         upright = equilibrium(geom, vol, 0.0)
         lcg = None if even_keel else upright.lcb_m
         states: list[Equilibrium] = []
-        prev: Plane | None = upright.plane
         for h in heels:
-            e = upright if h == 0.0 else equilibrium(geom, vol, h, lcg, guess=prev)
+            if h == 0.0:
+                e = upright
+            else:
+                guess = (states[-1].plane if len(states) < 2
+                         else _between(states[-2].plane, states[-1].plane, h))
+                e = equilibrium(geom, vol, h, lcg, guess=guess)
             states.append(e)
-            prev = e.plane
         kn_rows.append(_round([e.kn_m for e in states], _DEC_LENGTH))
         deck_angles.append(immersion_angle(geom, deck, vol, lcg, states))
         if len(vents):
