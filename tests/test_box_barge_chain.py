@@ -140,3 +140,17 @@ def test_deck_edge_formula_and_no_flooding_point(tmp_path):
     assert d["assumptions"]["flooding_source"] == "none"
     assert any("downflooding" in w for w in d["warnings"])
     assert d["loading"]["displacement"] == pytest.approx(RHO * L * B * 7.0)
+
+
+def test_criteria_ids_in_spec_order(tmp_path):
+    # SPEC.md "Criteria": ids of is2008.general then is2008.weather, with their references.
+    d = _run(tmp_path, 7.0, kg=6.0)
+    ids = [c["id"] for c in d["criteria"]]
+    assert ids == ["area_0_30", "area_0_40", "area_30_40", "gz_30", "gz_max_angle", "gm0",
+                   "weather_heel", "weather_area"]
+    refs = [c["reference"] for c in d["criteria"]]
+    assert refs == ["IS Code 2008, Part A, 2.2.1"] * 3 + [
+        "IS Code 2008, Part A, 2.2.2", "IS Code 2008, Part A, 2.2.3",
+        "IS Code 2008, Part A, 2.2.4", "IS Code 2008, Part A, 2.3.1.2",
+        "IS Code 2008, Part A, 2.3.1.4"]
+    assert d["passed"] is all(c["passed"] for c in d["criteria"])
