@@ -40,7 +40,8 @@ _RC = {
     "legend.fancybox": False,
 }
 
-FIGURE_SIZE_IN = (7.0, 3.3)  # width, height in inches: the sheet's text width
+FIGURE_SIZE_IN = (7.0, 3.2)  # width, height in inches: the sheet's text width
+STEP_DEG = 0.25  # resampling step of the shaded areas; the data grid is 1°
 
 
 def curve_towards_side(gz: Mapping[str, Any], side: str) -> tuple[np.ndarray, np.ndarray]:
@@ -59,14 +60,14 @@ def curve_towards_side(gz: Mapping[str, Any], side: str) -> tuple[np.ndarray, np
 def _svg(fig: Figure) -> str:
     buffer = io.StringIO()
     with matplotlib.rc_context(_RC):
-        fig.savefig(buffer, format="svg", metadata={"Date": None}, bbox_inches="tight",
-                    pad_inches=0.02)
+        fig.savefig(buffer, format="svg", metadata={"Date": None})
     return buffer.getvalue()
 
 
 def _new_axes(labels: Mapping[str, str], side_word: str):
     with matplotlib.rc_context(_RC):
         fig = Figure(figsize=FIGURE_SIZE_IN)
+        fig.subplots_adjust(left=0.09, right=0.985, top=0.975, bottom=0.25)
         ax = fig.add_subplot()
         ax.set_xlabel(labels["heel_axis"].format(side=side_word))
         ax.set_ylabel(labels["gz_axis"])
@@ -75,15 +76,16 @@ def _new_axes(labels: Mapping[str, str], side_word: str):
     return fig, ax
 
 
-def _vertical_marker(ax, angle_deg: float, text: str, style: str, y_frac: float) -> None:
+def _vertical_marker(ax, angle_deg: float, text: str, style, at_top: bool) -> None:
+    """A vertical line at ``angle_deg`` with its label written along it, top or bottom."""
     ax.axvline(angle_deg, color="black", linestyle=style, linewidth=0.7)
-    ax.text(angle_deg, y_frac, " " + text, transform=ax.get_xaxis_transform(), rotation=90,
-            va="top", ha="right", fontsize=6.5,
-            bbox={"facecolor": "white", "edgecolor": "none", "pad": 0.5})
+    ax.text(angle_deg, 0.98 if at_top else 0.02, text, transform=ax.get_xaxis_transform(),
+            rotation=90, va="top" if at_top else "bottom", ha="right", fontsize=6.5,
+            bbox={"facecolor": "white", "edgecolor": "none", "pad": 0.6})
 
 
 def _legend_below(ax) -> None:
-    ax.legend(loc="upper center", bbox_to_anchor=(0.5, -0.16), ncol=3, handlelength=3.0,
+    ax.legend(loc="upper center", bbox_to_anchor=(0.5, -0.15), ncol=3, handlelength=3.0,
               borderaxespad=0.0)
 
 
@@ -100,7 +102,7 @@ def gz_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) -> str:
         heel, lever = curve_towards_side(results["gz"], side)
         keep = heel >= 0.0
         heel, lever = heel[keep], lever[keep]
-        fine = np.linspace(0.0, heel[-1], int(heel[-1] * 10) + 1)
+        fine = np.linspace(0.0, heel[-1], round(float(heel[-1]) / STEP_DEG) + 1)
         fine_gz = np.interp(fine, heel, lever)
 
         flooding = results["angles"]["flooding"]
@@ -110,7 +112,7 @@ def gz_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) -> str:
         ax.fill_between(fine, 0.0, fine_gz, where=first, facecolor="white", edgecolor="black",
                         hatch="////", linewidth=0.0, label=labels["area_0_30"])
         ax.fill_between(fine, 0.0, fine_gz, where=second, facecolor="white",
-                        edgecolor="0.35", hatch="\\\\\\\\..", linewidth=0.0,
+                        edgecolor="0.35", hatch="\\\\\\\\", linewidth=0.0,
                         label=labels["area_30_40"].format(upper=f"{upper:.1f}"))
         ax.plot(heel, lever, color="black", linewidth=1.3, label=labels["gz_curve"])
 
@@ -119,16 +121,17 @@ def gz_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) -> str:
                 label=labels["gm_slope"])
         ax.plot([RAD_DEG, RAD_DEG], [0.0, gm], color="black", linestyle=":", linewidth=0.8)
         ax.annotate(labels["gm_at_rad"].format(gm=f"{gm:.3f}"), (RAD_DEG, gm),
-                    xytext=(4, 2), textcoords="offset points", fontsize=6.5)
+                    xytext=(-3, 3), textcoords="offset points", ha="right", fontsize=6.5,
+                    bbox={"facecolor": "white", "edgecolor": "none", "pad": 0.6})
 
         angles = results["angles"]
         if angles["deck_edge"] is not None:
             _vertical_marker(ax, angles["deck_edge"],
                              labels["deck_edge"].format(angle=f"{angles['deck_edge']:.1f}"),
-                             "-.", 0.98)
+                             "-.", False)
         if flooding is not None and flooding <= heel[-1]:
             _vertical_marker(ax, flooding, labels["flooding"].format(angle=f"{flooding:.1f}"),
-                             (0, (5, 2, 1, 2, 1, 2)), 0.98)
+                             (0, (5, 2, 1, 2, 1, 2)), False)
         if angles["gz_max"] is not None:
             gz_max = float(np.interp(angles["gz_max"], heel, lever))
             ax.plot([angles["gz_max"]], [gz_max], marker="o", markersize=4,
@@ -163,7 +166,7 @@ def weather_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) ->
         lo = max(float(heel[0]), np.floor((start - 5.0) / 5.0) * 5.0)
         ends = [theta2 + 10.0] + ([weather["thetac"] + 5.0] if weather["thetac"] else [])
         hi = min(float(heel[-1]), np.ceil(max(ends) / 5.0) * 5.0)
-        fine = np.linspace(lo, hi, int((hi - lo) * 10) + 1)
+        fine = np.linspace(lo, hi, round(float(hi - lo) / STEP_DEG) + 1)
         fine_gz = np.interp(fine, heel, lever)
         lw1, lw2 = weather["lw1"], weather["lw2"]
 
@@ -175,7 +178,7 @@ def weather_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) ->
                             edgecolor="black", hatch="////", linewidth=0.0,
                             label=labels["area_a_legend"].format(value=f"{weather['area_a']:.4f}"))
             ax.fill_between(fine, fine_gz, lw2, where=in_b, facecolor="white",
-                            edgecolor="0.35", hatch="\\\\\\\\..", linewidth=0.0,
+                            edgecolor="0.35", hatch="\\\\\\\\", linewidth=0.0,
                             label=labels["area_b_legend"].format(value=f"{weather['area_b']:.4f}"))
             a_x = 0.5 * (start + cross)
             b_x = 0.5 * (cross + theta2)
@@ -191,10 +194,10 @@ def weather_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) ->
         ax.axhline(lw2, color="black", linestyle="-.", linewidth=0.8,
                    label=labels["lw2"].format(value=f"{lw2:.4f}"))
         _vertical_marker(ax, weather["theta0"],
-                         labels["theta0"].format(angle=f"{weather['theta0']:.1f}"), ":", 0.98)
+                         labels["theta0"].format(angle=f"{weather['theta0']:.1f}"), ":", True)
         _vertical_marker(ax, start, labels["theta_start"].format(angle=f"{start:.1f}"),
-                         ":", 0.98)
-        _vertical_marker(ax, theta2, labels["theta2"].format(angle=f"{theta2:.1f}"), ":", 0.98)
+                         ":", True)
+        _vertical_marker(ax, theta2, labels["theta2"].format(angle=f"{theta2:.1f}"), ":", True)
         ax.set_xlim(lo, hi)
         visible = fine_gz
         top = float(visible.max()) * 1.2

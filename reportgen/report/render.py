@@ -14,6 +14,7 @@ from __future__ import annotations
 
 import base64
 import hashlib
+import math
 import os
 import tempfile
 from collections.abc import Mapping
@@ -30,10 +31,12 @@ import weasyprint
 from reportgen.errors import InputError
 from reportgen.report.figures import curve_towards_side, gz_figure_svg, weather_figure_svg
 
+PDF_VARIANT = "pdf/a-3b"  # ISO 19005-3, conformance level B
 PX_TO_PT = 0.75  # CSS px to PDF pt (96 px = 72 pt = 1 in)
 SIGNATURE_ROLES = ("prepared", "checked", "reviewed")
 FIXED_EPOCH = datetime(1970, 1, 1, tzinfo=UTC)  # document date when the condition states none
 GZ_TABLE_STEP_DEG = 5
+GZ_TABLE_MAX_COLUMNS = 13  # values per row of the GZ table that fit the A4 text width
 
 # Decimals printed per quantity (a house choice, finer than the MSC.1/Circ.1229 tolerances).
 DECIMALS = {
@@ -118,6 +121,12 @@ def gz_table(gz: Mapping[str, Any], side: str, step_deg: int = GZ_TABLE_STEP_DEG
     return rows
 
 
+def table_columns(count: int, max_columns: int = GZ_TABLE_MAX_COLUMNS) -> int:
+    """Values per row so that ``count`` values fill rows of nearly equal length."""
+    rows = max(1, math.ceil(count / max_columns))
+    return max(1, math.ceil(count / rows))
+
+
 def deadweight_line(lines: list[Mapping[str, Any]]) -> dict:
     """Mass (t), centres (m) and FSM (t·m) of everything but the lightship."""
     rest = [line for line in lines if line["kind"] != "lightship"]
@@ -172,11 +181,13 @@ def sheet_html(case: Any, results: Mapping[str, Any]) -> str:
     """The sheet as HTML text (the input of WeasyPrint), from the results document."""
     figure_labels, _ = _labels()
     created = document_date(results["condition"]["date"]).strftime("%Y-%m-%dT%H:%M:%SZ")
+    rows = gz_table(results["gz"], results["angles"]["side"])
     return _environment().get_template("sheet.html.j2").render(
         r=results,
         docno=document_number(results["inputs_sha256"]),
         created=created,
-        gz_rows=gz_table(results["gz"], results["angles"]["side"]),
+        gz_rows=rows,
+        gz_columns=table_columns(len(rows)),
         deadweight=deadweight_line(results["loading"]["lines"]),
         gz_figure=_svg_data_uri(gz_figure_svg(results, figure_labels)),
         weather_figure=(_svg_data_uri(weather_figure_svg(results, figure_labels))
@@ -207,25 +218,38 @@ def _find_box(page_box: Any, element_id: str) -> Any | None:
     return None
 
 
-def signature_rectangles(document: weasyprint.Document) -> dict[str, tuple[int, list[float]]]:
-    """For each role, (page index, [x0, y0, x1, y1] in PDF pt from the page's lower left).
+def element_rectangles(document: weasyprint.Document,
+                       element_ids: tuple[str, ...]) -> dict[str, tuple[int, list[float]]]:
+    """For each element id, (page index, [x0, y0, x1, y1] in PDF pt from the page's lower left).
 
-    Taken from the laid-out border box of the element with id ``sig-<role>``.
+    Taken from the laid-out border box of the first box of that element; ids not laid
+    out are absent from the answer.
     """
     found: dict[str, tuple[int, list[float]]] = {}
     for index, page in enumerate(document.pages):
-        for role in SIGNATURE_ROLES:
-            box = _find_box(page._page_box, f"sig-{role}")
-            if box is None or role in found:
+        for element_id in element_ids:
+            if element_id in found:
+                continue
+            box = _find_box(page._page_box, element_id)
+            if box is None:
                 continue
             x, y = box.border_box_x(), box.border_box_y()
             w, h = box.border_width(), box.border_height()
-            found[role] = (index, [round(x * PX_TO_PT, 2), round((page.height - y - h) * PX_TO_PT, 2),
-                                   round((x + w) * PX_TO_PT, 2), round((page.height - y) * PX_TO_PT, 2)])
-    missing = [role for role in SIGNATURE_ROLES if role not in found]
-    if missing:
-        raise RuntimeError(f"sheet template lacks the signature areas for {missing}")
+            found[element_id] = (index, [round(x * PX_TO_PT, 2),
+                                         round((page.height - y - h) * PX_TO_PT, 2),
+                                         round((x + w) * PX_TO_PT, 2),
+                                         round((page.height - y) * PX_TO_PT, 2)])
     return found
+
+
+def signature_rectangles(document: weasyprint.Document) -> dict[str, tuple[int, list[float]]]:
+    """For each role, the page index and PDF rectangle of the box with id ``sig-<role>``."""
+    ids = tuple(f"sig-{role}" for role in SIGNATURE_ROLES)
+    found = element_rectangles(document, ids)
+    missing = [element_id for element_id in ids if element_id not in found]
+    if missing:
+        raise RuntimeError(f"sheet template lacks the signature areas {missing}")
+    return {role: found[f"sig-{role}"] for role in SIGNATURE_ROLES}
 
 
 def _add_signature_fields(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
@@ -270,17 +294,22 @@ def _finisher(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
     _add_signature_fields(document, pdf)
 
 
+def layout_sheet(case: Any, results: Mapping[str, Any]) -> weasyprint.Document:
+    """The laid-out pages of the sheet (WeasyPrint document) for a results document."""
+    html = weasyprint.HTML(string=sheet_html(case, results))
+    return html.render(stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT)
+
+
 def render_sheet(case: Any, results: ResultsLike) -> bytes:
     """The calculation sheet as PDF/A-3b bytes; equal inputs give equal bytes."""
     data = results.to_dict()
     results_json = results.to_json()
     when = document_date(data["condition"]["date"])
-    html = weasyprint.HTML(string=sheet_html(case, data))
-    document = html.render(stylesheets=[_stylesheet()], pdf_variant="pdf/a-3b")
+    document = layout_sheet(case, data)
     identifier = hashlib.sha256((data["inputs_sha256"] + results_json).encode("utf-8")).hexdigest()
     return document.write_pdf(
         finisher=_finisher,
-        pdf_variant="pdf/a-3b",
+        pdf_variant=PDF_VARIANT,
         attachments=_attachments(case, results_json, when),
         pdf_identifier=identifier[:32].encode("ascii"),
     )
