@@ -107,9 +107,17 @@ def gz_curve(cross: CrossCurves, displacement_table_t: float, kg_fluid_m: float,
                    cross.heel_max_deg)
 
 
+LIST_TCG_TOLERANCE_M = 1e-6  # |TCG| at or below this is no list (rounding of symmetric loads)
+
+
+def has_list(tcg_m: float) -> bool:
+    """True when the TCG (m) puts the ship on a list (beyond LIST_TCG_TOLERANCE_M)."""
+    return abs(tcg_m) > LIST_TCG_TOLERANCE_M
+
+
 def list_side(tcg_m: float) -> Literal["starboard", "port"]:
     """The side the criteria are taken towards: that of the list; starboard with none."""
-    return "port" if tcg_m < 0 else "starboard"
+    return "port" if has_list(tcg_m) and tcg_m < 0 else "starboard"
 
 
 def area_mrad(curve: GZCurve, start_deg: float, end_deg: float, level_m: float = 0.0) -> float:

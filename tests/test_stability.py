@@ -129,3 +129,12 @@ def test_deck_edge_and_opening_angles():
     assert angles[0].angle_deg == pytest.approx(45.0)
     assert angles[1].angle_deg == pytest.approx(90.0)
     assert angles[2].angle_deg == 0.0 and angles[2].submerged
+
+
+def test_list_side_ignores_rounding_of_symmetric_loads():
+    from reportgen.stability import has_list, list_side
+
+    # Symmetric P/S tanks sum to a TCG of ~1e-16 m: no list, criteria towards starboard.
+    assert list_side(-1e-15) == "starboard" and not has_list(-1e-15)
+    assert list_side(-0.01) == "port" and has_list(-0.01)
+    assert list_side(0.01) == "starboard"
