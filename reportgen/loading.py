@@ -26,6 +26,9 @@ if TYPE_CHECKING:
     from reportgen.inputs import Condition, Tank, Vessel
 
 
+SLACK_TOLERANCE_PERCENT = 1e-9
+
+
 @dataclass(frozen=True)
 class TankTable:
     """A tank's sounding table as arrays: sounding m, volume m³, lcg/vcg/tcg m, fsi m⁴."""
@@ -115,8 +118,11 @@ def tank_state(table: TankTable, density_t_m3: float, kind: str, value: float,
 
 def is_slack(percent: float, slack_below_percent: float, slack_above_percent: float) -> bool:
     """A tank is slack unless filled below `slack_below_percent` or above `slack_above_percent`
-    (vessel calculation settings, SPEC.md; defaults 2 % and 98 %)."""
-    return slack_below_percent <= percent <= slack_above_percent
+    (vessel calculation settings, SPEC.md; defaults 2 % and 98 %). The limits hold to within
+    SLACK_TOLERANCE_PERCENT, so a filling given as a mass or volume equal to a limit percentage
+    is classed as that percentage is."""
+    tol = SLACK_TOLERANCE_PERCENT
+    return slack_below_percent - tol <= percent <= slack_above_percent + tol
 
 
 def free_surface_moment(state: TankState, density_t_m3: float,
