@@ -74,7 +74,17 @@ def evaluate_path(condition_path: str | Path) -> Results:
 
 def evaluate(case: Case, tables: VesselTables | None = None) -> Results:
     """Evaluate a case (reportgen.inputs.Case). `tables` may be passed when evaluating many
-    conditions of one vessel; it must have been made from `case.vessel`."""
+    conditions of one vessel; it must have been made from `case.vessel`.
+
+    An InputError found while evaluating (a displacement beyond the tables, a windage profile
+    that does not reach above the waterline, ...) names the condition file."""
+    try:
+        return _evaluate(case, tables)
+    except InputError as exc:
+        raise InputError(f"{case.condition_name} (vessel {case.vessel_name}): {exc}") from None
+
+
+def _evaluate(case: Case, tables: VesselTables | None) -> Results:
     vessel, cond = case.vessel, case.condition
     tab = tables if tables is not None else vessel_tables(vessel)
     part = vessel.particulars
