@@ -17,7 +17,8 @@ import hashlib
 import math
 import os
 import tempfile
-from collections.abc import Mapping
+from collections.abc import Iterator, Mapping
+from contextlib import contextmanager
 from datetime import UTC, date, datetime
 from functools import lru_cache
 from importlib.resources import files
@@ -307,12 +308,32 @@ def render_sheet(case: Any, results: ResultsLike) -> bytes:
     when = document_date(data["condition"]["date"])
     document = layout_sheet(case, data)
     identifier = hashlib.sha256((data["inputs_sha256"] + results_json).encode("utf-8")).hexdigest()
-    return document.write_pdf(
-        finisher=_finisher,
-        pdf_variant=PDF_VARIANT,
-        attachments=_attachments(case, results_json, when),
-        pdf_identifier=identifier[:32].encode("ascii"),
-    )
+    with _source_date_epoch(when):
+        return document.write_pdf(
+            finisher=_finisher,
+            pdf_variant=PDF_VARIANT,
+            attachments=_attachments(case, results_json, when),
+            pdf_identifier=identifier[:32].encode("ascii"),
+        )
+
+
+@contextmanager
+def _source_date_epoch(when: datetime) -> Iterator[None]:
+    """Fix the clock that fontTools writes into each subset font's 'head' table.
+
+    fontTools (misc.timeTools.timestampNow) reads SOURCE_DATE_EPOCH, the
+    reproducible-builds convention; without it the font bytes carry the time of rendering.
+    The variable is restored afterwards.
+    """
+    before = os.environ.get("SOURCE_DATE_EPOCH")
+    os.environ["SOURCE_DATE_EPOCH"] = str(int(when.timestamp()))
+    try:
+        yield
+    finally:
+        if before is None:
+            os.environ.pop("SOURCE_DATE_EPOCH", None)
+        else:
+            os.environ["SOURCE_DATE_EPOCH"] = before
 
 
 def _current_umask() -> int:
