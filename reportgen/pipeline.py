@@ -6,6 +6,7 @@ Units as SPEC.md: t, m, t/m³, t·m, deg, m·rad. Nothing here reads files excep
 
 from __future__ import annotations
 
+import weakref
 from dataclasses import dataclass
 from pathlib import Path
 from typing import TYPE_CHECKING
@@ -65,6 +66,24 @@ def vessel_tables(vessel: Vessel) -> VesselTables:
                         Polygon(vessel.windage.profile))
 
 
+_TABLES_BY_VESSEL: dict[int, VesselTables] = {}
+
+
+def tables_for(vessel: Vessel) -> VesselTables:
+    """`vessel_tables(vessel)`, made once per vessel object.
+
+    The vessel models are frozen (immutable), so the tables made from one cannot go stale; the
+    entry is keyed by the object's identity and removed when the object is collected.
+    """
+    key = id(vessel)
+    hit = _TABLES_BY_VESSEL.get(key)
+    if hit is None:
+        hit = vessel_tables(vessel)
+        _TABLES_BY_VESSEL[key] = hit
+        weakref.finalize(vessel, _TABLES_BY_VESSEL.pop, key, None)
+    return hit
+
+
 def evaluate_path(condition_path: str | Path) -> Results:
     """Read a condition file and its vessel, and evaluate."""
     from reportgen.inputs import load_case
@@ -86,7 +105,7 @@ def evaluate(case: Case, tables: VesselTables | None = None) -> Results:
 
 def _evaluate(case: Case, tables: VesselTables | None) -> Results:
     vessel, cond = case.vessel, case.condition
-    tab = tables if tables is not None else vessel_tables(vessel)
+    tab = tables if tables is not None else tables_for(vessel)
     part = vessel.particulars
     calc = vessel.calculation
     rho_w = cond.condition.water_density

@@ -18,12 +18,12 @@ both read GZ_side(φ) = KN(φ) − KG_fluid·sin φ − |TCG|·cos φ for the si
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import TYPE_CHECKING, Literal
 
 import numpy as np
 from scipy.integrate import simpson
-from scipy.interpolate import CubicSpline
+from scipy.interpolate import CubicSpline, PPoly
 from scipy.optimize import brentq, minimize_scalar
 
 from reportgen.errors import InputError
@@ -39,11 +39,29 @@ AREA_POINTS = 241  # odd: Simpson's rule points per area integral
 
 @dataclass(frozen=True)
 class CrossCurves:
-    """KN table: heel_deg (from 0), displacement t (at the table density), kn (n_disp, n_heel) m."""
+    """KN table: heel_deg (from 0), displacement t (at the table density), kn (n_disp, n_heel) m.
+
+    The cubic splines in heel of every displacement row are made once, when the table is made
+    (`_rows`): spline interpolation is linear in the data, so the spline through a linear
+    blend of two rows is the same blend of the two rows' spline coefficients.
+    """
 
     heel_deg: np.ndarray
     displacement: np.ndarray
     kn: np.ndarray
+    _rows: CubicSpline = field(init=False, repr=False, compare=False)
+
+    def __post_init__(self) -> None:
+        h = self.heel_deg
+        if h[0] == 0.0:
+            heel = np.concatenate([-h[:0:-1], h])
+            kn = np.concatenate([-self.kn[:, :0:-1], self.kn], axis=1)
+        else:
+            zero = np.zeros((self.kn.shape[0], 1))
+            heel = np.concatenate([-h[::-1], [0.0], h])
+            kn = np.concatenate([-self.kn[:, ::-1], zero, self.kn], axis=1)
+        # KN(−θ) = −KN(θ): one spline per displacement row over −θmax..θmax.
+        object.__setattr__(self, "_rows", CubicSpline(heel, kn, axis=1))
 
     @classmethod
     def from_model(cls, cc: InputCrossCurves) -> CrossCurves:
@@ -54,33 +72,31 @@ class CrossCurves:
     def heel_max_deg(self) -> float:
         return float(self.heel_deg[-1])
 
-    def kn_row(self, displacement_table_t: float) -> np.ndarray:
-        """KN at the table's heels for Δ_t (t), linear between displacement rows."""
+    def _weights(self, displacement_table_t: float) -> tuple[int, float]:
         check_in_range(displacement_table_t, self.displacement, "cross curves")
         d = self.displacement
         i = int(np.clip(np.searchsorted(d, displacement_table_t) - 1, 0, len(d) - 2))
         w = (displacement_table_t - d[i]) / (d[i + 1] - d[i])
-        w = min(max(w, 0.0), 1.0)
+        return i, min(max(w, 0.0), 1.0)
+
+    def kn_row(self, displacement_table_t: float) -> np.ndarray:
+        """KN at the table's heels for Δ_t (t), linear between displacement rows."""
+        i, w = self._weights(displacement_table_t)
         return (1.0 - w) * self.kn[i] + w * self.kn[i + 1]
 
-    def kn_spline(self, displacement_table_t: float) -> CubicSpline:
-        """KN(θ°) at Δ_t: a cubic spline over −θmax..θmax, odd by symmetry."""
-        row = self.kn_row(displacement_table_t)
-        h = self.heel_deg
-        if h[0] == 0.0:
-            heel = np.concatenate([-h[:0:-1], h])
-            kn = np.concatenate([-row[:0:-1], row])
-        else:
-            heel = np.concatenate([-h[::-1], [0.0], h])
-            kn = np.concatenate([-row[::-1], [0.0], row])
-        return CubicSpline(heel, kn)
+    def kn_spline(self, displacement_table_t: float) -> PPoly:
+        """KN(θ°) at Δ_t: the cubic spline (not-a-knot) over −θmax..θmax through the row
+        interpolated linearly in displacement; odd by symmetry."""
+        i, w = self._weights(displacement_table_t)
+        c = self._rows.c
+        return PPoly.construct_fast((1.0 - w) * c[:, :, i] + w * c[:, :, i + 1], self._rows.x)
 
 
 @dataclass(frozen=True)
 class GZCurve:
     """GZ(θ) = KN(θ) − KG_fluid·sin θ − TCG·cos θ (m), θ in degrees, + to starboard."""
 
-    kn: CubicSpline
+    kn: PPoly
     kg_fluid_m: float
     tcg_m: float
     heel_max_deg: float

@@ -1,0 +1,62 @@
+"""Timings of the evaluation (not a test): one condition after import, and 1000 conditions in
+one process. Targets: < 5 ms per condition, < 5 s for 1000.
+
+Usage: python benchmarks/bench_check.py [CONDITION.yaml]   (default: conditions/*.yaml)
+"""
+
+from __future__ import annotations
+
+import sys
+import time
+from collections.abc import Callable
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parent.parent
+
+
+def main(argv: list[str]) -> int:
+    from reportgen.inputs import load_case
+    from reportgen.pipeline import evaluate, vessel_tables
+
+    paths = [Path(a) for a in argv] or sorted((ROOT / "conditions").glob("*.yaml"))
+    if not paths:
+        print("no condition files found", file=sys.stderr)
+        return 2
+    cases = [load_case(p) for p in paths]
+    evaluate(cases[0])  # warm up (first calls into scipy and shapely)
+
+    # One condition, parsed case given: evaluation only, best of 20.
+    best = min(_timed(lambda: evaluate(cases[0])) for _ in range(20))
+    print(f"one condition ({paths[0].name}): {best * 1e3:.2f} ms (evaluate, best of 20)")
+    best_load = min(_timed(lambda: load_case(paths[0])) for _ in range(5))
+    print(f"reading the files: {best_load * 1e3:.2f} ms (load_case, best of 5)")
+
+    # 1000 conditions in one process, cycling through the cases.
+    n = 1000
+    t0 = time.perf_counter()
+    for i in range(n):
+        evaluate(cases[i % len(cases)])
+    total = time.perf_counter() - t0
+    print(f"{n} conditions: {total:.2f} s ({total / n * 1e3:.2f} ms each)")
+
+    # The same with the vessel's tables made once (pipeline.evaluate(case, tables)).
+    tables = {id(c.vessel): vessel_tables(c.vessel) for c in cases}
+    t0 = time.perf_counter()
+    for i in range(n):
+        c = cases[i % len(cases)]
+        evaluate(c, tables[id(c.vessel)])
+    shared = time.perf_counter() - t0
+    print(f"{n} conditions, tables shared: {shared:.2f} s ({shared / n * 1e3:.2f} ms each)")
+    ok = best < 5e-3 and total < 5.0
+    print("targets met" if ok else "TARGETS MISSED (5 ms per condition, 5 s per 1000)")
+    return 0 if ok else 1
+
+
+def _timed(fn: Callable[[], object]) -> float:
+    t0 = time.perf_counter()
+    fn()
+    return time.perf_counter() - t0
+
+
+if __name__ == "__main__":
+    sys.exit(main(sys.argv[1:]))
