@@ -154,3 +154,48 @@ def test_criteria_ids_in_spec_order(tmp_path):
         "IS Code 2008, Part A, 2.2.4", "IS Code 2008, Part A, 2.3.1.2",
         "IS Code 2008, Part A, 2.3.1.4"]
     assert d["passed"] is all(c["passed"] for c in d["criteria"])
+
+
+@pytest.mark.parametrize("tcg", [0.2, -0.2])
+def test_list_heel_and_side(tmp_path, tcg):
+    from scipy.optimize import brentq
+
+    item = _cargo_for(7.0, 6.0)
+    item["tcg"] = tcg * RHO * L * B * 7.0 / item["mass"]  # ship's TCG = tcg
+    c = condition_dict(items=[item])
+    d = evaluate_path(write_case(tmp_path, c)).to_dict()
+    # Wall-sided with a list: tan θ (GM + ½ BM tan²θ) = TCG (GZ = 0 with the TCG·cos θ term).
+    bm, gm = 256 / 84, 3.5 + 256 / 84 - 6.0
+    heel = math.degrees(brentq(lambda t: math.tan(t) * (gm + 0.5 * bm * math.tan(t) ** 2)
+                               - abs(tcg), 0, 0.7))
+    assert d["hydrostatics"]["heel"] == pytest.approx(math.copysign(heel, tcg), abs=0.01)
+    side = "starboard" if tcg > 0 else "port"
+    assert d["angles"]["side"] == side and d["assumptions"]["list_side"] == side
+    # Areas from upright on the curve with the TCG term: ∫0^30 (GZ_upright − |TCG| cos θ).
+    area = _wall_sided_area(7.0, 6.0, 30.0) - abs(tcg) * math.sin(math.radians(30))
+    crit = {x["id"]: x for x in d["criteria"]}
+    assert crit["area_0_30"]["attained"] == pytest.approx(area, rel=0.002)
+    # The gz arrays keep heel positive to starboard: GZ(heel) = 0 at the signed heel.
+    g = dict(zip(d["gz"]["heel"], d["gz"]["gz"], strict=True))
+    assert g[0.0] == pytest.approx(-tcg, abs=1e-6)
+
+
+@pytest.mark.parametrize("method", ["actual", "maximum"])
+def test_slack_tank_free_surface(tmp_path, method):
+    # T1: a 10 m × 10 m box tank, i = 10·10³/12 m⁴ at every sounding, ρ = 1.025:
+    # FSM = 854.17 t·m; FSC = FSM/Δ; KG_fluid = KG + FSC (SPEC.md, rise of KG).
+    item = _cargo_for(7.0, 6.0)
+    tank_mass = 250.0 * 1.025  # 50 %: 250 m³, vcg 1.25 m
+    disp = RHO * L * B * 7.0
+    item["mass"] -= tank_mass
+    item["vcg"] = (disp * 6.0 - 4000.0 - tank_mass * 1.25) / item["mass"]
+    c = condition_dict(items=[item], tanks={"T1": {"percent": 50}}, free_surface=method)
+    d = evaluate_path(write_case(tmp_path, c)).to_dict()
+    fsm = 1e4 / 12 * 1.025
+    assert d["loading"]["fsm"] == pytest.approx(fsm, abs=1e-5)
+    assert d["hydrostatics"]["kg_solid"] == pytest.approx(6.0, abs=1e-6)
+    assert d["hydrostatics"]["fsc"] == pytest.approx(fsm / disp, abs=1e-6)
+    assert d["hydrostatics"]["kg_fluid"] == pytest.approx(6.0 + fsm / disp, abs=1e-6)
+    line = next(ln for ln in d["loading"]["lines"] if ln["kind"] == "tank")
+    assert line["slack"] is True and line["percent"] == pytest.approx(50.0)
+    assert line["sounding"] == pytest.approx(2.5) and line["volume"] == pytest.approx(250.0)
