@@ -31,18 +31,22 @@ class Check:
     unit: str
     passed: bool
     set: str
+    limit: str = "at_least"  # "at_least": attained ≥ required; "at_most": attained ≤ required
 
     @property
     def margin(self) -> float | None:
-        """attained − required, in `unit` (the contract's definition)."""
+        """The spare on the safe side, in `unit`: attained − required for an "at least"
+        criterion, required − attained for an "at most" one; positive when passed."""
         if self.required is None or self.attained is None:
             return None
-        return self.attained - self.required
+        spare = self.attained - self.required
+        return -spare if self.limit == "at_most" else spare
 
     def as_dict(self) -> dict:
         return {"id": self.id, "title": self.title, "reference": self.reference,
                 "required": self.required, "attained": self.attained, "unit": self.unit,
-                "passed": self.passed, "margin": self.margin, "set": self.set}
+                "passed": self.passed, "margin": self.margin, "limit": self.limit,
+                "set": self.set}
 
 
 @dataclass(frozen=True)

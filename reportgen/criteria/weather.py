@@ -278,7 +278,7 @@ def weather_heel(s: State) -> Check:
     attained = s.weather.theta0
     passed = attained is not None and attained <= required
     return Check("weather_heel", "Steady heel under wind", REF_2_3_1_2, required, attained,
-                 "deg", passed, SET)
+                 "deg", passed, SET, limit="at_most")
 
 
 def weather_area(s: State) -> Check:
