@@ -29,7 +29,6 @@ from reportgen.errors import InputError
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 CONDITION_FORMAT = "reportgen/condition-1"
-CRITERIA_SETS = ("is2008.general", "is2008.weather")
 
 
 # --- field types -------------------------------------------------------------------------------
@@ -250,11 +249,14 @@ class Calculation(_Model):
 
 
 def _known_sets(values: list[str]) -> list[str]:
+    from reportgen.criteria import criteria_sets
+
+    known = criteria_sets()
     if not values:
         raise ValueError("choose at least one criteria set")
     for v in values:
-        if v not in CRITERIA_SETS:
-            raise ValueError(f"unknown criteria set {v!r}; known: {', '.join(CRITERIA_SETS)}")
+        if v not in known:
+            raise ValueError(f"unknown criteria set {v!r}; known: {', '.join(known)}")
     if len(set(values)) != len(values):
         raise ValueError("a criteria set is listed twice")
     return values
