@@ -71,6 +71,7 @@ class HullGeometry:
     length_bp_m: Lpp, m (midships at Lpp/2 is the trim reference).
     size_m: a length larger than any section dimension (for half-planes), m.
     deck_edge_yz: (n, 2) starboard deck-edge point (last offset) of each station, m.
+    keel_z_m: height of each station's lowest offset point (the keel profile), m.
     vertices: each section's exterior ring, (k, 2) arrays of (y, z), m.
     coords_yz, coords_index: all section coordinates as shapely.get_coordinates gives them,
     and the station of each.
@@ -82,6 +83,7 @@ class HullGeometry:
     length_bp_m: float
     size_m: float
     deck_edge_yz: np.ndarray
+    keel_z_m: np.ndarray
     vertices: tuple[np.ndarray, ...]
     coords_yz: np.ndarray
     coords_index: np.ndarray
@@ -112,6 +114,7 @@ def prepare_hull(hull: Hull, length_bp_m: float) -> HullGeometry:
         length_bp_m=float(length_bp_m),
         size_m=size,
         deck_edge_yz=hull.deck_edge_yz,
+        keel_z_m=np.array([float(np.min(p[:, 1])) for p in hull.half_points]),
         vertices=verts,
         coords_yz=coords,
         coords_index=index,
@@ -282,16 +285,27 @@ def integrals_at(geom: HullGeometry, plane: Plane) -> Integrals:
     return integrate(geom, clip_sections(geom, plane))
 
 
-def waterline_length(geom: HullGeometry, sl: SectionSlices) -> float:
-    """Lwl, m, with the waterline breadth taken as linear between stations: the wetted
-    stations' extent, reaching out to the neighbouring dry station at each end (where the
-    interpolated breadth falls to zero), or to the end station."""
+def waterline_length(geom: HullGeometry, plane: Plane, sl: SectionSlices) -> float:
+    """Lwl, m: the wetted stations' extent, reaching at each end to where the keel profile
+    (each station's lowest offset, linear between stations) meets the waterplane, or to the
+    end station when its keel point is immersed (a vertical stem or a submerged end)."""
     wet = sl.breadth_m > 1e-9
     if not np.any(wet):
         return 0.0
     i0, i1 = int(np.argmax(wet)), len(wet) - 1 - int(np.argmax(wet[::-1]))
-    lo, hi = max(i0 - 1, 0), min(i1 + 1, len(wet) - 1)
-    return float(geom.x_m[hi] - geom.x_m[lo])
+    # Height of the centreline keel point above the waterplane, along its normal (m).
+    above = geom.keel_z_m * np.cos(np.radians(plane.heel_deg)) - plane_height(geom, plane)
+
+    def end(inner: int, outer: int) -> float:
+        x_in, x_out = geom.x_m[inner], geom.x_m[outer]
+        if outer == inner or above[outer] <= 0.0:
+            return float(x_out)
+        if above[inner] >= 0.0:
+            return float(x_in)
+        frac = np.clip(-above[inner] / (above[outer] - above[inner]), 0.0, 1.0)
+        return float(x_in + frac * (x_out - x_in))
+
+    return end(i1, min(i1 + 1, len(wet) - 1)) - end(i0, max(i0 - 1, 0))
 
 
 def hydrostatics_at(geom: HullGeometry, plane: Plane, density_t_m3: float) -> dict[str, float]:
@@ -325,7 +339,7 @@ def hydrostatics_at(geom: HullGeometry, plane: Plane, density_t_m3: float) -> di
     bmt, bml = i_t / v, i_l / v
     disp = density_t_m3 * v
     lpp = geom.length_bp_m
-    lwl = waterline_length(geom, sl)
+    lwl = waterline_length(geom, plane, sl)
     draft = plane.draft_m()
     bwl = float(np.max(sl.breadth_m))
     cb = v / (lwl * bwl * draft) if lwl > 0 and bwl > 0 and np.isfinite(draft) else float("nan")
