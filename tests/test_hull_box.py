@@ -94,3 +94,16 @@ def test_fast_clip_matches_shapely_intersection(box, heel):
     a, b = clip_sections(box, p), clip_sections_by_intersection(box, p)
     for f in ("area_m2", "my_m3", "mz_m3", "breadth_m", "s1_m2", "s2_m3"):
         np.testing.assert_allclose(getattr(a, f), getattr(b, f), rtol=1e-9, atol=1e-8)
+
+
+def test_waterline_length_reaches_a_raked_keel_line():
+    # A box whose keel rises linearly forward of x = 80 m, 0.5 m per m: at draught 4 m the
+    # waterline meets the keel line at x = 80 + 4/0.5 = 88 m (plane geometry), so
+    # Lwl = 88 m and, with the breadth constant, Awp = 88·B.
+    stations = []
+    for x in np.arange(0.0, 101.0, 10.0):
+        keel = max(0.0, (x - 80.0) * 0.5)
+        stations.append((float(x), np.array([[0.0, keel], [B / 2, keel], [B / 2, D + 6.0]])))
+    geom = prepare_hull(hull_from_stations(stations), 100.0)
+    h = hydrostatics_at(geom, Plane.from_draft(4.0, 0.0, 0.0, 100.0), RHO)
+    assert h["lwl"] == pytest.approx(88.0, abs=1e-9)
