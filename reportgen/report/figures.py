@@ -41,6 +41,7 @@ _RC = {
 }
 
 FIGURE_SIZE_IN = (7.0, 3.2)  # width, height in inches: the sheet's text width
+NEGATIVE_SHARE = 0.6  # GZ figure: lowest lever drawn, as a share of the highest
 STEP_DEG = 0.25  # resampling step of the shaded areas; the data grid is 1°
 
 
@@ -142,8 +143,10 @@ def gz_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) -> str:
                         ha="center", fontsize=6.5)
         ax.set_xlim(0.0, heel[-1])
         top = max(float(lever.max()), gm) * 1.22
-        bottom = min(0.0, float(lever.min())) * 1.05
-        ax.set_ylim(bottom if bottom < 0 else -0.02 * top, top)
+        # negative levers are shown down to 60 % of the positive range, so that the region
+        # the criteria read stays legible; the GZ table prints every value
+        bottom = max(min(0.0, float(lever.min())) * 1.05, -NEGATIVE_SHARE * top)
+        ax.set_ylim(min(bottom, -0.02 * top), top)
         ax.set_xticks(np.arange(0.0, heel[-1] + 0.1, 10.0))
         _legend_below(ax)
         return _svg(fig)
