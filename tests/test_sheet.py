@@ -352,3 +352,25 @@ def test_document_date_without_a_stated_date_is_a_fixed_epoch():
 
     assert document_date(None) == datetime(1970, 1, 1, tzinfo=UTC)
     assert document_date("2026-05-20") == datetime(2026, 5, 20, tzinfo=UTC)
+
+
+def test_missing_values_read_not_stated_and_no_weather_section(passing):
+    # SPEC.md: voyage and date null -> "not stated"; without the weather set the sheet has
+    # no weather section; a criterion whose quantity does not exist is failed in words.
+    import copy
+
+    from reportgen.report.render import sheet_html
+
+    case, results, _ = passing
+    d = copy.deepcopy(results.to_dict())
+    d["weather"] = None
+    d["criteria"] = [c for c in d["criteria"] if c["set"] != "is2008.weather"]
+    d["condition"].update(date=None, voyage=None, signatories=None)
+    d["angles"].update(vanishing=None, flooding_opening=None)
+    d["criteria"][0].update(attained=None, margin=None, passed=False)
+    d["passed"] = False
+    html = sheet_html(case, d)
+    assert html.count("not stated") == 2
+    assert "Severe wind and rolling (weather criterion)" not in html
+    assert "the quantity does not exist for this condition" in html
+    assert "beyond the end of the table" in html
