@@ -237,9 +237,10 @@ def test_three_empty_signature_fields_over_the_signature_boxes(passing):
         mx0, my0, mx1, my1 = (float(v) for v in page["/MediaBox"])
         assert mx0 <= x0 < x1 <= mx1 and my0 <= y0 < y1 <= my1
         assert x1 - x0 > 100 and y1 - y0 > 40  # pt: room for a visible signature
-        rects.append((x0, x1))
-    # left to right, not overlapping: prepared, checked, reviewed
+        rects.append((x0, x1, y0, y1))
+    # left to right, not overlapping: prepared, checked, reviewed; side by side in one row
     assert rects[0][1] <= rects[1][0] and rects[1][1] <= rects[2][0]
+    assert len({(round(r[2]), round(r[3])) for r in rects}) == 1
 
 
 # --- determinism (DESIGN.md) --------------------------------------------------------------
