@@ -36,8 +36,8 @@ for c in conditions/*.yaml; do
 done
 
 echo "== Demo identities (self-signed, not for real use)"
-$RG keygen --name "A. Example (chief officer)" --out out/ids/prepared --force > /dev/null || exit 1
-$RG keygen --name "B. Example (master)" --out out/ids/checked --force > /dev/null || exit 1
+$RG keygen --name "A. N. Other, chief officer (invented)" --out out/ids/prepared --force > /dev/null || exit 1
+$RG keygen --name "B. N. Other, master (invented)" --out out/ids/checked --force > /dev/null || exit 1
 echo "   out/ids/prepared, out/ids/checked"
 
 echo "== Signed and verified sheets"
