@@ -21,7 +21,6 @@ from __future__ import annotations
 import contextlib
 import datetime as dt
 import hashlib
-import html
 import io
 import json
 import logging
@@ -487,32 +486,20 @@ class _PdfPageContent(pdf_content.PdfContent):
         return name.encode("ascii") + b" Do"
 
 
-_STAMP_HTML = """<!doctype html><html><head><meta charset="utf-8"><style>
-@page {{ size: {w:.2f}pt {h:.2f}pt; margin: 0 }}
-html, body {{ margin: 0; font-family: "DejaVu Sans", sans-serif; color: #102a43 }}
-body {{ padding: 3pt 5pt; font-size: {fs:.1f}pt; line-height: 1.25 }}
-.role {{ font-size: {fs1:.1f}pt }}
-.small {{ font-size: {fs2:.1f}pt }}
-</style></head><body>
-<div class="role">{role}</div>
-<div>{signer}</div>
-<div class="small">digitally signed</div>
-<div class="small">{when}</div>
-</body></html>"""
-
-
 def _stamp_pdf(role: str, signer: str, when: dt.datetime, width_pt: float,
                height_pt: float) -> bytes:
-    """A one-page PDF, the size of the field, with role, signer and date; fonts embedded."""
+    """A one-page PDF, the size of the field, with role, signer and date (words from
+    templates/stamp.html.j2); the sheet's font, embedded."""
     from weasyprint import HTML
 
+    from reportgen.report import fonts
+    from reportgen.report.render import template_environment
+
     fs = max(5.0, min(9.0, height_pt / 6.0))  # four lines fit the field
-    page = _STAMP_HTML.format(
-        w=width_pt, h=height_pt, fs=fs, fs1=fs * 1.1, fs2=fs * 0.85,
-        role=html.escape(_ROLE_WORDS[role]), signer=html.escape(signer),
-        when=when.strftime("%Y-%m-%d %H:%M UTC"),
-    )
-    return HTML(string=page).write_pdf()
+    page = template_environment().get_template("stamp.html.j2").render(
+        w=width_pt, h=height_pt, fs=fs, role=role, signer=signer, when=when)
+    return HTML(string=page).write_pdf(font_config=fonts.font_config(),
+                                       stylesheets=[fonts.stylesheet("")])
 
 
 def _field_rect(reader: PdfFileReader, role: str) -> tuple[float, float]:

@@ -6,8 +6,9 @@ backend, so no GUI backend or global figure state is involved.
 Angles are in degrees, levers in metres, areas in m·rad throughout this module.
 Every word drawn comes from the ``labels`` mapping (templates/labels.j2); the
 functions here only place values. The SVG bytes are stable for equal inputs: a
-fixed ``svg.hashsalt``, no date metadata, glyphs drawn as paths (WeasyPrint then
-needs no font for the figures, which PDF/A would otherwise require embedded).
+fixed ``svg.hashsalt``, no date metadata, text kept as SVG text in DejaVu Sans,
+renamed to the sheet's own family (reportgen.report.fonts), so WeasyPrint sets it in the
+sheet's embedded font subset, as PDF/A requires; faster than glyphs drawn as paths.
 """
 
 from __future__ import annotations
@@ -20,12 +21,14 @@ import matplotlib
 import numpy as np
 from matplotlib.figure import Figure
 
+from reportgen.report.fonts import MATPLOTLIB_FAMILY, svg_with_sheet_font
+
 RAD_DEG = 57.29577951308232  # one radian in degrees: the GM slope reaches GM here
 
 _RC = {
     "svg.hashsalt": "reportgen-sheet",
-    "svg.fonttype": "path",
-    "font.family": "DejaVu Sans",
+    "svg.fonttype": "none",
+    "font.family": MATPLOTLIB_FAMILY,
     "font.size": 7.5,
     "axes.linewidth": 0.6,
     "hatch.linewidth": 0.5,
@@ -62,7 +65,7 @@ def _svg(fig: Figure) -> str:
     buffer = io.StringIO()
     with matplotlib.rc_context(_RC):
         fig.savefig(buffer, format="svg", metadata={"Date": None})
-    return buffer.getvalue()
+    return svg_with_sheet_font(buffer.getvalue())
 
 
 def _new_axes(labels: Mapping[str, str], side_word: str):

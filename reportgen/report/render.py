@@ -30,6 +30,7 @@ import pydyf
 import weasyprint
 
 from reportgen.errors import InputError
+from reportgen.report import fonts
 from reportgen.report.figures import curve_towards_side, gz_figure_svg, weather_figure_svg
 
 PDF_VARIANT = "pdf/a-3b"  # ISO 19005-3, conformance level B
@@ -148,7 +149,8 @@ def _read_template(name: str) -> str:
 
 
 @lru_cache(maxsize=1)
-def _environment() -> jinja2.Environment:
+def template_environment() -> jinja2.Environment:
+    """The jinja2 environment of templates/ with the number filters of the sheet."""
     env = jinja2.Environment(
         loader=jinja2.FunctionLoader(_read_template),
         autoescape=jinja2.select_autoescape(default=True, default_for_string=True),
@@ -165,13 +167,13 @@ def _environment() -> jinja2.Environment:
 
 @lru_cache(maxsize=1)
 def _labels() -> tuple[dict[str, str], dict[str, str]]:
-    module = _environment().get_template("labels.j2").module
+    module = template_environment().get_template("labels.j2").module
     return dict(module.figure_labels), dict(module.attachment_labels)
 
 
 @lru_cache(maxsize=1)
 def _stylesheet() -> weasyprint.CSS:
-    return weasyprint.CSS(string=_read_template("sheet.css"))
+    return fonts.stylesheet(_read_template("sheet.css"))
 
 
 def _svg_data_uri(svg: str) -> str:
@@ -183,7 +185,7 @@ def sheet_html(case: Any, results: Mapping[str, Any]) -> str:
     figure_labels, _ = _labels()
     created = document_date(results["condition"]["date"]).strftime("%Y-%m-%dT%H:%M:%SZ")
     rows = gz_table(results["gz"], results["angles"]["side"])
-    return _environment().get_template("sheet.html.j2").render(
+    return template_environment().get_template("sheet.html.j2").render(
         r=results,
         docno=document_number(results["inputs_sha256"]),
         created=created,
@@ -298,7 +300,8 @@ def _finisher(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
 def layout_sheet(case: Any, results: Mapping[str, Any]) -> weasyprint.Document:
     """The laid-out pages of the sheet (WeasyPrint document) for a results document."""
     html = weasyprint.HTML(string=sheet_html(case, results))
-    return html.render(stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT)
+    return html.render(stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
+                       font_config=fonts.font_config())
 
 
 def render_sheet(case: Any, results: ResultsLike) -> bytes:
