@@ -11,6 +11,7 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import TYPE_CHECKING
 
+import numpy as np
 from shapely.geometry import Polygon
 
 from reportgen import NAME, __version__
@@ -24,10 +25,19 @@ from reportgen.floating import (
     summer_draught_warning,
     trim_m,
 )
+from reportgen.hull.hydrostatics import HullGeometry
+from reportgen.hull.tables import (
+    deck_edge_points,
+    geometry_of,
+    heel_scan,
+    immersion_angle,
+    opening_points,
+)
 from reportgen.loading import condition_lines, totals
 from reportgen.results import RESULTS_FORMAT, Results
 from reportgen.stability import (
     CrossCurves,
+    OpeningAngle,
     angle_from_table,
     deck_edge_formula,
     equilibrium_heel,
@@ -54,6 +64,7 @@ class VesselTables:
     hydro: HydroTable
     cross: CrossCurves
     profile: Polygon
+    hull: HullGeometry | None  # offsets, for angles the vessel file gives no table of
 
 
 def vessel_tables(vessel: Vessel) -> VesselTables:
@@ -61,9 +72,12 @@ def vessel_tables(vessel: Vessel) -> VesselTables:
     if vessel.hydrostatics is None or vessel.cross_curves is None:
         raise InputError("vessel: no hydrostatics and cross_curves; make them from the hull "
                          "offsets first with 'reportgen tables'")
+    needs_hull = vessel.hull is not None and (
+        vessel.deck_edge is None or (vessel.flooding_angle is None and bool(vessel.openings)))
     return VesselTables(HydroTable.from_model(vessel.hydrostatics),
                         CrossCurves.from_model(vessel.cross_curves),
-                        Polygon(vessel.windage.profile))
+                        Polygon(vessel.windage.profile),
+                        geometry_of(vessel) if needs_hull else None)
 
 
 _TABLES_BY_VESSEL: dict[int, VesselTables] = {}
@@ -139,11 +153,15 @@ def _evaluate(case: Case, tables: VesselTables | None) -> Results:
     side = list_side(tot.tcg)
     side_curve = curve.towards(side)
 
-    # Angles.
+    # Angles: a table of the vessel file, else the hull offsets, else an approximation.
+    scan = (_HullScan(tab.hull, disp / rho_w, tot.lcg, tab.cross.heel_deg)
+            if tab.hull is not None else None)
     if vessel.deck_edge is not None:
         deck_edge = angle_from_table(hp.displacement_table, vessel.deck_edge.displacement,
                                      vessel.deck_edge.angle, "deck edge table")
         deck_source = "table"
+    elif scan is not None:
+        deck_edge, deck_source = scan.angle(deck_edge_points(tab.hull)), "hull"
     else:
         deck_edge = deck_edge_formula(part.depth, dr.mid, part.breadth)
         deck_source = "formula"
@@ -154,11 +172,17 @@ def _evaluate(case: Case, tables: VesselTables | None) -> Results:
         flooding_source = "table"
     elif vessel.openings:
         ops = opening_angles(vessel.openings, dr.mid, trim, part.length_bp)
-        gov = min(ops, key=lambda o: o.angle_deg)
-        flooding, flooding_opening, flooding_source = gov.angle_deg, gov.name, "openings"
         for op in ops:
             if op.submerged:
                 warnings.append(f"The opening {op.name} is at or below the waterline.")
+        if scan is not None:
+            ops = [OpeningAngle(o.name, scan.angle(opening_points([o])), s.submerged)
+                   for o, s in zip(vessel.openings, ops, strict=True)]
+            flooding_source = "hull"
+        else:
+            flooding_source = "openings"
+        gov = min(ops, key=lambda o: o.angle_deg)
+        flooding, flooding_opening = gov.angle_deg, gov.name
     else:
         flooding, flooding_source = NO_FLOODING_ANGLE_DEG, "none"
         warnings.append("No downflooding point is known (no openings and no flooding angle "
@@ -239,6 +263,21 @@ def _evaluate(case: Case, tables: VesselTables | None) -> Results:
         },
     }
     return Results.from_document(doc)
+
+
+class _HullScan:
+    """Immersion angles on the hull offsets for one condition: the equilibrium waterplane,
+    free to trim with xB at the condition's LCG, at each cross-curve heel (scanned once),
+    refined between heels by a root finder (reportgen.hull.tables.immersion_angle)."""
+
+    def __init__(self, geom: HullGeometry, volume_m3: float, lcg_m: float,
+                 heels_deg: np.ndarray) -> None:
+        self.geom, self.volume, self.lcg = geom, volume_m3, lcg_m
+        self.states = heel_scan(geom, volume_m3, lcg_m, [float(h) for h in heels_deg])
+
+    def angle(self, points_xyz: np.ndarray) -> float:
+        """Least heel (deg) at which any of the points (x, y, z; m) reaches the water."""
+        return immersion_angle(self.geom, points_xyz, self.volume, self.lcg, self.states)
 
 
 def _vessel_attachment_name(case: Case) -> str:

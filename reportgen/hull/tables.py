@@ -141,6 +141,34 @@ def immersion_angle(
     return heels[-1]
 
 
+def deck_edge_points(geom: HullGeometry) -> np.ndarray:
+    """(n, 3) points (x, y, z), m: the starboard deck-edge point of every station."""
+    return np.column_stack([geom.x_m, geom.deck_edge_yz])
+
+
+def opening_points(openings: Sequence[Any]) -> np.ndarray:
+    """(n, 3) points (x, |y|, z), m, of the openings: each taken on the immersing side."""
+    return np.array([[float(o.x), abs(float(o.y)), float(o.z)] for o in openings]
+                    ).reshape(-1, 3)
+
+
+def heel_scan(geom: HullGeometry, volume_m3: float, lcg_m: float | None,
+              heels_deg: Sequence[float], upright: Equilibrium | None = None
+              ) -> list[Equilibrium]:
+    """Equilibria at increasing heels (deg, the first 0) for one volume (m³): free trim with
+    xB = lcg_m, or even keel when lcg_m is None; each solve starts from the last ones."""
+    states: list[Equilibrium] = []
+    for h in heels_deg:
+        if h == 0.0 and upright is not None:
+            e = upright
+        else:
+            guess = (None if not states else states[-1].plane if len(states) < 2
+                     else _between(states[-2].plane, states[-1].plane, h))
+            e = equilibrium(geom, volume_m3, h, lcg_m, guess=guess)
+        states.append(e)
+    return states
+
+
 def build_tables(
     vessel: Any,
     *,
@@ -183,10 +211,8 @@ def build_tables(
 
     disps = np.round(np.linspace(hydro["displacement"][0], hydro["displacement"][-1], n_disp),
                      _DEC_MASS)
-    deck = np.column_stack([geom.x_m, geom.deck_edge_yz])
-    openings = list(getattr(vessel, "openings", None) or [])
-    vents = np.array([[float(o.x), abs(float(o.y)), float(o.z)] for o in openings]
-                     ).reshape(-1, 3)
+    deck = deck_edge_points(geom)
+    vents = opening_points(getattr(vessel, "openings", None) or [])
     kn_rows: list[list[float]] = []
     deck_angles: list[float] = []
     flood_angles: list[float] = []
@@ -194,15 +220,7 @@ def build_tables(
         vol = float(disp) / density
         upright = equilibrium(geom, vol, 0.0)
         lcg = None if even_keel else upright.lcb_m
-        states: list[Equilibrium] = []
-        for h in heels:
-            if h == 0.0:
-                e = upright
-            else:
-                guess = (states[-1].plane if len(states) < 2
-                         else _between(states[-2].plane, states[-1].plane, h))
-                e = equilibrium(geom, vol, h, lcg, guess=guess)
-            states.append(e)
+        states = heel_scan(geom, vol, lcg, heels, upright=upright)
         kn_rows.append(_round([e.kn_m for e in states], _DEC_LENGTH))
         deck_angles.append(immersion_angle(geom, deck, vol, lcg, states))
         if len(vents):
