@@ -209,7 +209,7 @@ def _evaluate(case: Case, tables: VesselTables | None) -> Results:
     checks = run_criteria(list(vessel.criteria), state)
     passed = all(c.passed for c in checks)
 
-    heel_grid, gz_values = gz_grid(curve)
+    heel_grid, gz_values, kn_values = gz_grid(curve)
     k = part.keel_thickness
     sig = cond.signatories
     doc = {
@@ -241,7 +241,7 @@ def _evaluate(case: Case, tables: VesselTables | None) -> Results:
             "draft_aft_extreme": dr.aft + k, "draft_mean_extreme": dr.mid + k,
             "draft_fore_extreme": dr.fore + k, "summer_draft": part.summer_draft,
         },
-        "gz": {"heel": heel_grid, "gz": gz_values},
+        "gz": {"heel": heel_grid, "gz": gz_values, "kn": kn_values},
         "angles": {"deck_edge": deck_edge, "flooding": flooding, "gz_max": gz_max_deg,
                    "vanishing": vanishing, "flooding_opening": flooding_opening,
                    "side": side},

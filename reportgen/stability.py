@@ -205,12 +205,13 @@ def vanishing_angle(curve: GZCurve, gz_max_deg: float) -> float | None:
     return down[0] if down else None
 
 
-def gz_grid(curve: GZCurve) -> tuple[list[float], list[float]]:
-    """The GZ curve on a 1° grid from −min(60°, θmax) to θmax (deg, + starboard; m)."""
+def gz_grid(curve: GZCurve) -> tuple[list[float], list[float], list[float]]:
+    """The GZ curve on a 1° grid from −min(60°, θmax) to θmax: heel (deg, + starboard), GZ
+    (m) and the KN (m) it is made from."""
     top = int(np.floor(curve.heel_max_deg + 1e-9))
     bottom = -min(60, top)
     heel = np.arange(bottom, top + 1, dtype=float)
-    return heel.tolist(), [float(v) for v in curve(heel)]
+    return heel.tolist(), [float(v) for v in curve(heel)], [float(v) for v in curve.kn(heel)]
 
 
 # --- angles of deck edge immersion and of flooding ----------------------------------------------

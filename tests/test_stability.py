@@ -109,9 +109,11 @@ def test_maximum_and_vanishing():
 
 def test_gz_grid_covers_spec_range():
     curve = gz_curve(_cross(lambda h: 8.0 * math.sin(math.radians(h))), 1000.0, 7.0, 0.0)
-    heel, gz = gz_grid(curve)
+    heel, gz, kn = gz_grid(curve)
     assert heel[0] == -60.0 and heel[-1] == 80.0 and len(heel) == 141
     assert gz[heel.index(30.0)] == pytest.approx(0.5, abs=1e-4)
+    # KN = 8·sin θ as tabulated; GZ = KN − KG·sin θ with KG = 7 m.
+    assert kn[heel.index(30.0)] == pytest.approx(4.0, abs=1e-4)
 
 
 def test_deck_edge_and_opening_angles():

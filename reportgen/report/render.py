@@ -114,12 +114,14 @@ def document_date(stated: str | date | None) -> datetime:
 
 
 def gz_table(gz: Mapping[str, Any], side: str, step_deg: int = GZ_TABLE_STEP_DEG) -> list[dict]:
-    """Rows {heel, gz} at every ``step_deg`` from 0° to the table's end, towards ``side``."""
+    """Rows {heel, kn, gz} at every ``step_deg`` from 0° to the table's end, towards
+    ``side`` (KN is odd in heel, so it turns with the side as GZ does)."""
     heel, lever = curve_towards_side(gz, side)
+    _, kn = curve_towards_side({"heel": gz["heel"], "gz": gz["kn"]}, side)
     rows = []
-    for h, g in zip(heel, lever, strict=True):
+    for h, k, g in zip(heel, kn, lever, strict=True):
         if h >= 0.0 and abs(h - round(h)) < 1e-9 and round(h) % step_deg == 0:
-            rows.append({"heel": float(h), "gz": float(g)})
+            rows.append({"heel": float(h), "kn": float(k), "gz": float(g)})
     return rows
 
 
