@@ -61,7 +61,8 @@ def render_summary(results: dict) -> str:
     rows = [("Criterion", "Reference", "Required", "Attained", "Margin", "Unit", "Result")]
     for c in results["criteria"]:
         dg = _digits(c["unit"])
-        rows.append((c["title"], c["reference"], _num(c["required"], dg),
+        sign = "≤ " if c.get("limit") == "at_most" else "≥ "
+        rows.append((c["title"], c["reference"], sign + _num(c["required"], dg),
                      _num(c["attained"], dg), _num(c.get("margin"), dg), c["unit"],
                      "PASS" if c["passed"] else "FAIL"))
     widths = [max(len(r[i]) for r in rows) for i in range(len(rows[0]))]
@@ -81,4 +82,8 @@ def render_summary(results: dict) -> str:
         out.append("Warnings")
         for w in results["warnings"]:
             out.append(f"  - {w}")
+    out.append("")
+    out.append("Caution: this does not replace the approved stability booklet or an approved "
+               "stability instrument;\nthe master remains responsible for the ship's stability; "
+               "the flag Administration's and the\nclassification society's requirements govern.")
     return "\n".join(out)
