@@ -173,14 +173,17 @@ def sign(sheet_pdf: Path, role: str, key_path: Path | None, cert_path: Path | No
 @click.argument("sheet_pdf", metavar="SHEET.pdf", type=click.Path(path_type=Path))
 @click.option("--trust", "trust", multiple=True, type=click.Path(path_type=Path),
               help="A trusted root certificate (PEM or DER); repeat for more.")
+@click.option("--pages", is_flag=True,
+              help="Also render the sheet afresh from its embedded inputs and compare the "
+                   "printed text of every page.")
 @click.option("--json", "as_json", is_flag=True, help="Print the report as JSON.")
-def verify(sheet_pdf: Path, trust: tuple[Path, ...], as_json: bool) -> None:
+def verify(sheet_pdf: Path, trust: tuple[Path, ...], pages: bool, as_json: bool) -> None:
     """Check the signatures and recompute the sheet from its embedded inputs."""
     import json
 
     from reportgen.signing import render_verify_report, verify_sheet
 
-    report = verify_sheet(sheet_pdf, list(trust))
+    report = verify_sheet(sheet_pdf, list(trust), pages=pages)
     if as_json:
         click.echo(json.dumps(report, indent=2, ensure_ascii=False))
     else:

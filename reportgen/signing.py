@@ -703,14 +703,51 @@ def _verify_signature(emb: Any, roots: list[asn1_x509.Certificate],
     return entry
 
 
-def verify_sheet(path: Path, trust: Sequence[Path] = ()) -> dict:
+def _page_texts(pdf: bytes) -> list[str]:
+    """The printed text of each page (page content only, not annotations such as signature
+    stamps), with runs of white space folded."""
+    from pypdf import PdfReader
+
+    return [" ".join((page.extract_text() or "").split())
+            for page in PdfReader(io.BytesIO(pdf)).pages]
+
+
+def _check_pages(data: bytes, sheet: _Sheet) -> dict:
+    """Render the sheet afresh from its embedded inputs and compare the printed text of every
+    page with the sheet's: catches pages edited before signing, which the embedded results
+    alone would not show."""
+    from reportgen.inputs import load_case_bytes
+    from reportgen.pipeline import evaluate
+    from reportgen.report.render import render_sheet
+
+    cond_name, vessel_name = _input_names(sheet.results)
+    cond = sheet.attachments.get(cond_name) if cond_name else None
+    vessel = sheet.attachments.get(vessel_name) if vessel_name else None
+    if cond is None or vessel is None:
+        return {"ok": False, "differing_pages": [], "error": "the input files are not embedded"}
+    try:
+        case = load_case_bytes(cond, vessel, cond_name, vessel_name)
+        fresh = render_sheet(case, evaluate(case))
+    except InputError as exc:
+        return {"ok": False, "differing_pages": [],
+                "error": f"the embedded inputs do not evaluate: {exc}"}
+    printed, expected = _page_texts(data), _page_texts(fresh)
+    differing = [i + 1 for i in range(max(len(printed), len(expected)))
+                 if i >= len(printed) or i >= len(expected) or printed[i] != expected[i]]
+    return {"ok": not differing, "pages": len(printed), "differing_pages": differing,
+            "error": None}
+
+
+def verify_sheet(path: Path, trust: Sequence[Path] = (), pages: bool = False) -> dict:
     """Check the signatures, embedded inputs and results of a sheet.
 
     ``trust``: certificate files (PEM or DER) of the trusted roots; with none, no signer is
     trusted. Returns {"ok", "file", "signatures": [...], "inputs": {...},
     "recomputation": {...}}; "ok" needs at least one signature, every signature intact,
     trusted and followed only by permitted changes, the inputs matching their hash, and the
-    recomputation agreeing. An unreadable file or a PDF that is not a sheet: InputError.
+    recomputation agreeing. With ``pages``, the sheet is also rendered afresh from its
+    embedded inputs and the printed text of every page compared ("pages" in the report;
+    it must agree too). An unreadable file or a PDF that is not a sheet: InputError.
     """
     path = Path(path)
     data = _read_bytes(path, "sheet")
@@ -722,8 +759,9 @@ def verify_sheet(path: Path, trust: Sequence[Path] = ()) -> dict:
                       for emb in sheet.reader.embedded_signatures]
     inputs = _check_inputs(sheet)
     recomputation = _check_recomputation(sheet)
+    printed = _check_pages(data, sheet) if pages else None
     ok = (bool(signatures) and all(s["ok"] for s in signatures)
-          and inputs["ok"] and recomputation["ok"])
+          and inputs["ok"] and recomputation["ok"] and (printed is None or printed["ok"]))
     return {
         "ok": ok,
         "file": str(path),
@@ -732,6 +770,7 @@ def verify_sheet(path: Path, trust: Sequence[Path] = ()) -> dict:
         "unsigned_fields": sorted(n for n, filled in sheet.fields.items() if not filled),
         "inputs": inputs,
         "recomputation": recomputation,
+        "pages": printed,
     }
 
 
@@ -786,5 +825,14 @@ def render_verify_report(report: dict) -> str:
     if diffs:
         shown = ", ".join(diffs[:10]) + (f" and {len(diffs) - 10} more" if len(diffs) > 10 else "")
         lines.append(f"  differs at:        {shown}")
+    printed = report.get("pages")
+    if printed is not None:
+        lines.append(f"Printed pages: {'AGREE' if printed['ok'] else 'DO NOT AGREE'} "
+                     "with a fresh rendering from the embedded inputs")
+        if printed.get("error"):
+            lines.append(f"  problem:           {printed['error']}")
+        if printed.get("differing_pages"):
+            lines.append("  differing pages:   "
+                         + ", ".join(str(n) for n in printed["differing_pages"]))
     lines.append("Result: " + ("VERIFIED" if report.get("ok") else "NOT VERIFIED"))
     return "\n".join(lines)

@@ -565,3 +565,32 @@ def test_demo_sheet_page_added_after_signing_is_caught(demo_sheet, ids, tmp_path
         writer.write(fh)
     report = signing.verify_sheet(bad, _trust(ids, "alice", "bob"))
     assert not report["ok"] and not any(s["docmdp_ok"] for s in report["signatures"])
+
+
+def test_demo_sheet_pages_agree_with_a_fresh_rendering(demo_sheet, ids):
+    report = signing.verify_sheet(demo_sheet["two"], _trust(ids, "alice", "bob"), pages=True)
+    assert report["ok"] and report["pages"]["ok"] and report["pages"]["differing_pages"] == []
+    assert "Printed pages: AGREE" in signing.render_verify_report(report)
+
+
+def test_demo_sheet_with_a_page_edited_before_signing_is_caught(demo_sheet, ids, tmp_path,
+                                                               monkeypatch):
+    # A sheet whose printed words were changed before it was signed: its embedded results
+    # still agree with its inputs, so only the comparison of the printed pages can tell.
+    from reportgen.inputs import load_case
+    from reportgen.pipeline import evaluate
+    from reportgen.report import render
+
+    original = render.sheet_html
+    monkeypatch.setattr(render, "sheet_html", lambda case, results: original(
+        case, results).replace("<h1>Intact stability calculation</h1>", "<h1>Edited</h1>"))
+    case = load_case(DEMO_CONDITIONS[0])
+    edited = tmp_path / "edited.pdf"
+    edited.write_bytes(render.render_sheet(case, evaluate(case)))
+    monkeypatch.setattr(render, "sheet_html", original)
+    signed = tmp_path / "edited-signed.pdf"
+    signing.sign_sheet(edited, signed, "prepared", key_path=ids["alice"] / "key.pem",
+                       cert_path=ids["alice"] / "cert.pem")
+    assert signing.verify_sheet(signed, _trust(ids, "alice"))["ok"]  # signatures and results
+    report = signing.verify_sheet(signed, _trust(ids, "alice"), pages=True)
+    assert not report["ok"] and 1 in report["pages"]["differing_pages"]
