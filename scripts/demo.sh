@@ -48,9 +48,9 @@ for c in conditions/*.yaml; do
   $RG sign "out/$name.prepared.pdf" --role checked --key out/ids/checked/key.pem \
       --cert out/ids/checked/cert.pem -o "out/$name.signed.pdf" --force 2>/dev/null || exit 1
   rm -f "out/$name.prepared.pdf"
-  if $RG verify "out/$name.signed.pdf" --trust out/ids/prepared/cert.pem \
+  if $RG verify "out/$name.signed.pdf" --pages --trust out/ids/prepared/cert.pem \
         --trust out/ids/checked/cert.pem > "out/$name.verify.txt"; then
-    echo "   out/$name.signed.pdf: signatures intact and trusted, recomputation agrees"
+    echo "   out/$name.signed.pdf: signatures intact and trusted; results and printed pages agree with a recomputation"
   else
     echo "   out/$name.signed.pdf: VERIFICATION FAILED (see out/$name.verify.txt)"; exit 1
   fi
