@@ -150,6 +150,9 @@ def _evaluate(case: Case, tables: VesselTables | None) -> Results:
     if heel is None:
         warnings.append("The GZ curve has no position of equilibrium within the cross curves: "
                         "the ship capsizes in this condition.")
+    elif gm_fluid <= 0.0:
+        warnings.append(f"The initial GM corrected for free surface is {gm_fluid:.3f} m: the "
+                        f"ship is unstable upright and lolls to {abs(heel):.1f}°.")
     side = list_side(tot.tcg)
     side_curve = curve.towards(side)
 

@@ -167,9 +167,10 @@ def weather_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) ->
     with matplotlib.rc_context(_RC):
         fig, ax = _new_axes(labels, labels[f"side_{side}"])
         heel, lever = curve_towards_side(results["gz"], side)
-        start = weather["theta_start"]
+        start = weather["theta_start"]  # None where θ0 or θ1 does not exist
         theta2 = weather["theta2"]
-        lo = max(float(heel[0]), np.floor((start - 5.0) / 5.0) * 5.0)
+        lo = max(float(heel[0]), np.floor(((start if start is not None else -25.0) - 5.0)
+                                          / 5.0) * 5.0)
         ends = [theta2 + 10.0] + ([weather["thetac"] + 5.0] if weather["thetac"] else [])
         hi = min(float(heel[-1]), np.ceil(max(ends) / 5.0) * 5.0)
         fine = np.linspace(lo, hi, round(float(hi - lo) / STEP_DEG) + 1)
@@ -177,7 +178,7 @@ def weather_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) ->
         lw1, lw2 = weather["lw1"], weather["lw2"]
 
         cross = weather["theta_lw2"]
-        if cross is not None:
+        if None not in (cross, start, weather["area_a"], weather["area_b"]):
             in_a = (fine >= start) & (fine <= cross)
             in_b = (fine >= cross) & (fine <= theta2)
             ax.fill_between(fine, fine_gz, lw2, where=in_a, facecolor="white",
@@ -199,15 +200,13 @@ def weather_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) ->
                    label=labels["lw1"].format(value=f"{lw1:.4f}"))
         ax.axhline(lw2, color="black", linestyle="-.", linewidth=0.8,
                    label=labels["lw2"].format(value=f"{lw2:.4f}"))
-        _vertical_marker(ax, weather["theta0"],
-                         labels["theta0"].format(angle=f"{weather['theta0']:.1f}"), ":", True)
-        _vertical_marker(ax, start, labels["theta_start"].format(angle=f"{start:.1f}"),
-                         ":", True)
-        _vertical_marker(ax, theta2, labels["theta2"].format(angle=f"{theta2:.1f}"), ":", True)
+        for key, value in (("theta0", weather["theta0"]), ("theta_start", start),
+                           ("theta2", theta2)):
+            if value is not None:
+                _vertical_marker(ax, value, labels[key].format(angle=f"{value:.1f}"), ":", True)
         ax.set_xlim(lo, hi)
-        visible = fine_gz
-        top = float(visible.max()) * 1.2
-        bottom = min(float(visible.min()) * 1.1, -0.05 * top)
+        top = max(float(fine_gz.max()), 1.5 * lw2, 0.05) * 1.2
+        bottom = min(float(fine_gz.min()) * 1.1, -0.05 * top)
         ax.set_ylim(bottom, top)
         ax.set_xticks(np.arange(np.ceil(lo / 10.0) * 10.0, hi + 0.1, 10.0))
         _legend_below(ax)

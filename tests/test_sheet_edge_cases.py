@@ -1,0 +1,34 @@
+"""The sheet for conditions where quantities of the criteria do not exist (results null):
+it must still render every section, never crash. Data: the analytic box barge of eval_box.
+
+For the box, GM = KB + BMt − KG with KB = T/2 and BMt = B²/(12T) (standard naval
+architecture texts); at T = 6 m, B = 16 m: KMt = 3 + 256/72 = 6.556 m, so KG = 7.5 m gives
+a negative GM and an angle of loll.
+"""
+
+from __future__ import annotations
+
+import io
+
+from eval_box import RHO, B, L, condition_dict, write_case
+from pypdf import PdfReader
+
+from reportgen.inputs import load_case
+from reportgen.pipeline import evaluate
+from reportgen.report.render import render_sheet
+
+
+def test_sheet_of_a_lolling_box_renders_with_missing_weather_values(tmp_path):
+    draft, kg = 6.0, 7.5
+    disp = RHO * L * B * draft
+    mass = disp - 1000.0  # the box's lightship: 1000 t at VCG 4 m
+    item = {"name": "Cargo", "mass": mass, "lcg": L / 2, "vcg": (disp * kg - 4000.0) / mass}
+    case = load_case(write_case(tmp_path, condition_dict(items=[item])))
+    results = evaluate(case)
+    doc = results.to_dict()
+    assert doc["hydrostatics"]["gm_fluid"] < 0 and not doc["passed"]
+    assert any("lolls" in w for w in doc["warnings"])
+    assert doc["weather"]["theta1"] is None and doc["weather"]["theta_start"] is None
+    reader = PdfReader(io.BytesIO(render_sheet(case, results)))
+    text = " ".join(page.extract_text() for page in reader.pages)
+    assert "Severe wind and rolling" in text and "Caution" in text
