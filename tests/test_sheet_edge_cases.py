@@ -32,3 +32,22 @@ def test_sheet_of_a_lolling_box_renders_with_missing_weather_values(tmp_path):
     reader = PdfReader(io.BytesIO(render_sheet(case, results)))
     text = " ".join(page.extract_text() for page in reader.pages)
     assert "Severe wind and rolling" in text and "Caution" in text
+
+
+def test_sheet_of_a_capsizing_box_draws_its_figures(tmp_path):
+    # KG = 12 m at T = 7 m: KMt = 3.5 + 256/84 = 6.55 m, GZ < 0 at every heel (the box
+    # capsizes); the figures must still get a proper scale (no matplotlib warning).
+    import warnings
+
+    from reportgen.report.render import sheet_html
+
+    draft, kg = 7.0, 12.0
+    disp = RHO * L * B * draft
+    mass = disp - 1000.0
+    item = {"name": "Cargo", "mass": mass, "lcg": L / 2, "vcg": (disp * kg - 4000.0) / mass}
+    case = load_case(write_case(tmp_path, condition_dict(items=[item])))
+    doc = evaluate(case).to_dict()
+    assert max(doc["gz"]["gz"][60:]) <= 0.0  # heels 0° and up
+    with warnings.catch_warnings():
+        warnings.simplefilter("error", UserWarning)
+        assert "Severe wind and rolling" in sheet_html(case, doc)

@@ -145,10 +145,12 @@ def gz_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) -> str:
                         (angles["gz_max"], gz_max), xytext=(0, 6), textcoords="offset points",
                         ha="center", fontsize=6.5)
         ax.set_xlim(0.0, heel[-1])
-        top = max(float(lever.max()), gm) * 1.22
+        top = max(float(lever.max()), gm, 0.05) * 1.22
         # negative levers are shown down to 60 % of the positive range, so that the region
-        # the criteria read stays legible; the GZ table prints every value
-        bottom = max(min(0.0, float(lever.min())) * 1.05, -NEGATIVE_SHARE * top)
+        # the criteria read stays legible (the GZ table prints every value); a curve with no
+        # positive lever at all is shown whole
+        bottom = (max(min(0.0, float(lever.min())) * 1.05, -NEGATIVE_SHARE * top)
+                  if float(lever.max()) > 0.0 else float(lever.min()) * 1.05)
         ax.set_ylim(min(bottom, -0.02 * top), top)
         ax.set_xticks(np.arange(0.0, heel[-1] + 0.1, 10.0))
         _legend_below(ax)
