@@ -21,8 +21,9 @@ system:
 
 $(STAMP): pyproject.toml | system
 	$(PYTHON) -m venv $(VENV)
-	$(BIN)/pip install --quiet --upgrade pip
-	$(BIN)/pip install --quiet -e '.[test]'
+	@echo "installing reportgen and its dependencies into $(VENV) (log: $(VENV)/install.log)"
+	@{ $(BIN)/pip install --upgrade pip && $(BIN)/pip install -e '.[test]'; } \
+	  > $(VENV)/install.log 2>&1 || { tail -n 30 $(VENV)/install.log; exit 1; }
 	@touch $(STAMP)
 
 demo: $(STAMP)
