@@ -70,12 +70,12 @@ def check(condition: Path, as_json: bool) -> None:
 @click.option("--force", is_flag=True, help="Replace an existing file.")
 def sheet(condition: Path, output: Path, force: bool) -> None:
     """Write the calculation sheet (PDF/A-3 with inputs and results embedded)."""
-    from reportgen.files import refuse_existing
+    from reportgen.files import check_output
     from reportgen.inputs import load_case
     from reportgen.pipeline import evaluate
     from reportgen.report.render import write_sheet
 
-    refuse_existing(output, force)
+    check_output(output, force)
     case = load_case(condition)
     results = evaluate(case)
     write_sheet(case, results, output, force=force)
@@ -93,11 +93,11 @@ def tables(vessel: Path, output: Path, even_keel: bool, force: bool) -> None:
     """Make hydrostatics and cross curves from the hull offsets."""
     from rich.progress import Progress
 
-    from reportgen.files import refuse_existing, write_atomic
+    from reportgen.files import check_output, write_atomic
     from reportgen.hull.tables import build_tables, vessel_text_with_tables
     from reportgen.inputs import load_vessel
 
-    refuse_existing(output, force)
+    check_output(output, force)
     if output.exists() and output.resolve() == vessel.resolve():
         raise InputError(f"{output}: the output must not be the input file")
     model = load_vessel(vessel)

@@ -25,7 +25,6 @@ import io
 import json
 import logging
 import os
-import tempfile
 from collections.abc import Iterable, Iterator, Sequence
 from dataclasses import dataclass
 from pathlib import Path
@@ -52,6 +51,7 @@ from pyhanko.stamp import StaticStampStyle
 from pyhanko_certvalidator import ValidationContext
 
 from reportgen.errors import InputError
+from reportgen.files import write_atomic
 
 ROLES: tuple[str, ...] = ("prepared", "checked", "reviewed")
 RESULTS_NAME = "results.json"
@@ -76,23 +76,6 @@ _ALLOWED_LEVELS = (
 
 # --------------------------------------------------------------------------------------------
 # Small file helpers
-
-
-def _write_atomic(path: Path, data: bytes, mode: int | None = None) -> None:
-    """Write bytes to a temporary file beside ``path``, then rename it over ``path``."""
-    fd, tmp_name = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".tmp")
-    try:
-        with os.fdopen(fd, "wb") as fh:
-            fh.write(data)
-            fh.flush()
-            os.fsync(fh.fileno())
-        if mode is not None:
-            os.chmod(tmp_name, mode)
-        os.replace(tmp_name, path)
-    except BaseException:
-        with contextlib.suppress(FileNotFoundError):
-            os.unlink(tmp_name)
-        raise
 
 
 def _read_bytes(path: Path, what: str) -> bytes:
@@ -183,9 +166,10 @@ def keygen(name: str, out_dir: Path, passphrase: bytes | None = None,
     p12 = pkcs12.serialize_key_and_certificates(
         name.encode("utf-8"), key, cert, None, encryption
     )
-    _write_atomic(paths[0], key_pem, mode=0o600)
-    _write_atomic(paths[1], cert_pem)
-    _write_atomic(paths[2], p12, mode=0o600)
+    # force=True: the refusal to overwrite was decided above, for all three files at once.
+    write_atomic(paths[0], key_pem, force=True, mode=0o600)
+    write_atomic(paths[1], cert_pem, force=True)
+    write_atomic(paths[2], p12, force=True, mode=0o600)
     return paths
 
 
@@ -599,7 +583,7 @@ def sign_sheet(in_path: Path, out_path: Path, role: str, *, key_path: Path | Non
         output = pdf_signer.sign_pdf(writer, existing_fields_only=True, output=io.BytesIO())
     except (SigningError, PdfError, ValueError) as exc:
         raise InputError(f"{in_path}: cannot sign the {role} field: {exc}") from exc
-    _write_atomic(out_path, output.getvalue())
+    write_atomic(out_path, output.getvalue(), force=True)  # existing output refused above
 
 
 # --------------------------------------------------------------------------------------------

@@ -16,7 +16,6 @@ import base64
 import hashlib
 import math
 import os
-import tempfile
 from collections.abc import Iterator, Mapping
 from contextlib import contextmanager
 from datetime import UTC, date, datetime
@@ -29,7 +28,7 @@ import jinja2
 import pydyf
 import weasyprint
 
-from reportgen.errors import InputError
+from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
 from reportgen.report.figures import curve_towards_side, gz_figure_svg, weather_figure_svg
 
@@ -341,12 +340,6 @@ def _source_date_epoch(when: datetime) -> Iterator[None]:
             os.environ["SOURCE_DATE_EPOCH"] = before
 
 
-def _current_umask() -> int:
-    mask = os.umask(0o022)
-    os.umask(mask)
-    return mask
-
-
 def write_sheet(case: Any, results: ResultsLike, out_path: str | os.PathLike,
                 force: bool = False) -> None:
     """Write the sheet to ``out_path`` atomically (temporary file, then rename).
@@ -355,20 +348,5 @@ def write_sheet(case: Any, results: ResultsLike, out_path: str | os.PathLike,
     directory does not exist; nothing is written then.
     """
     target = Path(out_path)
-    if target.exists() and not force:
-        raise InputError(f"{target}: the file exists; not overwritten (use --force to replace it)")
-    if not target.parent.is_dir():
-        raise InputError(f"{target}: the directory {target.parent} does not exist")
-    pdf_bytes = render_sheet(case, results)
-    handle, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part",
-                                         dir=target.parent)
-    try:
-        os.chmod(temporary, 0o666 & ~_current_umask())
-        with os.fdopen(handle, "wb") as stream:
-            stream.write(pdf_bytes)
-            stream.flush()
-            os.fsync(stream.fileno())
-        os.replace(temporary, target)
-    except BaseException:
-        Path(temporary).unlink(missing_ok=True)
-        raise
+    check_output(target, force)  # before the work of rendering
+    write_atomic(target, render_sheet(case, results), force=force)
