@@ -1,4 +1,5 @@
-"""Writing output files safely: a temporary name in the same folder, then a rename."""
+"""Reading input files with clear errors; writing output files safely (a temporary name in
+the same folder, then a rename)."""
 
 from __future__ import annotations
 
@@ -18,6 +19,20 @@ def check_output(path: Path, force: bool) -> None:
     folder = path.parent if str(path.parent) else Path(".")
     if not folder.is_dir():
         raise InputError(f"{path}: the folder {folder} does not exist")
+
+
+def read_input(path: str | Path, what: str) -> bytes:
+    """The bytes of an input file; InputError naming the file and what it was meant to be."""
+    path = Path(path)
+    try:
+        return path.read_bytes()
+    except FileNotFoundError:
+        reason = "not found"
+    except IsADirectoryError:
+        reason = "it is a folder, not a file"
+    except OSError as exc:
+        reason = exc.strerror or str(exc)
+    raise InputError(f"{path}: cannot read the {what}: {reason}")
 
 
 def _umask() -> int:

@@ -26,6 +26,7 @@ from pydantic import (
 from shapely.geometry import Polygon
 
 from reportgen.errors import InputError
+from reportgen.files import read_input
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 CONDITION_FORMAT = "reportgen/condition-1"
@@ -458,17 +459,6 @@ def _validate(model: type[_Model], data: Any, name: str, lines: dict[tuple, int]
         raise InputError(f"{name}: {_where(loc, lines)}: {msg}{more}") from None
 
 
-def _read(path: Path, what: str) -> bytes:
-    try:
-        return path.read_bytes()
-    except FileNotFoundError:
-        raise InputError(f"{path}: {what} not found") from None
-    except IsADirectoryError:
-        raise InputError(f"{path}: {what} is a folder, not a file") from None
-    except OSError as exc:
-        raise InputError(f"{path}: cannot read the {what}: {exc.strerror}") from None
-
-
 def _decode(raw: bytes, name: str) -> str:
     try:
         return raw.decode("utf-8")
@@ -484,7 +474,7 @@ def parse_vessel(raw: bytes, name: str) -> Vessel:
 
 def load_vessel(path: str | Path) -> Vessel:
     path = Path(path)
-    return parse_vessel(_read(path, "vessel data file"), str(path))
+    return parse_vessel(read_input(path, "vessel data file"), str(path))
 
 
 # --- the case: a condition with its vessel -----------------------------------------------------
@@ -546,7 +536,7 @@ def _case(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_name: str,
 def load_case(condition_path: str | Path) -> Case:
     """Read a condition file and the vessel file it names (relative to the condition file)."""
     cpath = Path(condition_path)
-    cond_raw = _read(cpath, "condition file")
+    cond_raw = read_input(cpath, "condition file")
     data, lines = _parse_yaml(_decode(cond_raw, str(cpath)), str(cpath))
     vessel_ref = data.get("vessel") if isinstance(data, dict) else None
     if not isinstance(vessel_ref, str) or not vessel_ref:
@@ -557,7 +547,7 @@ def load_case(condition_path: str | Path) -> Case:
     if not vpath.is_file():
         raise InputError(f"{cpath}: {_where(('vessel',), lines)}: vessel data file {vpath} "
                          f"not found")
-    vessel_raw = _read(vpath, "vessel data file")
+    vessel_raw = read_input(vpath, "vessel data file")
     return _case(cond_raw, vessel_raw, cpath.name, vpath.name, str(cpath), str(vpath))
 
 

@@ -51,7 +51,7 @@ from pyhanko.stamp import StaticStampStyle
 from pyhanko_certvalidator import ValidationContext
 
 from reportgen.errors import InputError
-from reportgen.files import write_atomic
+from reportgen.files import read_input, write_atomic
 
 ROLES: tuple[str, ...] = ("prepared", "checked", "reviewed")
 RESULTS_NAME = "results.json"
@@ -76,13 +76,6 @@ _ALLOWED_LEVELS = (
 
 # --------------------------------------------------------------------------------------------
 # Small file helpers
-
-
-def _read_bytes(path: Path, what: str) -> bytes:
-    try:
-        return Path(path).read_bytes()
-    except OSError as exc:
-        raise InputError(f"{path}: cannot read the {what}: {exc.strerror or exc}") from exc
 
 
 def _utc_now() -> dt.datetime:
@@ -180,7 +173,7 @@ def _load_identity(key_path: Path | None, cert_path: Path | None, p12_path: Path
     if p12_path is not None:
         if key_path is not None or cert_path is not None:
             raise InputError("sign: give either --p12 or --key with --cert, not both")
-        data = _read_bytes(p12_path, "PKCS#12 identity")
+        data = read_input(p12_path, "PKCS#12 identity")
         try:
             key, cert, extra = pkcs12.load_key_and_certificates(data, passphrase)
         except (ValueError, TypeError) as exc:
@@ -193,8 +186,8 @@ def _load_identity(key_path: Path | None, cert_path: Path | None, p12_path: Path
         return key, cert, list(extra or [])
     if key_path is None or cert_path is None:
         raise InputError("sign: give --key and --cert, or --p12")
-    key_data = _read_bytes(key_path, "private key")
-    cert_data = _read_bytes(cert_path, "certificate")
+    key_data = read_input(key_path, "private key")
+    cert_data = read_input(cert_path, "certificate")
     try:
         if b"-----BEGIN" in key_data:
             key = serialization.load_pem_private_key(key_data, passphrase)
@@ -531,7 +524,7 @@ def sign_sheet(in_path: Path, out_path: Path, role: str, *, key_path: Path | Non
     if role not in ROLES:
         raise InputError(f"sign: --role must be one of {', '.join(ROLES)}, not {role!r}")
     _check_out_path(in_path, out_path, force)
-    data = _read_bytes(in_path, "sheet")
+    data = read_input(in_path, "sheet")
     sheet = _read_sheet(data, in_path)
     if sheet.fields.get(role):
         raise InputError(f"{in_path}: the {role} field is already signed")
@@ -593,7 +586,7 @@ def sign_sheet(in_path: Path, out_path: Path, role: str, *, key_path: Path | Non
 def _load_trust_roots(paths: Iterable[Path]) -> list[asn1_x509.Certificate]:
     roots: list[asn1_x509.Certificate] = []
     for p in paths:
-        data = _read_bytes(Path(p), "trusted certificate")
+        data = read_input(Path(p), "trusted certificate")
         try:
             certs = (x509.load_pem_x509_certificates(data) if b"-----BEGIN" in data
                      else [x509.load_der_x509_certificate(data)])
@@ -734,7 +727,7 @@ def verify_sheet(path: Path, trust: Sequence[Path] = (), pages: bool = False) ->
     it must agree too). An unreadable file or a PDF that is not a sheet: InputError.
     """
     path = Path(path)
-    data = _read_bytes(path, "sheet")
+    data = read_input(path, "sheet")
     sheet = _read_sheet(data, path)
     roots = _load_trust_roots(trust)
     signatories = (sheet.results.get("condition") or {}).get("signatories") or {}

@@ -323,12 +323,18 @@ def test_changed_byte_in_signed_revision_is_not_intact(sheets, ids, tmp_path):
     assert "intact:            NO" in signing.render_verify_report(report)
 
 
-def test_page_added_in_later_update_is_caught(sheets, ids, tmp_path):
-    writer = PdfWriter(sheets["two"], incremental=True)
+def _with_blank_page(signed: Path, folder: Path) -> Path:
+    """A copy of `signed` with a blank page added in an incremental update (pypdf)."""
+    writer = PdfWriter(signed, incremental=True)
     writer.add_blank_page(595, 842)
-    bad = tmp_path / "page.pdf"
+    bad = folder / "page.pdf"
     with bad.open("wb") as fh:
         writer.write(fh)
+    return bad
+
+
+def test_page_added_in_later_update_is_caught(sheets, ids, tmp_path):
+    bad = _with_blank_page(sheets["two"], tmp_path)
     assert bad.read_bytes().startswith(sheets["two"].read_bytes())  # really incremental
     report = signing.verify_sheet(bad, _trust(ids, "alice", "bob"))
     assert not report["ok"]
@@ -559,11 +565,7 @@ def test_demo_sheet_with_altered_results_is_caught(demo_sheet, ids, tmp_path):
 
 
 def test_demo_sheet_page_added_after_signing_is_caught(demo_sheet, ids, tmp_path):
-    writer = PdfWriter(demo_sheet["two"], incremental=True)
-    writer.add_blank_page(595, 842)
-    bad = tmp_path / "page.pdf"
-    with bad.open("wb") as fh:
-        writer.write(fh)
+    bad = _with_blank_page(demo_sheet["two"], tmp_path)
     report = signing.verify_sheet(bad, _trust(ids, "alice", "bob"))
     assert not report["ok"] and not any(s["docmdp_ok"] for s in report["signatures"])
 
