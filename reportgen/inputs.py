@@ -210,10 +210,6 @@ class Tank(_Model):
     density: Density  # t/m³
     table: TankTable
 
-    @property
-    def capacity_m3(self) -> float:
-        return self.table.volume[-1]
-
 
 class Station(_Model):
     x: Num  # m from AP
@@ -296,9 +292,6 @@ class Vessel(_Model):
     @property
     def has_tables(self) -> bool:
         return self.hydrostatics is not None and self.cross_curves is not None
-
-    def tank(self, tank_id: str) -> Tank:
-        return next(t for t in self.tanks if t.id == tank_id)
 
 
 # --- condition file ----------------------------------------------------------------------------
