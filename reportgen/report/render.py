@@ -146,7 +146,7 @@ def deadweight_line(lines: list[Mapping[str, Any]]) -> dict:
 
 
 def _read_template(name: str) -> str:
-    return (files("reportgen") / "templates" / name).read_text(encoding="utf-8")
+    return (files("reportgen.report") / "templates" / name).read_text(encoding="utf-8")
 
 
 @lru_cache(maxsize=1)

@@ -1,0 +1,49 @@
+"""Command line: arguments -> library calls -> exit codes (SPEC.md, "Command line").
+
+Exit status: 0 success (every criterion passed / every signature good), 1 a criterion failed or
+a verification found a fault, 2 bad input (a clear message, nothing written).
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import click
+
+from reportgen import __version__
+from reportgen.errors import InputError
+
+EXIT_BAD_INPUT = 2
+
+
+class _Group(click.Group):
+    """Turns InputError into one line on stderr and exit status 2, never a traceback."""
+
+    def invoke(self, ctx: click.Context):
+        try:
+            return super().invoke(ctx)
+        except InputError as exc:
+            click.echo(f"reportgen: {exc}", err=True)
+            ctx.exit(EXIT_BAD_INPUT)
+        except KeyboardInterrupt:
+            click.echo("reportgen: interrupted; nothing was written", err=True)
+            ctx.exit(130)
+
+
+def read_passphrase(path: Path | None) -> bytes | None:
+    if path is None:
+        return None
+    try:
+        return path.read_bytes().rstrip(b"\r\n")
+    except OSError as exc:
+        raise InputError(f"{path}: cannot read the passphrase file: {exc.strerror}") from None
+
+
+@click.group(cls=_Group, context_settings={"help_option_names": ["-h", "--help"]})
+@click.version_option(__version__, prog_name="reportgen")
+def main() -> None:
+    """Intact stability calculation sheets to the IMO 2008 IS Code."""
+
+
+# The commands register themselves on `main` when their modules are imported.
+from reportgen.cli import calc, setup, signing  # noqa: F401

@@ -1,0 +1,48 @@
+"""Commands that set up a ship's data: tables."""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+import click
+
+from reportgen.cli import main
+from reportgen.errors import InputError
+
+
+@main.command()
+@click.argument("vessel", type=click.Path(path_type=Path))
+@click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
+              help="The vessel file to write, with the tables.")
+@click.option("--even-keel", is_flag=True, help="Cross curves at even keel (default: free trim).")
+@click.option("--force", is_flag=True, help="Replace an existing file.")
+def tables(vessel: Path, output: Path, even_keel: bool, force: bool) -> None:
+    """Make hydrostatics and cross curves from the hull offsets."""
+    from rich.progress import Progress
+
+    from reportgen.files import check_output, write_atomic
+    from reportgen.hull.tables import build_tables, vessel_text_with_tables
+    from reportgen.inputs import load_vessel
+
+    check_output(output, force)
+    if output.exists() and output.resolve() == vessel.resolve():
+        raise InputError(f"{output}: the output must not be the input file")
+    model = load_vessel(vessel)
+    if model.hull is None:
+        raise InputError(f"{vessel}: hull: no offsets to make tables from")
+    with Progress(transient=True, disable=not sys.stderr.isatty()) as bar:
+        task = bar.add_task("hull tables", total=None)
+
+        def progress(done: int, total: int) -> None:
+            bar.update(task, completed=done, total=total)
+
+        made = build_tables(model, even_keel=even_keel, progress=progress)
+    text = vessel_text_with_tables(vessel.read_text(encoding="utf-8"), made)
+    write_atomic(output, text.encode("utf-8"), force=force)
+    hydro, cross = made["hydrostatics"], made["cross_curves"]
+    click.echo(
+        f"{output}: hydrostatics at {len(hydro['draft'])} draughts "
+        f"({hydro['draft'][0]:g} to {hydro['draft'][-1]:g} m), cross curves at "
+        f"{len(cross['displacement'])} displacements x {len(cross['heel'])} heels, "
+        f"trim {cross['trim']}", err=True)
