@@ -16,7 +16,8 @@ ROOT = Path(__file__).resolve().parent.parent
 
 def main(argv: list[str]) -> int:
     from reportgen.inputs import load_case
-    from reportgen.pipeline import evaluate, vessel_tables
+    from reportgen.pipeline import evaluate
+    from reportgen.vesseldata import vessel_data
 
     paths = [Path(a) for a in argv] or sorted((ROOT / "conditions").glob("*.yaml"))
     if not paths:
@@ -40,7 +41,7 @@ def main(argv: list[str]) -> int:
     print(f"{n} conditions: {total:.2f} s ({total / n * 1e3:.2f} ms each)")
 
     # The same with the vessel's tables made once (pipeline.evaluate(case, tables)).
-    tables = {id(c.vessel): vessel_tables(c.vessel) for c in cases}
+    tables = {id(c.vessel): vessel_data(c.vessel) for c in cases}
     t0 = time.perf_counter()
     for i in range(n):
         c = cases[i % len(cases)]

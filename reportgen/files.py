@@ -10,9 +10,15 @@ from pathlib import Path
 from reportgen.errors import InputError
 
 
-def check_output(path: Path, force: bool) -> None:
-    """InputError when `path` cannot be written: it exists and `force` is not set (nothing is
-    silently overwritten), or its folder does not exist."""
+def check_output(path: Path, force: bool, inputs: list[Path] | tuple = ()) -> None:
+    """InputError when `path` cannot be written: it is one of the command's `inputs`, it
+    exists and `force` is not set (nothing is silently overwritten), or its folder does not
+    exist."""
+    path = Path(path)
+    for source in inputs:
+        if path.exists() and Path(source).exists() and path.resolve() == Path(source).resolve():
+            raise InputError(f"{path}: the output would replace an input file; choose another "
+                             f"name")
     if path.exists() and not force:
         raise InputError(f"{path}: already exists; choose another name or add --force to "
                          f"replace it")

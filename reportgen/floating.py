@@ -1,4 +1,4 @@
-"""Floating position from the hydrostatic table: draughts and trim.
+"""Floating position from the hydrostatic table: draughts and trim at the condition's state.
 
 Units: mass t, lengths m (x from AP positive forward, z from the moulded base), density t/m³,
 MCT t·m/cm, TPC t/cm. Trim is positive by the stern (draught aft minus draught fore, SPEC.md).
@@ -8,57 +8,61 @@ density ρ_w floats at the volume Δ/ρ_w, which is the table's row at Δ_t = Δ
 quantities (draught, LCB, LCF, KMt, Lwl, CB) are read at Δ_t unchanged; displacement-type
 quantities (MCT, TPC) scale with the density: X_w = X_t·ρ_w/ρ_t.
 
-Values between table rows are interpolated linearly, so the table rows are returned exactly
-(MSC.1/Circ.1229: results from pre-programmed tables match those tables). A displacement
-outside the table raises InputError: the tables are never extrapolated.
+Two kinds of table (SPEC.md, "Vessel data file"):
+- even keel (no `trims`): the trim follows from the moment to change trim,
+  t = Δ·(LCB − LCG)/(100·MCT), and the table's draught is taken at the LCF;
+- at several trims (`trims`): the condition floats at the trim at which LCB = LCG (SPEC: xB
+  = LCG), found between the table's trims; every column is read at that trim, and the draught
+  is the table's midships draught. A trim outside the table's trims is an error.
+
+Values between rows are interpolated linearly (in displacement, then in trim), so the table
+rows are returned exactly (MSC.1/Circ.1229: results from pre-programmed tables match those
+tables). A displacement or trim outside the table raises InputError: never extrapolated.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import TYPE_CHECKING
 
 import numpy as np
 
 from reportgen.errors import InputError
 
-if TYPE_CHECKING:
-    from reportgen.inputs import Hydrostatics
+COLUMNS = ("draft", "lcb", "lcf", "kmt", "mct", "tpc", "lwl", "cb")
 
 
 @dataclass(frozen=True)
 class HydroTable:
-    """An even-keel hydrostatic table as arrays, made at `density` (t/m³)."""
+    """A hydrostatic table as arrays, made at `density` (t/m³).
+
+    trims: (k,) m, + by the stern, or None for an even-keel table (then k = 1). Every other
+    array is (k, n): one row per trim over the n draughts (draft: the same row repeated).
+    """
 
     density: float
-    draft: np.ndarray  # m, moulded
-    displacement: np.ndarray  # t
-    lcb: np.ndarray  # m from AP
-    lcf: np.ndarray  # m from AP
-    kmt: np.ndarray  # m
-    mct: np.ndarray  # t·m/cm
-    tpc: np.ndarray  # t/cm
-    lwl: np.ndarray | None  # m
+    trims: np.ndarray | None
+    draft: np.ndarray
+    displacement: np.ndarray
+    lcb: np.ndarray
+    lcf: np.ndarray
+    kmt: np.ndarray
+    mct: np.ndarray
+    tpc: np.ndarray
+    lwl: np.ndarray | None
     cb: np.ndarray | None
-
-    @classmethod
-    def from_model(cls, h: Hydrostatics) -> HydroTable:
-        def arr(v: list[float] | None) -> np.ndarray | None:
-            return None if v is None else np.asarray(v, dtype=float)
-
-        return cls(float(h.density), arr(h.draft), arr(h.displacement), arr(h.lcb), arr(h.lcf),
-                   arr(h.kmt), arr(h.mct), arr(h.tpc), arr(h.lwl), arr(h.cb))
 
 
 @dataclass(frozen=True)
 class HydroPoint:
-    """Table values at one displacement, in the water of the condition.
+    """Table values at one displacement and trim, in the water of the condition.
 
-    draft: the table's (even-keel) draught, m; taken as the draught at the LCF when trimmed.
-    displacement_table: Δ_t = Δ·ρ_t/ρ_w, t. lwl and cb are None when the table has no column.
+    draft: the table's draught (m; midships for a trimmed table, at the LCF for an even-keel
+    one); displacement_table: Δ_t = Δ·ρ_t/ρ_w, t; trim: m, + by the stern. lwl and cb are
+    None when the table has no column.
     """
 
     displacement_table: float
+    trim: float
     draft: float
     lcb: float
     lcf: float
@@ -77,36 +81,49 @@ def table_displacement(displacement_t: float, water_density: float,
 
 def check_in_range(value: float, column: np.ndarray, what: str, unit: str = "t") -> None:
     """InputError when `value` lies outside the table column (no extrapolation)."""
-    lo, hi = float(column[0]), float(column[-1])
+    lo, hi = float(np.min(column)), float(np.max(column))
     tol = 1e-9 * max(abs(lo), abs(hi), 1.0)
     if not lo - tol <= value <= hi + tol:
-        raise InputError(f"the displacement {value:.1f} {unit} is outside the {what} "
-                         f"({lo:g} to {hi:g} {unit}); the tables are not extrapolated")
+        raise InputError(f"the {'displacement' if unit == 't' else 'value'} {value:.1f} {unit} "
+                         f"is outside the {what} ({lo:g} to {hi:g} {unit}); the tables are not "
+                         f"extrapolated")
 
 
-def hydrostatics_at(table: HydroTable, displacement_t: float,
-                    water_density: float) -> HydroPoint:
-    """Interpolate the hydrostatic table at Δ (t) floating in water of ρ_w (t/m³)."""
-    disp_t = table_displacement(displacement_t, water_density, table.density)
-    check_in_range(disp_t, table.displacement,
-                   f"hydrostatic table (at its density {table.density:g} t/m³)")
-    scale = water_density / table.density
-    xp = table.displacement
+def _row_values(table: HydroTable, k: int, disp_t: float) -> dict[str, float | None]:
+    """Every column at Δ_t in trim row k, linear in displacement."""
+    xp = table.displacement[k]
+    check_in_range(disp_t, xp, "hydrostatic table" + (
+        "" if table.trims is None else f" at trim {table.trims[k]:g} m"))
+    out: dict[str, float | None] = {}
+    for name in COLUMNS:
+        col = getattr(table, name)
+        out[name] = None if col is None else float(np.interp(disp_t, xp, col[k]))
+    return out
 
-    def at(col: np.ndarray) -> float:
-        return float(np.interp(disp_t, xp, col))
 
-    return HydroPoint(
-        displacement_table=disp_t,
-        draft=at(table.draft),
-        lcb=at(table.lcb),
-        lcf=at(table.lcf),
-        kmt=at(table.kmt),
-        mct=at(table.mct) * scale,
-        tpc=at(table.tpc) * scale,
-        lwl=None if table.lwl is None else at(table.lwl),
-        cb=None if table.cb is None else at(table.cb),
-    )
+def _blend(a: dict, b: dict, w: float) -> dict:
+    return {k: None if a[k] is None else (1.0 - w) * a[k] + w * b[k] for k in a}
+
+
+def float_trimmed(table: HydroTable, disp_t: float, lcg_m: float) -> tuple[float, dict]:
+    """(trim m, columns) at which LCB = LCG, between the table's trims (linear in trim)."""
+    trims = table.trims
+    rows = [_row_values(table, k, disp_t) for k in range(len(trims))]
+    f = np.array([r["lcb"] for r in rows]) - lcg_m  # LCB − LCG at each trim
+    for k in range(len(trims) - 1):
+        if f[k] == 0.0:
+            return float(trims[k]), rows[k]
+        if f[k] * f[k + 1] <= 0.0:
+            w = f[k] / (f[k] - f[k + 1])
+            return float(trims[k] + w * (trims[k + 1] - trims[k])), _blend(rows[k], rows[k + 1], w)
+    if f[-1] == 0.0:
+        return float(trims[-1]), rows[-1]
+    # Outside: estimate how far, from the MCT of the nearest end, to say so.
+    end = 0 if abs(f[0]) < abs(f[-1]) else -1
+    est = trims[end] + (disp_t * f[end]) / (100.0 * rows[end]["mct"])
+    raise InputError(f"the condition trims about {est:+.2f} m (LCG {lcg_m:.3f} m), outside the "
+                     f"hydrostatic table's trims {trims[0]:g} to {trims[-1]:g} m; the tables "
+                     f"are not extrapolated")
 
 
 def trim_m(displacement_t: float, lcb_m: float, lcg_m: float, mct_tm_per_cm: float) -> float:
@@ -119,6 +136,22 @@ def trim_m(displacement_t: float, lcb_m: float, lcg_m: float, mct_tm_per_cm: flo
     return displacement_t * (lcb_m - lcg_m) / (100.0 * mct_tm_per_cm)
 
 
+def hydrostatics_at(table: HydroTable, displacement_t: float, water_density: float,
+                    lcg_m: float) -> HydroPoint:
+    """The table at Δ (t) floating in water of ρ_w (t/m³) with its centre of gravity at
+    LCG (m): the trim of equilibrium and every column at it."""
+    disp_t = table_displacement(displacement_t, water_density, table.density)
+    if table.trims is None:
+        cols = _row_values(table, 0, disp_t)
+        # the trimming moment is that of the ship in its water: Δ and MCT in that water
+        trim = trim_m(disp_t, cols["lcb"], lcg_m, cols["mct"])
+    else:
+        trim, cols = float_trimmed(table, disp_t, lcg_m)
+    scale = water_density / table.density
+    return HydroPoint(disp_t, trim, cols["draft"], cols["lcb"], cols["lcf"], cols["kmt"],
+                      cols["mct"] * scale, cols["tpc"] * scale, cols["lwl"], cols["cb"])
+
+
 @dataclass(frozen=True)
 class Draughts:
     """Moulded draughts at the AP, at midships (x = Lpp/2) and at the FP, m."""
@@ -128,7 +161,7 @@ class Draughts:
     fore: float
 
 
-def draughts(draft_lcf_m: float, trim: float, lcf_m: float, lpp_m: float) -> Draughts:
+def draughts_about_lcf(draft_lcf_m: float, trim: float, lcf_m: float, lpp_m: float) -> Draughts:
     """Draughts at the perpendiculars from the draught at the LCF and the trim.
 
     The waterplane rotates about the centre of flotation, so the draught at x is
@@ -141,15 +174,50 @@ def draughts(draft_lcf_m: float, trim: float, lcf_m: float, lpp_m: float) -> Dra
     return Draughts(aft=aft, mid=aft - trim * 0.5, fore=aft - trim)
 
 
+def draughts_about_midships(draft_mid_m: float, trim: float) -> Draughts:
+    """Draughts at the perpendiculars from the midships draught and the trim (m)."""
+    return Draughts(aft=draft_mid_m + 0.5 * trim, mid=draft_mid_m, fore=draft_mid_m - 0.5 * trim)
+
+
 def waterline_height(x_m: float | np.ndarray, draft_mid_m: float, trim: float,
                      lpp_m: float) -> float | np.ndarray:
     """Height of the waterline above base at x (m from AP): T_mid + t·(Lpp/2 − x)/Lpp."""
     return draft_mid_m + trim * (0.5 * lpp_m - np.asarray(x_m, dtype=float)) / lpp_m
 
 
-def summer_draught_warning(draft_mid_m: float, summer_draft_m: float) -> str | None:
-    """A warning when the mean (midships) moulded draught is above the summer draught."""
-    if draft_mid_m > summer_draft_m + 1e-9:
-        return (f"The mean draught {draft_mid_m:.3f} m is above the summer load line draught "
-                f"{summer_draft_m:.3f} m: the ship is overloaded.")
-    return None
+def draughts(table: HydroTable, point: HydroPoint, lpp_m: float) -> Draughts:
+    """The draughts of a table point: about the LCF (even keel) or midships (trimmed)."""
+    if table.trims is None:
+        return draughts_about_lcf(point.draft, point.trim, point.lcf, lpp_m)
+    return draughts_about_midships(point.draft, point.trim)
+
+
+@dataclass(frozen=True)
+class Floating:
+    """The upright floating position of a condition and the particulars at it.
+
+    method: tables | hull; displacement_table_t: Δ at the hydrostatic table's density (t; the
+    argument of every table); trim m (+ by the stern); draughts m (moulded); lcb, lcf m from
+    AP; kmt m; mct t·m/cm and tpc t/cm in the condition's water; lwl m and cb, None when the
+    table has no such column.
+    """
+
+    method: str
+    displacement_table_t: float
+    trim: float
+    draughts: Draughts
+    lcb: float
+    lcf: float
+    kmt: float
+    mct: float
+    tpc: float
+    lwl: float | None
+    cb: float | None
+
+
+def floating_on_tables(table: HydroTable, displacement_t: float, water_density: float,
+                       lcg_m: float, lpp_m: float) -> Floating:
+    """The floating position read from the hydrostatic table (module docstring)."""
+    p = hydrostatics_at(table, displacement_t, water_density, lcg_m)
+    return Floating("tables", p.displacement_table, p.trim, draughts(table, p, lpp_m), p.lcb,
+                    p.lcf, p.kmt, p.mct, p.tpc, p.lwl, p.cb)

@@ -1,32 +1,23 @@
-"""Loading: lightship, tank fillings and items -> totals and free-surface moments.
+"""Loading: lightship, tank fillings and items -> loading lines and totals.
 
-Units throughout this module: mass t, lengths m (x from AP, y + starboard, z from base),
-volume m³, density t/m³, moments of inertia m⁴, free-surface moments t·m, fillings in percent
-of the tank's capacity (the last volume of its sounding table).
+Units: mass t, lengths m (x from AP, y + starboard, z from base), volume m³, density t/m³,
+moments of inertia m⁴, free-surface moments t·m, fillings in percent of the tank's capacity
+(the last volume of its sounding table).
 
 Tank properties come from the tank's even-keel sounding table by linear interpolation in the
 sounding (common practice for pre-programmed tank tables: the table values are returned exactly
-at the table rows, MSC.1/Circ.1229 "results from pre-programmed tables").
-
-Free surface (IS Code 2008, Part B, 3.1 "Free surface effects"): the free-surface moment of a
-slack tank is FSM = i · ρ (t·m), i the transverse moment of inertia of the free surface (m⁴).
-`actual` takes i at the tank's filling, `maximum` the largest i of the tank's table.
+at the table rows, MSC.1/Circ.1229 "results from pre-programmed tables"). Which free surfaces
+count is decided by reportgen.freesurface (IS Code 2008 Part B 3.1).
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import TYPE_CHECKING, Literal
+from typing import Literal
 
 import numpy as np
 
 from reportgen.errors import InputError
-
-if TYPE_CHECKING:
-    from reportgen.inputs import Condition, Tank, Vessel
-
-
-SLACK_TOLERANCE_PERCENT = 1e-9
 
 
 @dataclass(frozen=True)
@@ -43,18 +34,22 @@ class TankTable:
     @classmethod
     def from_columns(cls, *columns: list[float]) -> TankTable:
         """From the columns sounding, volume, lcg, vcg, tcg, fsi, in that order."""
-        cols = [np.asarray(c, dtype=float) for c in columns]
-        return cls(*cols)
+        return cls(*(np.asarray(c, dtype=float) for c in columns))
 
     @property
     def capacity_m3(self) -> float:
         return float(self.volume[-1])
 
+    @property
+    def fsi_max_m4(self) -> float:
+        """The largest free-surface inertia of the table, m⁴ (Part B 3.1.3.2)."""
+        return float(np.max(self.fsi))
+
 
 @dataclass(frozen=True)
 class TankState:
     """A tank at one filling: sounding m, volume m³, percent of capacity, mass t, centre m,
-    fsi_m4 at the filling and the largest fsi_max_m4 of the table."""
+    fsi_m4 at the filling."""
 
     sounding: float
     volume: float
@@ -64,103 +59,119 @@ class TankState:
     vcg: float
     tcg: float
     fsi_m4: float
-    fsi_max_m4: float
 
 
-def sounding_from_volume(table: TankTable, volume_m3: float) -> float:
-    """Sounding (m) at a volume (m³), inverse linear interpolation in the sounding table."""
-    return float(np.interp(volume_m3, table.volume, table.sounding))
+def sounding_from_ullage(ullage_m: float, ullage_reference_m: float) -> float:
+    """Sounding = reference height − ullage (m): the ullage is measured down from the
+    reference point (ullage_reference, m above the sounding zero) to the liquid."""
+    return ullage_reference_m - ullage_m
 
 
-def volume_from_sounding(table: TankTable, sounding_m: float) -> float:
-    """Volume (m³) at a sounding (m), linear interpolation in the sounding table."""
-    return float(np.interp(sounding_m, table.sounding, table.volume))
-
-
-def tank_state(table: TankTable, density_t_m3: float, kind: str, value: float,
-               label: str = "tank") -> TankState:
-    """The tank at a filling given as `kind` = percent | volume | sounding | mass.
-
-    percent: of the capacity (m³); a mass (t) gives the volume mass/density, then the sounding.
-    A filling outside the table raises InputError naming `label`.
-    """
-    cap = table.capacity_m3
+def tank_volume(table: TankTable, density_t_m3: float, kind: str, value: float,
+                ullage_reference_m: float | None, label: str) -> tuple[float, float]:
+    """(volume m³, sounding m or nan) of a filling given as `kind` = percent | volume |
+    sounding | ullage | mass; InputError naming `label` when it lies outside the table."""
+    sounding = float("nan")
     if kind == "percent":
-        volume = value / 100.0 * cap
+        volume = value / 100.0 * table.capacity_m3
     elif kind == "volume":
         volume = value
     elif kind == "mass":
         volume = value / density_t_m3
-    elif kind == "sounding":
-        if not table.sounding[0] - 1e-9 <= value <= table.sounding[-1] + 1e-9:
-            raise InputError(f"{label}: sounding {value:g} m is outside the tank's table "
-                             f"({table.sounding[0]:g} to {table.sounding[-1]:g} m)")
-        volume = volume_from_sounding(table, value)
     else:
-        raise InputError(f"{label}: unknown kind of filling {kind!r}")
+        sounding = value if kind == "sounding" else sounding_from_ullage(value,
+                                                                         ullage_reference_m)
+        lo, hi = float(table.sounding[0]), float(table.sounding[-1])
+        if not lo - 1e-9 <= sounding <= hi + 1e-9:
+            given = (f"sounding {value:g} m" if kind == "sounding" else
+                     f"ullage {value:g} m (sounding {sounding:.3f} m)")
+            raise InputError(f"{label}: {given} is outside the tank's sounding table "
+                             f"({lo:g} to {hi:g} m)")
+        volume = float(np.interp(sounding, table.sounding, table.volume))
+    cap = table.capacity_m3
     if not table.volume[0] - 1e-9 <= volume <= cap * (1 + 1e-9) + 1e-9:
         raise InputError(f"{label}: {kind} {value:g} gives {volume:.3f} m³, outside the tank's "
                          f"table ({table.volume[0]:g} to {cap:g} m³)")
-    sounding = value if kind == "sounding" else sounding_from_volume(table, volume)
+    return volume, sounding
+
+
+def tank_state(table: TankTable, density_t_m3: float, kind: str, value: float,
+               ullage_reference_m: float | None = None, label: str = "tank") -> TankState:
+    """The tank at a filling (see tank_volume); the sounding follows from the volume by
+    inverse interpolation, and the centres and fsi at that sounding."""
+    volume, sounding = tank_volume(table, density_t_m3, kind, value, ullage_reference_m, label)
+    if np.isnan(sounding):
+        sounding = float(np.interp(volume, table.volume, table.sounding))
     at = (sounding, table.sounding)
     return TankState(
         sounding=float(sounding),
         volume=float(volume),
-        percent=float(100.0 * volume / cap),
+        percent=float(100.0 * volume / table.capacity_m3),
         mass=float(volume * density_t_m3),
         lcg=float(np.interp(*at, table.lcg)),
         vcg=float(np.interp(*at, table.vcg)),
         tcg=float(np.interp(*at, table.tcg)),
         fsi_m4=float(np.interp(*at, table.fsi)),
-        fsi_max_m4=float(np.max(table.fsi)),
     )
-
-
-def is_slack(percent: float, slack_below_percent: float, slack_above_percent: float) -> bool:
-    """A tank is slack unless filled below `slack_below_percent` or above `slack_above_percent`
-    (vessel calculation settings, SPEC.md; defaults 2 % and 98 %). The limits hold to within
-    SLACK_TOLERANCE_PERCENT, so a filling given as a mass or volume equal to a limit percentage
-    is classed as that percentage is."""
-    tol = SLACK_TOLERANCE_PERCENT
-    return slack_below_percent - tol <= percent <= slack_above_percent + tol
-
-
-def free_surface_moment(state: TankState, density_t_m3: float,
-                        method: Literal["actual", "maximum"]) -> float:
-    """FSM = i · ρ (t·m), IS Code 2008 Part B 3.1; i at the filling or the table's largest."""
-    fsi = state.fsi_m4 if method == "actual" else state.fsi_max_m4
-    return fsi * density_t_m3
 
 
 @dataclass(frozen=True)
 class Line:
-    """One line of the loading table (the contract's loading.lines entry)."""
+    """One line of the loading table (the results' loading.lines entry).
+
+    fsm: the free-surface moment counted for the line, t·m; fs_basis: why it counts
+    (reportgen.freesurface reasons) or None; slack: whether the tank is slack.
+    """
 
     kind: Literal["lightship", "tank", "item"]
     id: str | None
     name: str
     content: str | None
     percent: float | None
-    sounding: float | None
+    sounding: float | None  # m
+    ullage: float | None  # m, when the filling was given by ullage
     volume: float | None  # m³
     density: float | None  # t/m³
     mass: float  # t
     lcg: float  # m from AP
     vcg: float  # m above base
     tcg: float  # m, + starboard
-    fsm: float  # t·m, 0 when not slack
+    fsm: float  # t·m
     slack: bool | None
+    fs_basis: str | None = None
+    role: str | None = None  # fixed | consumable (tanks)
 
-    def as_dict(self) -> dict:
-        return dict(self.__dict__)
+
+@dataclass(frozen=True)
+class Centre:
+    """Mass (t), centre of gravity (m; None without mass) and free-surface moment (t·m)."""
+
+    mass: float
+    lcg: float | None
+    vcg: float | None
+    tcg: float | None
+    fsm: float
+
+
+def centre_of(lines: list[Line]) -> Centre:
+    """Σm and the mass-weighted centre Σ(m·g)/Σm of lines (the moment sum); ΣFSM."""
+    m = np.array([ln.mass for ln in lines], dtype=float)
+    mass = float(m.sum())
+    fsm = float(sum(ln.fsm for ln in lines))
+    if mass <= 0.0:
+        return Centre(mass, None, None, None, fsm)
+    g = np.array([[ln.lcg, ln.vcg, ln.tcg] for ln in lines], dtype=float)
+    lcg, vcg, tcg = (m @ g) / mass
+    return Centre(mass, float(lcg), float(vcg), float(tcg), fsm)
 
 
 @dataclass(frozen=True)
 class Totals:
-    """Loading totals: masses t, centre of gravity m, total free-surface moment t·m."""
+    """Loading totals: masses t, centre of gravity m, total free-surface moment t·m; and the
+    deadweight's own centre."""
 
     lightship: float
-    deadweight: float
+    deadweight: Centre
     displacement: float
     lcg: float
     vcg: float
@@ -169,64 +180,89 @@ class Totals:
 
 
 def totals(lines: list[Line]) -> Totals:
-    """Δ = Σm; LCG, VCG, TCG = Σ(m·g)/Δ; FSM = Σ FSM (t·m); deadweight = Δ − lightship."""
-    m = np.array([ln.mass for ln in lines])
-    disp = float(m.sum())
-    if disp <= 0:
+    """Δ = Σm; LCG, VCG, TCG = Σ(m·g)/Δ; FSM = ΣFSM (t·m); deadweight = Δ − lightship."""
+    whole = centre_of(lines)
+    if whole.lcg is None:
         raise InputError("the condition has no displacement")
-    light = float(sum(ln.mass for ln in lines if ln.kind == "lightship"))
-    return Totals(
-        lightship=light,
-        deadweight=disp - light,
-        displacement=disp,
-        lcg=float(m @ np.array([ln.lcg for ln in lines]) / disp),
-        vcg=float(m @ np.array([ln.vcg for ln in lines]) / disp),
-        tcg=float(m @ np.array([ln.tcg for ln in lines]) / disp),
-        fsm=float(sum(ln.fsm for ln in lines)),
-    )
+    light = centre_of([ln for ln in lines if ln.kind == "lightship"])
+    return Totals(light.mass, centre_of([ln for ln in lines if ln.kind != "lightship"]),
+                  whole.mass, whole.lcg, whole.vcg, whole.tcg, whole.fsm)
 
 
 def lightship_line(mass: float, lcg: float, vcg: float, tcg: float) -> Line:
-    return Line("lightship", None, "Lightship", None, None, None, None, None,
+    return Line("lightship", None, "Lightship", None, None, None, None, None, None,
                 float(mass), float(lcg), float(vcg), float(tcg), 0.0, None)
 
 
-def item_line(name: str, mass: float, lcg: float, vcg: float, tcg: float) -> Line:
-    return Line("item", None, name, None, None, None, None, None,
+def item_line(name: str, mass: float, lcg: float, vcg: float, tcg: float,
+              content: str | None = None) -> Line:
+    return Line("item", None, name, content, None, None, None, None, None,
                 float(mass), float(lcg), float(vcg), float(tcg), 0.0, None)
 
 
-def tank_line(tank_id: str, name: str, content: str, density_t_m3: float, state: TankState,
-              slack: bool, fsm: float) -> Line:
-    return Line("tank", tank_id, name, content, state.percent, state.sounding, state.volume,
-                float(density_t_m3), state.mass, state.lcg, state.vcg, state.tcg,
-                float(fsm) if slack else 0.0, slack)
+def tank_line(tank_id: str, name: str, content: str, role: str, density_t_m3: float,
+              state: TankState, ullage: float | None, slack: bool, fsm: float,
+              fs_basis: str | None) -> Line:
+    return Line("tank", tank_id, name, content, state.percent, state.sounding, ullage,
+                state.volume, float(density_t_m3), state.mass, state.lcg, state.vcg,
+                state.tcg, float(fsm), slack, fs_basis, role)
 
 
-def condition_lines(vessel: Vessel, condition: Condition) -> list[Line]:
-    """Loading lines of a condition: the lightship, every tank named in the condition (in the
-    vessel's tank order), then the items in the condition's order."""
+# --- the condition's loading (reads the file models) -------------------------------------------
+
+
+@dataclass(frozen=True)
+class Loading:
+    """The loading of a condition: its lines, totals and the free surfaces counted."""
+
+    lines: tuple[Line, ...]
+    totals: Totals
+    counted: tuple  # reportgen.freesurface.Counted, in the vessel's tank order
+    rule: str  # code | actual | maximum
+
+
+def condition_loading(vessel, condition, tank_tables: dict[str, TankTable]) -> Loading:
+    """Loading lines of a condition: the lightship, every tank named in the condition or whose
+    free surface counts (in the vessel's tank order), then the items in the condition's order.
+
+    vessel, condition: reportgen.inputs models; tank_tables: arrays of each tank's table.
+    """
+    from reportgen.freesurface import TankSurface, counted_tanks, is_slack
+
+    full = vessel.calculation.full_percent
+    states: dict[str, tuple[TankState, float, float | None]] = {}
+    surfaces: list[TankSurface] = []
+    for tank in vessel.tanks:
+        table = tank_tables[tank.id]
+        filling = condition.tanks.get(tank.id)
+        density = tank.density
+        if filling is not None:
+            density = filling.density if filling.density is not None else tank.density
+            state = tank_state(table, density, filling.kind, filling.value,
+                               tank.ullage_reference, label=f"tanks.{tank.id}")
+            ullage = filling.value if filling.kind == "ullage" else None
+            states[tank.id] = (state, density, ullage)
+        percent = states[tank.id][0].percent if tank.id in states else 0.0
+        fsi = states[tank.id][0].fsi_m4 if tank.id in states else 0.0
+        surfaces.append(TankSurface(tank.id, tank.content, tank.fs_role, tank.pair, percent,
+                                    fsi * density, table.fsi_max_m4 * density))
+    counted = {c.id: c for c in counted_tanks(surfaces, condition.free_surface, full)}
+
     ls = vessel.lightship
     lines = [lightship_line(ls.mass, ls.lcg, ls.vcg, ls.tcg)]
-    calc = vessel.calculation
     for tank in vessel.tanks:
-        filling = condition.tanks.get(tank.id)
-        if filling is None:
+        if tank.id not in states and tank.id not in counted:
             continue
-        state = tank_state(tank_table(tank), tank.density, filling.kind, filling.value,
-                           label=f"tanks.{tank.id}")
-        slack = is_slack(state.percent, calc.slack_below_percent, calc.slack_above_percent)
-        fsm = free_surface_moment(state, tank.density, condition.free_surface)
-        lines.append(tank_line(tank.id, tank.name, tank.content, tank.density, state, slack, fsm))
-    unknown = sorted(set(condition.tanks) - {t.id for t in vessel.tanks})
-    if unknown:
-        raise InputError(f"tanks: unknown tank {unknown[0]!r}")
+        if tank.id in states:
+            state, density, ullage = states[tank.id]
+        else:  # empty, but its free surface counts (Part B 3.1.4, or the maximum rule)
+            state = tank_state(tank_tables[tank.id], tank.density, "volume", 0.0)
+            density, ullage = tank.density, None
+        c = counted.get(tank.id)
+        lines.append(tank_line(tank.id, tank.name, tank.content, tank.fs_role, density, state,
+                               ullage, is_slack(state.percent, full),
+                               c.fsm_tm if c else 0.0, c.reason if c else None))
     for it in condition.items:
         lines.append(item_line(it.name, it.mass, it.lcg, it.vcg, it.tcg))
-    return lines
-
-
-def tank_table(tank: Tank) -> TankTable:
-    """The arrays of an inputs.Tank's sounding table."""
-    t = tank.table
-    return TankTable.from_columns(t.sounding, t.volume, t.lcg, t.vcg, t.tcg, t.fsi)
+    return Loading(tuple(lines), totals(lines), tuple(counted.values()),
+                   condition.free_surface)

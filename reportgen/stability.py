@@ -1,95 +1,95 @@
-"""Righting lever curve (GZ) from the cross curves; areas, intercepts and angles.
+"""Righting lever curve (GZ) from the cross curves; areas, intercepts and the greatest lever.
 
 Units: angles in degrees at the interface, radians inside the integrals; lengths m; mass t;
 areas under the GZ curve m·rad.
 
-GZ(θ) = KN(θ) − KG_fluid·sin θ − TCG·cos θ (θ + to starboard), KG_fluid = KG + ΣFSM/Δ: the
-free-surface correction applied as a rise of KG at all heels (IS Code 2008, Part B, 3.1; the
-usual practice, SPEC.md). KN is the cross-curve lever from the baseline pole K on the
-centreline (e.g. Rawson & Tupper, Basic Ship Theory, ch. 4, "cross curves of stability").
+GZ(θ) = KN(θ) − KG_fluid·sin θ − TCG·cos θ (θ + to starboard), KN the cross-curve lever from
+the baseline pole K on the centreline (e.g. Rawson & Tupper, Basic Ship Theory, ch. 4, "cross
+curves of stability"); KG_fluid from reportgen.particulars (free surface as a rise of KG).
 
 KN is interpolated smoothly in heel (scipy CubicSpline through the table's heels, extended to
-negative heels by symmetry KN(−θ) = −KN(θ)) and linearly in displacement between table rows.
+negative heels by symmetry KN(−θ) = −KN(θ)) and linearly in displacement and in trim between
+table rows. Areas are exact integrals of that curve: the KN spline by its antiderivative
+(scipy PPoly), the sine and cosine terms in closed form.
 
 "Towards a side": with a list (TCG ≠ 0) the criteria are taken towards the side of the list.
 The curve towards port is the mirror of the curve, GZ_port(φ) = −GZ(−φ), φ the heel to port;
-both read GZ_side(φ) = KN(φ) − KG_fluid·sin φ − |TCG|·cos φ for the side of the list.
+as KN is odd, that is the same KN with the sign of TCG reversed (GZCurve.towards).
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import TYPE_CHECKING, Literal
+from functools import cached_property
+from typing import Literal
 
 import numpy as np
-from scipy.integrate import simpson
 from scipy.interpolate import CubicSpline, PPoly
-from scipy.optimize import brentq, minimize_scalar
 
-from reportgen.errors import InputError
 from reportgen.floating import check_in_range
 
-if TYPE_CHECKING:
-    from reportgen.inputs import CrossCurves as InputCrossCurves
-    from reportgen.inputs import Opening
+GRID_STEP_DEG = 0.25  # grid on which sign changes and maxima are first located
+NEWTON_STEPS = 3  # refinements of each root or maximum from the grid (quadratic convergence)
+DEG = np.pi / 180.0
 
-SCAN_STEP_DEG = 0.25  # grid on which sign changes and maxima are first located
-AREA_POINTS = 241  # odd: Simpson's rule points per area integral
+
+def odd_spline(heel_deg: np.ndarray, kn: np.ndarray) -> CubicSpline:
+    """Cubic splines (not-a-knot) over −θmax..θmax through KN rows given from 0° (or from a
+    first heel above 0°) on the last axis, extended by KN(−θ) = −KN(θ)."""
+    h = np.asarray(heel_deg, dtype=float)
+    kn = np.asarray(kn, dtype=float)
+    if h[0] == 0.0:
+        heel = np.concatenate([-h[:0:-1], h])
+        full = np.concatenate([-kn[..., :0:-1], kn], axis=-1)
+    else:
+        heel = np.concatenate([-h[::-1], [0.0], h])
+        full = np.concatenate([-kn[..., ::-1], np.zeros(kn.shape[:-1] + (1,)), kn], axis=-1)
+    return CubicSpline(heel, full, axis=-1)
+
+
+def _weights(value: float, axis: np.ndarray) -> tuple[int, float]:
+    i = int(np.clip(np.searchsorted(axis, value) - 1, 0, len(axis) - 2))
+    w = (value - axis[i]) / (axis[i + 1] - axis[i])
+    return i, min(max(float(w), 0.0), 1.0)
 
 
 @dataclass(frozen=True)
 class CrossCurves:
-    """KN table: heel_deg (from 0), displacement t (at the table density), kn (n_disp, n_heel) m.
+    """KN tables: heel_deg (from 0), displacement t (at the hydrostatic table's density),
+    trims m (None: one table), kn (k, n_disp, n_heel) m.
 
-    The cubic splines in heel of every displacement row are made once, when the table is made
-    (`_rows`): spline interpolation is linear in the data, so the spline through a linear
-    blend of two rows is the same blend of the two rows' spline coefficients.
+    The spline in heel of every row is made once (`_rows`): spline interpolation is linear in
+    the data, so the spline through a linear blend of rows is the same blend of the rows'
+    spline coefficients.
     """
 
     heel_deg: np.ndarray
     displacement: np.ndarray
+    trims: np.ndarray | None
     kn: np.ndarray
     _rows: CubicSpline = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        h = self.heel_deg
-        if h[0] == 0.0:
-            heel = np.concatenate([-h[:0:-1], h])
-            kn = np.concatenate([-self.kn[:, :0:-1], self.kn], axis=1)
-        else:
-            zero = np.zeros((self.kn.shape[0], 1))
-            heel = np.concatenate([-h[::-1], [0.0], h])
-            kn = np.concatenate([-self.kn[:, ::-1], zero, self.kn], axis=1)
-        # KN(−θ) = −KN(θ): one spline per displacement row over −θmax..θmax.
-        object.__setattr__(self, "_rows", CubicSpline(heel, kn, axis=1))
-
-    @classmethod
-    def from_model(cls, cc: InputCrossCurves) -> CrossCurves:
-        return cls(np.asarray(cc.heel, dtype=float), np.asarray(cc.displacement, dtype=float),
-                   np.asarray(cc.kn, dtype=float))
+        object.__setattr__(self, "_rows", odd_spline(self.heel_deg, self.kn))
 
     @property
     def heel_max_deg(self) -> float:
         return float(self.heel_deg[-1])
 
-    def _weights(self, displacement_table_t: float) -> tuple[int, float]:
+    def kn_spline(self, displacement_table_t: float, trim_m: float = 0.0) -> PPoly:
+        """KN(θ°) at Δ_t and trim: the spline through the rows interpolated linearly in
+        displacement and (with trims) in trim; odd by symmetry. Never extrapolated."""
         check_in_range(displacement_table_t, self.displacement, "cross curves")
-        d = self.displacement
-        i = int(np.clip(np.searchsorted(d, displacement_table_t) - 1, 0, len(d) - 2))
-        w = (displacement_table_t - d[i]) / (d[i + 1] - d[i])
-        return i, min(max(w, 0.0), 1.0)
-
-    def kn_row(self, displacement_table_t: float) -> np.ndarray:
-        """KN at the table's heels for Δ_t (t), linear between displacement rows."""
-        i, w = self._weights(displacement_table_t)
-        return (1.0 - w) * self.kn[i] + w * self.kn[i + 1]
-
-    def kn_spline(self, displacement_table_t: float) -> PPoly:
-        """KN(θ°) at Δ_t: the cubic spline (not-a-knot) over −θmax..θmax through the row
-        interpolated linearly in displacement; odd by symmetry."""
-        i, w = self._weights(displacement_table_t)
-        c = self._rows.c
-        return PPoly.construct_fast((1.0 - w) * c[:, :, i] + w * c[:, :, i + 1], self._rows.x)
+        i, w = _weights(displacement_table_t, self.displacement)
+        c = self._rows.c  # (4, intervals, k, n_disp)
+        rows = (1.0 - w) * c[..., i] + w * c[..., i + 1]  # (4, intervals, k)
+        if self.trims is None:
+            coef = rows[..., 0]
+        else:
+            check_in_range(trim_m, self.trims, "cross curves' trims", unit="m")
+            k, v = _weights(trim_m, self.trims)
+            coef = (1.0 - v) * rows[..., k] + v * rows[..., k + 1]
+        return PPoly.construct_fast(np.ascontiguousarray(coef), self._rows.x)
 
 
 @dataclass(frozen=True)
@@ -102,25 +102,52 @@ class GZCurve:
     heel_max_deg: float
 
     def __call__(self, heel_deg: float | np.ndarray) -> np.ndarray:
-        t = np.radians(heel_deg)
+        t = np.asarray(heel_deg, dtype=float) * DEG
         return self.kn(heel_deg) - self.kg_fluid_m * np.sin(t) - self.tcg_m * np.cos(t)
 
-    def towards(self, side: Literal["starboard", "port"]) -> GZCurve:
-        """The curve with heel measured towards `side`: GZ_side(φ) = s·GZ(s·φ), s = ±1.
+    def slope(self, heel_deg: float | np.ndarray) -> np.ndarray:
+        """dGZ/dθ, m per degree."""
+        t = np.asarray(heel_deg, dtype=float) * DEG
+        return self._dkn(heel_deg) - DEG * (self.kg_fluid_m * np.cos(t)
+                                            - self.tcg_m * np.sin(t))
 
-        KN is odd (the spline through odd data with symmetric knots is odd), so the port curve
-        is the same KN with the sign of TCG reversed.
-        """
+    def curvature(self, heel_deg: float | np.ndarray) -> np.ndarray:
+        """d²GZ/dθ², m per degree²."""
+        t = np.asarray(heel_deg, dtype=float) * DEG
+        return self._ddkn(heel_deg) + DEG * DEG * (self.kg_fluid_m * np.sin(t)
+                                                   + self.tcg_m * np.cos(t))
+
+    @cached_property
+    def _dkn(self) -> PPoly:
+        return self.kn.derivative()
+
+    @cached_property
+    def _ddkn(self) -> PPoly:
+        return self.kn.derivative(2)
+
+    @cached_property
+    def kn_integral(self) -> PPoly:
+        """∫KN dθ° (m·deg), the antiderivative of the KN spline."""
+        return self.kn.antiderivative()
+
+    @cached_property
+    def grid(self) -> tuple[np.ndarray, np.ndarray]:
+        """(heel deg, GZ m) on a GRID_STEP_DEG grid over −θmax..θmax."""
+        n = round(2.0 * self.heel_max_deg / GRID_STEP_DEG) + 1
+        heel = np.linspace(-self.heel_max_deg, self.heel_max_deg, n)
+        return heel, self(heel)
+
+    def towards(self, side: Literal["starboard", "port"]) -> GZCurve:
+        """The curve with heel measured towards `side`: GZ_side(φ) = s·GZ(s·φ), s = ±1; as KN
+        is odd (odd data, symmetric knots), the port curve is KN with TCG reversed."""
         if side == "starboard":
             return self
         return GZCurve(self.kn, self.kg_fluid_m, -self.tcg_m, self.heel_max_deg)
 
 
-def gz_curve(cross: CrossCurves, displacement_table_t: float, kg_fluid_m: float,
-             tcg_m: float) -> GZCurve:
-    """The GZ curve at Δ_t (t, the cross curves' density) for KG_fluid and TCG (m)."""
-    return GZCurve(cross.kn_spline(displacement_table_t), float(kg_fluid_m), float(tcg_m),
-                   cross.heel_max_deg)
+def gz_curve(kn: PPoly, kg_fluid_m: float, tcg_m: float, heel_max_deg: float) -> GZCurve:
+    """The GZ curve of a KN spline for KG_fluid and TCG (m)."""
+    return GZCurve(kn, float(kg_fluid_m), float(tcg_m), float(heel_max_deg))
 
 
 LIST_TCG_TOLERANCE_M = 1e-6  # |TCG| at or below this is no list (rounding of symmetric loads)
@@ -137,37 +164,70 @@ def list_side(tcg_m: float) -> Literal["starboard", "port"]:
 
 
 def area_mrad(curve: GZCurve, start_deg: float, end_deg: float, level_m: float = 0.0) -> float:
-    """∫ (GZ − level) dθ from start to end, θ in radians: m·rad (Simpson's rule, fine grid)."""
+    """∫ (GZ − level) dθ from start to end, θ in radians: m·rad, exact for the curve:
+    ∫KN by the spline's antiderivative, ∫KG·sin θ and ∫TCG·cos θ in closed form."""
     if end_deg == start_deg:
         return 0.0
-    heel = np.linspace(start_deg, end_deg, AREA_POINTS)
-    return float(simpson(curve(heel) - level_m, x=np.radians(heel)))
+    a, b = start_deg * DEG, end_deg * DEG
+    kn_part = DEG * float(curve.kn_integral(end_deg) - curve.kn_integral(start_deg))
+    return (kn_part - curve.kg_fluid_m * (np.cos(a) - np.cos(b))
+            - curve.tcg_m * (np.sin(b) - np.sin(a)) - level_m * (b - a))
+
+
+def _newton_root(curve: GZCurve, x: np.ndarray, lo: np.ndarray, hi: np.ndarray,
+                 level_m: float) -> np.ndarray:
+    for _ in range(NEWTON_STEPS):
+        d = curve.slope(x)
+        step = np.where(d != 0.0, (curve(x) - level_m) / np.where(d != 0.0, d, 1.0), 0.0)
+        x = np.clip(x - step, lo, hi)
+    return x
 
 
 def crossings(curve: GZCurve, level_m: float, start_deg: float, end_deg: float,
               direction: Literal["up", "down"]) -> list[float]:
     """Angles in [start, end] where GZ crosses `level` upwards or downwards (deg).
 
-    Located on a SCAN_STEP_DEG grid, refined by scipy's brentq. "up": GZ − level goes from
-    ≤ 0 to > 0 with increasing heel; "down": from > 0 to ≤ 0.
+    Located on the curve's grid (and at the ends), then refined by Newton's method within the
+    bracket. "up": GZ − level goes from ≤ 0 to > 0 with increasing heel; "down": from > 0 to
+    ≤ 0.
     """
-    n = max(int(np.ceil((end_deg - start_deg) / SCAN_STEP_DEG)), 1) + 1
-    heel = np.linspace(start_deg, end_deg, n)
-    f = curve(heel) - level_m
+    gh, gv = curve.grid
+    inside = (gh > start_deg) & (gh < end_deg)
+    heel = np.concatenate([[start_deg], gh[inside], [end_deg]])
+    f = np.concatenate([curve([start_deg]), gv[inside], curve([end_deg])]) - level_m
     if direction == "up":
         idx = np.nonzero((f[:-1] <= 0) & (f[1:] > 0))[0]
     else:
         idx = np.nonzero((f[:-1] > 0) & (f[1:] <= 0))[0]
-    out = []
-    for i in idx:
-        a, b = heel[i], heel[i + 1]
-        if f[i] == 0.0:
-            out.append(float(a))
-        elif f[i + 1] == 0.0:
-            out.append(float(b))
-        else:
-            out.append(float(brentq(lambda x: float(curve(x)) - level_m, a, b, xtol=1e-10)))
-    return out
+    if not len(idx):
+        return []
+    a, b, fa, fb = heel[idx], heel[idx + 1], f[idx], f[idx + 1]
+    x = np.where(fa == 0.0, a, a - fa * (b - a) / np.where(fb != fa, fb - fa, 1.0))
+    exact = (fa == 0.0) | (fb == 0.0)
+    x = np.where(exact, np.where(fa == 0.0, a, b), _newton_root(curve, x, a, b, level_m))
+    return [float(v) for v in x]
+
+
+def max_gz(curve: GZCurve, start_deg: float, end_deg: float) -> tuple[float, float]:
+    """(angle deg, GZ m) of the largest GZ on [start, end]: on the grid, then Newton's method
+    on dGZ/dθ = 0 within the neighbouring grid points (kept only if it is higher)."""
+    gh, gv = curve.grid
+    inside = (gh > start_deg) & (gh < end_deg)
+    heel = np.concatenate([[start_deg], gh[inside], [end_deg]])
+    f = np.concatenate([curve([start_deg]), gv[inside], curve([end_deg])])
+    i = int(np.argmax(f))
+    best_a, best_f = float(heel[i]), float(f[i])
+    lo, hi = heel[max(i - 1, 0)], heel[min(i + 1, len(heel) - 1)]
+    x = best_a
+    for _ in range(NEWTON_STEPS):
+        c = float(curve.curvature(x))
+        if c >= 0.0:
+            break
+        x = min(max(x - float(curve.slope(x)) / c, lo), hi)
+    fx = float(curve(x))
+    if fx > best_f:
+        best_a, best_f = x, fx
+    return best_a, best_f
 
 
 def equilibrium_heel(curve: GZCurve) -> float | None:
@@ -177,23 +237,6 @@ def equilibrium_heel(curve: GZCurve) -> float | None:
     if not roots:
         return None
     return min(roots, key=lambda r: (abs(r), -r))
-
-
-def max_gz(curve: GZCurve, start_deg: float, end_deg: float) -> tuple[float, float]:
-    """(angle deg, GZ m) of the largest GZ on [start, end]: grid search refined by scipy's
-    bounded scalar minimisation."""
-    n = max(int(np.ceil((end_deg - start_deg) / SCAN_STEP_DEG)), 1) + 1
-    heel = np.linspace(start_deg, end_deg, n)
-    f = curve(heel)
-    i = int(np.argmax(f))
-    lo, hi = heel[max(i - 1, 0)], heel[min(i + 1, n - 1)]
-    best_a, best_f = float(heel[i]), float(f[i])
-    if hi > lo:
-        res = minimize_scalar(lambda x: -float(curve(x)), bounds=(lo, hi), method="bounded",
-                              options={"xatol": 1e-6})
-        if -res.fun > best_f:
-            best_a, best_f = float(res.x), float(-res.fun)
-    return best_a, best_f
 
 
 def vanishing_angle(curve: GZCurve, gz_max_deg: float) -> float | None:
@@ -211,53 +254,37 @@ def gz_grid(curve: GZCurve) -> tuple[list[float], list[float], list[float]]:
     top = int(np.floor(curve.heel_max_deg + 1e-9))
     bottom = -min(60, top)
     heel = np.arange(bottom, top + 1, dtype=float)
-    return heel.tolist(), [float(v) for v in curve(heel)], [float(v) for v in curve.kn(heel)]
+    return heel.tolist(), curve(heel).tolist(), curve.kn(heel).tolist()
 
 
-# --- angles of deck edge immersion and of flooding ----------------------------------------------
+# --- initial stability ---------------------------------------------------------------------------
 
 
-def angle_from_table(displacement_table_t: float, displacement: np.ndarray, angle: np.ndarray,
-                     what: str) -> float:
-    """An angle (deg) from a displacement -> angle table, linear, never extrapolated."""
-    check_in_range(displacement_table_t, displacement, what)
-    return float(np.interp(displacement_table_t, displacement, angle))
+def free_surface_correction(fsm_tm: float, displacement_t: float) -> float:
+    """FSC = ΣFSM/Δ (m), the virtual rise of G for the free surfaces (IS Code 2008 Part B
+    3.1; e.g. Rawson & Tupper, Basic Ship Theory, ch. 4, free surface effect)."""
+    return fsm_tm / displacement_t
 
 
-def deck_edge_formula(depth_m: float, draft_mid_m: float, breadth_m: float) -> float:
-    """Deck edge immersion angle atan((D − T)/(B/2)) (deg), wall-sided approximation at
-    midships with the mean draught (common practice when no table is given)."""
-    return float(np.degrees(np.arctan2(depth_m - draft_mid_m, 0.5 * breadth_m)))
+def kg_corrected(kg_m: float, fsc_m: float) -> float:
+    """KG corrected for free surface = KG + FSC (m), applied as a rise of KG at all heels
+    (the usual practice, SPEC.md)."""
+    return kg_m + fsc_m
 
 
-@dataclass(frozen=True)
-class OpeningAngle:
-    name: str
-    angle_deg: float
-    submerged: bool
+def metacentric_height(kmt_m: float, kg_m: float) -> float:
+    """GM = KMt − KG (m), the initial metacentric height (Rawson & Tupper, ch. 4)."""
+    return kmt_m - kg_m
 
 
-def opening_angles(openings: list[Opening], draft_mid_m: float, trim: float, lpp_m: float,
-                   ) -> list[OpeningAngle]:
-    """Immersion angle of each opening: tan θ = (z − T_x)/|y| (deg), T_x the height of the
-    trimmed waterline at the opening's x.
-
-    Approximation (common practice, stated on the sheet): the waterline turns about its
-    intersection with the centreline at x, as for a wall-sided ship; an opening on the
-    centreline gives 90°. An opening at or below the waterline gives 0°.
-    """
-    from reportgen.floating import waterline_height
-
-    out = []
-    for op in openings:
-        t_x = float(waterline_height(op.x, draft_mid_m, trim, lpp_m))
-        ang = float(np.degrees(np.arctan2(op.z - t_x, abs(op.y))))
-        out.append(OpeningAngle(op.name, max(ang, 0.0), op.z <= t_x))
-    return out
-
-
-def require_heel_range(curve: GZCurve, angle_deg: float, what: str) -> None:
-    """InputError when an angle needed by a criterion lies beyond the cross curves' heels."""
-    if abs(angle_deg) > curve.heel_max_deg + 1e-9:
-        raise InputError(f"the {what} ({angle_deg:.1f}°) is beyond the cross curves' largest "
-                         f"heel ({curve.heel_max_deg:g}°)")
+def curve_towards_side(heel_deg: list[float] | np.ndarray, values: list[float] | np.ndarray,
+                       side: str) -> tuple[np.ndarray, np.ndarray]:
+    """A curve sampled at heels (deg, + to starboard) of a quantity odd in heel (GZ, KN), as
+    seen towards `side`: towards port both the angle and the value change sign (the mirror
+    GZ_port(φ) = −GZ(−φ) of GZCurve.towards, on samples). Returns (heel deg, value),
+    heel increasing."""
+    sign = -1.0 if side == "port" else 1.0
+    heel = sign * np.asarray(heel_deg, dtype=float)
+    value = sign * np.asarray(values, dtype=float)
+    order = np.argsort(heel)
+    return heel[order], value[order]

@@ -1,89 +1,100 @@
-"""The readable text of `reportgen check`: plain text from the results document.
+"""The readable text of `reportgen check`, from the results (rich tables, plain text).
 
-Every verdict is a word (PASS / FAIL), never a colour only.
+Every verdict is a word (PASS / FAIL), never a colour only; warnings stand beside the verdict.
 """
 
 from __future__ import annotations
+
+import io
+
+from rich import box
+from rich.console import Console
+from rich.table import Table
+
+from reportgen.results import Results
+
+WIDTH = 200  # characters: lines are not wrapped, the table is as wide as its content
+DIGITS = {"m·rad": 4, "m": 3, "deg": 1}
+FS_WORDS = {"slack": "slack, actual filling", "largest_of_table": "largest of its table",
+            "worst_pair": "worst pair of its liquid", "worst_single": "worst single tank",
+            "maximum_rule": "maximum rule"}
+METHOD_WORDS = {"tables": "the vessel file's tables", "hull": "direct calculation on the hull"}
+CAUTION = ("Caution: this does not replace the approved stability booklet or an approved "
+           "stability instrument;\nthe master remains responsible for the ship's stability; "
+           "the flag Administration's and the\nclassification society's requirements govern.")
 
 
 def _num(value: float | None, digits: int = 3) -> str:
     return "—" if value is None else f"{value:.{digits}f}"
 
 
-def _digits(unit: str) -> int:
-    return {"m·rad": 4, "m": 3, "deg": 1}.get(unit, 3)
+def _criteria_table(r: Results) -> Table:
+    t = Table(box=box.SIMPLE_HEAD, pad_edge=False, show_edge=False)
+    for name, justify in (("Criterion", "left"), ("Reference", "left"), ("Required", "right"),
+                          ("Attained", "right"), ("Margin", "right"), ("Unit", "left"),
+                          ("Result", "left")):
+        t.add_column(name, justify=justify, no_wrap=True)
+    for c in r.criteria:
+        dg = DIGITS.get(c.unit, 3)
+        sign = "≤ " if c.limit == "at_most" else "≥ "
+        t.add_row(c.title, c.reference, sign + _num(c.required, dg), _num(c.attained, dg),
+                  _num(c.margin, dg), c.unit, "PASS" if c.passed else "FAIL")
+    return t
 
 
-def render_summary(results: dict) -> str:
-    """Plain text: condition, loading totals, draughts, GM, angles, every criterion with
-    required, attained, margin and PASS/FAIL, the verdict and the warnings."""
-    cond, ves, ld = results["condition"], results["vessel"], results["loading"]
-    hy, an = results["hydrostatics"], results["angles"]
-    out: list[str] = []
-    out.append(f"{ves['name']} ({ves['identifier']})")
-    out.append(f"Condition: {cond['title']}")
-    if cond.get("voyage"):
-        out.append(f"Voyage: {cond['voyage']}")
-    out.append(f"Date: {cond.get('date') or 'not stated'}")
-    out.append("")
-    out.append("Loading")
-    out.append(f"  Lightship      {ld['lightship']:10.1f} t")
-    out.append(f"  Deadweight     {ld['deadweight']:10.1f} t")
-    out.append(f"  Displacement   {ld['displacement']:10.1f} t")
-    out.append(f"  LCG {ld['lcg']:.3f} m   VCG {ld['vcg']:.3f} m   TCG {ld['tcg']:.3f} m   "
-               f"FSM {ld['fsm']:.1f} t·m ({cond.get('free_surface', 'actual')})")
-    out.append("")
-    out.append("Floating position")
-    out.append(f"  Draught aft {hy['draft_aft']:.3f} m   midships {hy['draft_mean']:.3f} m   "
-               f"fore {hy['draft_fore']:.3f} m   (moulded)")
-    if "draft_mean_extreme" in hy:
-        out.append(f"  Extreme: aft {hy['draft_aft_extreme']:.3f} m   midships "
-                   f"{hy['draft_mean_extreme']:.3f} m   fore {hy['draft_fore_extreme']:.3f} m")
-    trim_word = "by the stern" if hy["trim"] > 0 else ("by the head" if hy["trim"] < 0 else "")
-    heel = hy["heel"]
-    heel_text = "none within the tables" if heel is None else (
-        f"{abs(heel):.2f}° to {'starboard' if heel > 0 else 'port'}" if heel else "0.00°")
-    out.append(f"  Trim {abs(hy['trim']):.3f} m {trim_word}".rstrip() + f"   Heel {heel_text}")
-    out.append(f"  KMt {hy['kmt']:.3f} m   KG {hy['kg_solid']:.3f} m   FSC {hy['fsc']:.3f} m   "
-               f"KG corrected {hy['kg_fluid']:.3f} m")
-    out.append(f"  GM {hy['gm_solid']:.3f} m   GM corrected {hy['gm_fluid']:.3f} m")
-    out.append("")
-    side = an.get("side", "starboard")
-    out.append(f"Angles (towards {side})")
-    flood = f"{an['flooding']:.1f}°"
-    if an.get("flooding_opening"):
-        flood += f" ({an['flooding_opening']})"
-    vanish = "beyond the tables" if an["vanishing"] is None else f"{an['vanishing']:.1f}°"
-    out.append(f"  Deck edge {an['deck_edge']:.1f}°   Flooding {flood}   "
-               f"Maximum GZ at {an['gz_max']:.1f}°   Vanishing {vanish}")
-    out.append("")
-    out.append("Criteria")
-    rows = [("Criterion", "Reference", "Required", "Attained", "Margin", "Unit", "Result")]
-    for c in results["criteria"]:
-        dg = _digits(c["unit"])
-        sign = "≤ " if c.get("limit") == "at_most" else "≥ "
-        rows.append((c["title"], c["reference"], sign + _num(c["required"], dg),
-                     _num(c["attained"], dg), _num(c.get("margin"), dg), c["unit"],
-                     "PASS" if c["passed"] else "FAIL"))
-    widths = [max(len(r[i]) for r in rows) for i in range(len(rows[0]))]
-    for j, r in enumerate(rows):
-        cells = [r[0].ljust(widths[0]), r[1].ljust(widths[1])]
-        cells += [r[i].rjust(widths[i]) for i in (2, 3, 4)]
-        cells += [r[5].ljust(widths[5]), r[6]]
-        out.append("  " + "  ".join(cells))
-        if j == 0:
-            out.append("  " + "  ".join("-" * w for w in widths))
-    out.append("")
-    verdict = "PASS: every criterion is met" if results["passed"] else \
-        "FAIL: at least one criterion is not met"
-    out.append(f"Result: {verdict}")
-    if results.get("warnings"):
-        out.append("")
-        out.append("Warnings")
-        for w in results["warnings"]:
-            out.append(f"  - {w}")
-    out.append("")
-    out.append("Caution: this does not replace the approved stability booklet or an approved "
-               "stability instrument;\nthe master remains responsible for the ship's stability; "
-               "the flag Administration's and the\nclassification society's requirements govern.")
-    return "\n".join(out)
+def _heel_text(heel: float | None) -> str:
+    if heel is None:
+        return "none within the tables"
+    if heel == 0.0:
+        return "0.00°"
+    return f"{abs(heel):.2f}° to {'starboard' if heel > 0 else 'port'}"
+
+
+def render_summary(r: Results) -> str:
+    """Plain text: condition, verdict with its warnings, loading totals, draughts, GM, angles,
+    every criterion with required, attained, margin and PASS/FAIL, and the caution."""
+    buf = io.StringIO()
+    con = Console(file=buf, width=WIDTH, color_system=None, highlight=False, emoji=False,
+                  soft_wrap=True)
+    cond, ld, hy, an = r.condition, r.loading, r.hydrostatics, r.angles
+    con.print(f"{r.vessel.name} ({r.vessel.identifier})", markup=False)
+    con.print(f"Condition: {cond.title}", markup=False)
+    if cond.voyage:
+        con.print(f"Voyage: {cond.voyage}", markup=False)
+    con.print(f"Date: {cond.date or 'not stated'}")
+    con.print(f"Method: {METHOD_WORDS[r.assumptions.method]}")
+    verdict = ("PASS: every criterion is met" if r.passed else
+               "FAIL: " + ", ".join(c.id for c in r.criteria if not c.passed) + " not met")
+    con.print(f"\nResult: {verdict}", markup=False)
+    for w in r.warnings:
+        con.print(f"  ! {w}", markup=False)
+    con.print("\nLoading")
+    con.print(f"  Lightship {ld.lightship:.1f} t   Deadweight {ld.deadweight:.1f} t   "
+              f"Displacement {ld.displacement:.1f} t")
+    con.print(f"  LCG {ld.lcg:.3f} m   VCG {ld.vcg:.3f} m   TCG {ld.tcg:.3f} m   "
+              f"FSM {ld.fsm:.1f} t·m (free surface: {cond.free_surface})")
+    for t in r.assumptions.free_surface_tanks:
+        con.print(f"    {t.id}: {t.fsm:.1f} t·m, {FS_WORDS.get(t.reason, t.reason)}",
+                  markup=False)
+    con.print("\nFloating position")
+    con.print(f"  Draught aft {hy.draft_aft:.3f} m   midships {hy.draft_mean:.3f} m   "
+              f"fore {hy.draft_fore:.3f} m   (moulded)")
+    con.print(f"  Extreme: aft {hy.draft_aft_extreme:.3f} m   midships "
+              f"{hy.draft_mean_extreme:.3f} m   fore {hy.draft_fore_extreme:.3f} m")
+    trim_word = "by the stern" if hy.trim > 0 else ("by the head" if hy.trim < 0 else "")
+    con.print(f"  Trim {abs(hy.trim):.3f} m {trim_word}".rstrip()
+              + f"   Heel {_heel_text(hy.heel)}")
+    con.print(f"  KMt {hy.kmt:.3f} m   KG {hy.kg_solid:.3f} m   FSC {hy.fsc:.3f} m   "
+              f"KG corrected {hy.kg_fluid:.3f} m")
+    con.print(f"  GM {hy.gm_solid:.3f} m   GM corrected {hy.gm_fluid:.3f} m")
+    con.print(f"\nAngles (towards {an.side})")
+    flood = f"{an.flooding:.1f}° ({an.flooding_source}"
+    flood += f", {an.flooding_opening})" if an.flooding_opening else ")"
+    vanish = "beyond the tables" if an.vanishing is None else f"{an.vanishing:.1f}°"
+    con.print(f"  Deck edge {an.deck_edge:.1f}° ({an.deck_edge_source})   Flooding {flood}",
+              markup=False)
+    con.print(f"  Maximum GZ at {an.gz_max:.1f}°   Vanishing {vanish}")
+    con.print("\nCriteria")
+    con.print(_criteria_table(r))
+    con.print(CAUTION)
+    return "\n".join(line.rstrip() for line in buf.getvalue().rstrip("\n").split("\n"))

@@ -25,6 +25,9 @@ L, B, D = 100.0, 16.0, 14.0
 RHO = 1.025
 HEELS = [float(h) for h in range(0, 91, 5)]
 DRAFTS = [round(2.0 + 0.25 * i, 4) for i in range(41)]  # 2.0 .. 12.0 m
+# The box as hull offsets: starboard half-sections from the keel to the deck edge.
+BOX_STATIONS = [{"x": float(x), "points": [[0.0, 0.0], [B / 2, 0.0], [B / 2, D]]}
+                for x in range(0, 101, 10)]
 
 
 def kn_exact(draft_m: float, heel_deg: float) -> float:

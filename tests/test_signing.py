@@ -539,7 +539,7 @@ def demo_sheet(tmp_path_factory, ids) -> dict:
     altered_doc = results.to_dict()
     altered_doc["hydrostatics"]["gm_fluid"] += 0.05  # not what the inputs give
     altered = base / "altered.pdf"
-    altered.write_bytes(render_sheet(case, Results.from_document(altered_doc)))
+    altered.write_bytes(render_sheet(case, Results.model_validate(altered_doc)))
     return {"unsigned": unsigned, "two": two, "altered": altered}
 
 

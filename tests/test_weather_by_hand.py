@@ -10,7 +10,17 @@ from __future__ import annotations
 import math
 
 import pytest
-from eval_box import RHO, B, D, L, condition_dict, vessel_dict, wall_sided_gz, write_case
+from eval_box import (
+    BOX_STATIONS,
+    RHO,
+    B,
+    D,
+    L,
+    condition_dict,
+    vessel_dict,
+    wall_sided_gz,
+    write_case,
+)
 from scipy.optimize import brentq
 
 from reportgen.pipeline import evaluate_path
@@ -27,7 +37,9 @@ def _cond(**extra):
 
 
 def _vessel(**extra):
+    # θf from the box's offsets: exact for the wall-sided box before its deck edge immerses.
     return vessel_dict(openings=[{"name": "Vent (S)", "x": 50.0, "y": B / 2, "z": Z_OPENING}],
+                       hull={"stations": BOX_STATIONS},
                        **extra)
 
 

@@ -6,6 +6,10 @@ a verification found a fault, 2 bad input (a clear message, nothing written).
 
 from __future__ import annotations
 
+import os
+import sys
+from collections.abc import Callable, Iterator
+from contextlib import contextmanager
 from pathlib import Path
 
 import click
@@ -14,6 +18,18 @@ from reportgen import __version__
 from reportgen.errors import InputError
 
 EXIT_BAD_INPUT = 2
+
+
+@contextmanager
+def progress(what: str, total: int | None) -> Iterator[Callable[[], None]]:
+    """A progress bar on stderr for work of `total` steps, shown only on a terminal and not
+    with NO_COLOR set; yields the function that advances it one step."""
+    from rich.progress import Progress
+
+    shown = sys.stderr.isatty() and not os.environ.get("NO_COLOR")
+    with Progress(transient=True, disable=not shown) as bar:
+        task = bar.add_task(what, total=total)
+        yield lambda: bar.advance(task)
 
 
 class _Group(click.Group):

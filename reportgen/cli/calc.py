@@ -2,46 +2,100 @@
 
 from __future__ import annotations
 
+import json
 import sys
 from pathlib import Path
 
 import click
 
-from reportgen.cli import main
+from reportgen.cli import EXIT_BAD_INPUT, main, progress
+from reportgen.errors import InputError
 
 
-@main.command()
-@click.argument("condition", type=click.Path(path_type=Path))
-@click.option("--json", "as_json", is_flag=True, help="Print the results document (JSON).")
-def check(condition: Path, as_json: bool) -> None:
-    """Evaluate a loading condition against the vessel's criteria."""
+def _worst(codes: list[int]) -> int:
+    """The exit status of several files: 2 > 1 > 0."""
+    return max(codes, default=0)
+
+
+@main.command(epilog="""\b
+Examples:
+  reportgen check conditions/full-load-departure.yaml
+  reportgen check conditions/*.yaml --json > results.json
+\b
+Exit status: 0 every criterion of every condition passed; 1 a criterion failed;
+2 bad input (reported on stderr; the other files are still checked).""")
+@click.argument("conditions", nargs=-1, required=True, type=click.Path(path_type=Path))
+@click.option("--json", "as_json", is_flag=True,
+              help="Print the results document (JSON); a JSON array for several files.")
+def check(conditions: tuple[Path, ...], as_json: bool) -> None:
+    """Evaluate loading conditions against their criteria."""
     from reportgen.pipeline import evaluate_path
+    from reportgen.summary import render_summary
 
-    results = evaluate_path(condition)
+    codes, docs = [], []
+    for i, path in enumerate(conditions):
+        try:
+            results = evaluate_path(path)
+        except InputError as exc:
+            click.echo(f"reportgen: {exc}", err=True)
+            codes.append(EXIT_BAD_INPUT)
+            continue
+        codes.append(0 if results.passed else 1)
+        if as_json:
+            docs.append(results)
+        else:
+            if i:
+                click.echo("\n" + "=" * 100 + "\n")
+            click.echo(render_summary(results))
     if as_json:
-        click.echo(results.to_json(), nl=False)
-    else:
-        from reportgen.summary import render_summary
+        if len(conditions) == 1:
+            if docs:
+                click.echo(docs[0].to_json(), nl=False)
+        else:
+            click.echo(json.dumps([d.to_dict() for d in docs], indent=2, ensure_ascii=False))
+    sys.exit(_worst(codes))
 
-        click.echo(render_summary(results.to_dict()))
-    sys.exit(0 if results.passed else 1)
 
-
-@main.command()
-@click.argument("condition", type=click.Path(path_type=Path))
+@main.command(epilog="""\b
+Examples:
+  reportgen sheet conditions/full-load-departure.yaml -o out/full-load.pdf
+  reportgen sheet conditions/*.yaml -o out/     (several: one NAME.pdf each in a folder)
+\b
+Exit status: 0 every sheet written and every condition passes; 1 written, but a condition
+fails a criterion; 2 bad input or an output that cannot be written (nothing is written for
+that file; the other files are still processed).""")
+@click.argument("conditions", nargs=-1, required=True, type=click.Path(path_type=Path))
 @click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
-              help="The PDF to write.")
+              help="The PDF to write; a folder for several conditions.")
 @click.option("--force", is_flag=True, help="Replace an existing file.")
-def sheet(condition: Path, output: Path, force: bool) -> None:
-    """Write the calculation sheet (PDF/A-3 with inputs and results embedded)."""
+def sheet(conditions: tuple[Path, ...], output: Path, force: bool) -> None:
+    """Write calculation sheets (PDF/A-3 with inputs and results embedded)."""
     from reportgen.files import check_output
     from reportgen.inputs import load_case
     from reportgen.pipeline import evaluate
     from reportgen.report.render import write_sheet
 
-    check_output(output, force)
-    case = load_case(condition)
-    results = evaluate(case)
-    write_sheet(case, results, output, force=force)
-    verdict = "meets every criterion" if results.passed else "FAILS at least one criterion"
-    click.echo(f"{output}: sheet written; the condition {verdict}", err=True)
+    several = len(conditions) > 1
+    if several and not output.is_dir():
+        raise InputError(f"{output}: with several conditions, -o must name an existing folder")
+    codes = []
+    with progress("sheets", len(conditions)) as advance:
+        for path in conditions:
+            target = output / f"{path.stem}.pdf" if several or output.is_dir() else output
+            try:
+                case = load_case(path)
+                check_output(target, force,
+                             inputs=[path, path.parent / case.condition.vessel])
+                results = evaluate(case)
+                write_sheet(case, results, target, force=force)
+            except InputError as exc:
+                click.echo(f"reportgen: {exc}", err=True)
+                codes.append(EXIT_BAD_INPUT)
+                advance()
+                continue
+            verdict = "meets every criterion" if results.passed else \
+                "FAILS at least one criterion"
+            click.echo(f"{target}: sheet written; the condition {verdict}", err=True)
+            codes.append(0 if results.passed else 1)
+            advance()
+    sys.exit(_worst(codes))

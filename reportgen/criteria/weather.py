@@ -1,23 +1,24 @@
 """IMO 2008 IS Code (resolution MSC.267(85)), Part A, 2.3: severe wind and rolling criterion
-(weather criterion).
+(weather criterion): the wind heeling levers (2.3.2.2, 2.3.2.3), the angles and areas of
+figure 2.3.1 (2.3.2), and the two checks (2.3.1.2, 2.3.1.4). θ1 is in
+reportgen.criteria.rolling (2.3.4).
 
 Units: lengths m, areas m², mass t, pressure N/m², angles deg (radians inside the area
-integrals), areas under the curve m·rad, period s. The formulas and factor tables are those of
-2.3.2 to 2.3.4 as written in SPEC.md ("Criteria"); each is written once below with its
-paragraph.
+integrals), areas under the curve m·rad.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 
-import numpy as np
+import shapely
+import shapely.affinity
 from shapely.geometry import Polygon
 
-from reportgen.criteria import Check, State
+from reportgen.criteria.core import Check, State
+from reportgen.criteria.rolling import Roll
 from reportgen.errors import InputError
-from reportgen.floating import waterline_height
-from reportgen.stability import GZCurve, area_mrad, crossings, require_heel_range
+from reportgen.stability import GZCurve, area_mrad, crossings
 
 SET = "is2008.weather"
 REF_2_3_1_2 = "IS Code 2008, Part A, 2.3.1.2"
@@ -28,75 +29,7 @@ GRAVITY_M_S2 = 9.81  # g, 2.3.2.2
 LW2_FACTOR = 1.5  # lw2 = 1.5·lw1, 2.3.2.3
 THETA0_LIMIT_DEG = 16.0  # 2.3.1.2
 DECK_EDGE_FRACTION = 0.8  # 2.3.1.2
-THETA2_LIMIT_DEG = 50.0  # 2.3.2 (figure: θ2 = min(θf, 50°, θc))
-
-# 2.3.4, tables 2.3.4-1 to 2.3.4-4: (argument, factor); linear between entries, constant
-# beyond the ends (SPEC.md).
-X1_TABLE = ((2.4, 1.00), (2.5, 0.98), (2.6, 0.96), (2.7, 0.95), (2.8, 0.93), (2.9, 0.91),
-            (3.0, 0.90), (3.1, 0.88), (3.2, 0.86), (3.4, 0.82), (3.5, 0.80))  # by B/d
-X2_TABLE = ((0.45, 0.75), (0.50, 0.82), (0.55, 0.89), (0.60, 0.95), (0.65, 0.97),
-            (0.70, 1.00))  # by CB
-K_TABLE = ((0.0, 1.00), (1.0, 0.98), (1.5, 0.95), (2.0, 0.88), (2.5, 0.79), (3.0, 0.74),
-           (3.5, 0.72), (4.0, 0.70))  # by Ak·100/(L·B)
-S_TABLE = ((6.0, 0.100), (7.0, 0.098), (8.0, 0.093), (12.0, 0.065), (14.0, 0.053),
-           (16.0, 0.044), (18.0, 0.038), (20.0, 0.035))  # by T, s
-K_SHARP_BILGE = 0.7  # 2.3.4: ship having sharp bilge
-K_NO_KEELS = 1.0  # 2.3.4: round-bilged ship having no bilge or bar keels
-
-# Range of the tables (SPEC.md; IS Code 2008 Part A 2.3 and MSC.1/Circ.1200).
-B_OVER_D_LIMIT = 3.5
-KG_D_RANGE = (-0.3, 0.5)
-ROLL_PERIOD_LIMIT_S = 20.0
-
-
-def _table(table: tuple[tuple[float, float], ...], x: float) -> float:
-    arg, val = zip(*table, strict=True)
-    return float(np.interp(x, arg, val))
-
-
-def factor_x1(b_over_d: float) -> float:
-    """X1 by B/d, IS Code 2008 2.3.4 table 2.3.4-1."""
-    return _table(X1_TABLE, b_over_d)
-
-
-def factor_x2(cb: float) -> float:
-    """X2 by the block coefficient CB, IS Code 2008 2.3.4 table 2.3.4-2."""
-    return _table(X2_TABLE, cb)
-
-
-def factor_k(bilge: str, bilge_keel_area_m2: float, lwl_m: float, breadth_m: float) -> float:
-    """k, IS Code 2008 2.3.4: 1.0 round bilge without bilge or bar keels, 0.7 sharp bilge,
-    otherwise table 2.3.4-3 by Ak·100/(L·B), L the waterline length (m)."""
-    if bilge == "sharp":
-        return K_SHARP_BILGE
-    if bilge_keel_area_m2 <= 0.0:
-        return K_NO_KEELS
-    return _table(K_TABLE, bilge_keel_area_m2 * 100.0 / (lwl_m * breadth_m))
-
-
-def factor_s(roll_period_s: float) -> float:
-    """s by the rolling period T (s), IS Code 2008 2.3.4 table 2.3.4-4."""
-    return _table(S_TABLE, roll_period_s)
-
-
-def factor_r(og_m: float, draft_m: float) -> float:
-    """r = 0.73 + 0.6·OG/d, IS Code 2008 2.3.4."""
-    return 0.73 + 0.6 * og_m / draft_m
-
-
-def coefficient_c(breadth_m: float, draft_m: float, lwl_m: float) -> float:
-    """C = 0.373 + 0.023·(B/d) − 0.043·(Lwl/100), IS Code 2008 2.3.4."""
-    return 0.373 + 0.023 * (breadth_m / draft_m) - 0.043 * (lwl_m / 100.0)
-
-
-def roll_period_s(c: float, breadth_m: float, gm_m: float) -> float:
-    """T = 2·C·B/√GM (s), IS Code 2008 2.3.4; GM corrected for free surface."""
-    return 2.0 * c * breadth_m / np.sqrt(gm_m)
-
-
-def roll_angle_deg(k: float, x1: float, x2: float, r: float, s: float) -> float:
-    """θ1 = 109·k·X1·X2·√(r·s) (deg), IS Code 2008 2.3.4."""
-    return 109.0 * k * x1 * x2 * float(np.sqrt(r * s))
+THETA2_LIMIT_DEG = 50.0  # 2.3.2 (figure 2.3.1: θ2 = min(θf, 50°, θc))
 
 
 def wind_lever_m(pressure_n_m2: float, area_m2: float, lever_m: float,
@@ -106,7 +39,7 @@ def wind_lever_m(pressure_n_m2: float, area_m2: float, lever_m: float,
 
 
 @dataclass(frozen=True)
-class Windage:
+class Profile:
     """Lateral areas about the waterline: above (m², centroid z m) and below (None if empty)."""
 
     area_above_m2: float
@@ -115,167 +48,134 @@ class Windage:
     z_below_m: float | None
 
 
-def split_profile(profile: Polygon, draft_mid_m: float, trim: float, lpp_m: float) -> Windage:
-    """Clip the lateral profile (x, z) at the trimmed waterline z = T_mid + t·(Lpp/2 − x)/Lpp
-    (shapely intersection with the half-planes above and below the line)."""
-    x0, z0, x1, z1 = profile.bounds
-    xa, xb = x0 - 1.0, x1 + 1.0
-    za, zb = (float(waterline_height(x, draft_mid_m, trim, lpp_m)) for x in (xa, xb))
-    top = max(z1, za, zb) + 1.0
-    bottom = min(z0, za, zb) - 1.0
-    above = profile.intersection(Polygon([(xa, za), (xb, zb), (xb, top), (xa, top)]))
-    below = profile.intersection(Polygon([(xa, bottom), (xb, bottom), (xb, zb), (xa, za)]))
-    z_above = above.centroid.y if above.area > 0 else 0.0
-    z_below = below.centroid.y if below.area > 0 else None
-    return Windage(float(above.area), float(z_above), float(below.area),
-                   None if z_below is None else float(z_below))
+def split_profile(profile: Polygon, draft_mid_m: float, trim: float, lpp_m: float) -> Profile:
+    """The lateral profile (x, z) above and below the trimmed waterline
+    z = T_mid + t·(Lpp/2 − x)/Lpp.
+
+    The profile is sheared by z' = z − (waterline height at x), which keeps areas (a shear
+    has determinant 1) and maps centroids to centroids, so the waterline becomes z' = 0 and
+    shapely.clip_by_rect splits it; each centroid is sheared back.
+    """
+    slope = trim / lpp_m
+    moved = shapely.affinity.affine_transform(
+        profile, [1.0, 0.0, slope, 1.0, 0.0, -draft_mid_m - 0.5 * trim])
+    x0, z0, x1, z1 = moved.bounds
+    out = []
+    for lo, hi in ((0.0, max(z1, 0.0) + 1.0), (min(z0, 0.0) - 1.0, 0.0)):
+        part = shapely.clip_by_rect(moved, x0 - 1.0, lo, x1 + 1.0, hi)
+        area = float(part.area)
+        if area > 0.0:
+            c = part.centroid
+            out.append((area, float(c.y + draft_mid_m + 0.5 * trim - slope * c.x)))
+        else:
+            out.append((0.0, None))
+    (a_up, z_up), (a_dn, z_dn) = out
+    return Profile(a_up, 0.0 if z_up is None else z_up, a_dn, z_dn)
 
 
 @dataclass(frozen=True)
-class WeatherValues:
-    """Every intermediate quantity of 2.3 (SPEC.md results "weather" plus the contract's
-    extension keys). Angles deg; None where the quantity does not exist."""
+class Wind:
+    """The steady wind of 2.3.2.2: lateral area A (m²) and its centre (m above base), the
+    lever Z (m) and how it was taken, lw1 and lw2 (m)."""
 
-    wind_pressure: float
-    wind_area: float
-    wind_z: float
-    lever: float
+    area_m2: float
+    z_m: float
+    lever_m: float
     z_method: str
     lw1: float
     lw2: float
+
+
+def wind(profile: Polygon, item_wind: list[tuple[float, float]], draft_mid_m: float,
+         trim: float, lpp_m: float, displacement_t: float, z_method: str) -> Wind:
+    """A: the profile above the waterline plus the items' windage (area m², centroid z m);
+    Z from the centre of A to half the mean draught, or to the centre of the underwater
+    lateral area (2.3.2.2); lw1 (2.3.2.2) and lw2 = 1.5·lw1 (2.3.2.3)."""
+    p = split_profile(profile, draft_mid_m, trim, lpp_m)
+    area = p.area_above_m2 + sum(a for a, _ in item_wind)
+    if area <= 0.0:
+        raise InputError("windage.profile: no lateral area above the waterline")
+    z = (p.area_above_m2 * p.z_above_m + sum(a * zz for a, zz in item_wind)) / area
+    if z_method == "underwater_centre":
+        if p.z_below_m is None:
+            raise InputError("windage.profile: calculation.wind_lever is underwater_centre but "
+                             "the profile has no area below the waterline")
+        lever = z - p.z_below_m
+    else:
+        lever = z - 0.5 * draft_mid_m
+    lw1 = wind_lever_m(WIND_PRESSURE_N_M2, area, lever, displacement_t)
+    return Wind(area, z, lever, z_method, lw1, LW2_FACTOR * lw1)
+
+
+@dataclass(frozen=True)
+class Areas:
+    """The angles (deg) and areas (m·rad) of figure 2.3.1; None where they do not exist."""
+
     theta0: float | None
-    theta1: float | None
-    theta1_formula: float | None
-    roll_angle_source: str | None
-    theta2: float | None
-    thetac: float | None
     theta_lw2: float | None
+    thetac: float | None
+    theta2: float | None
     theta_start: float | None
     area_a: float | None
     area_b: float | None
-    roll_period: float | None
-    c: float
-    s: float | None
-    r: float
-    og: float
-    x1: float
-    x2: float
-    k: float
-    b_over_d: float
-    cb: float
-    kg_over_d_minus_1: float
-
-    def as_dict(self) -> dict:
-        order = ["wind_pressure", "wind_area", "wind_z", "lw1", "lw2", "theta0", "theta1",
-                 "theta2", "thetac", "area_a", "area_b", "roll_period", "c", "s", "r", "og",
-                 "x1", "x2", "k", "lever", "z_method", "theta1_formula", "roll_angle_source",
-                 "b_over_d", "cb", "kg_over_d_minus_1", "theta_lw2", "theta_start"]
-        return {k: getattr(self, k) for k in order}
 
 
-def weather_values(curve: GZCurve, *, profile: Polygon, item_wind: list[tuple[float, float]],
-                   draft_mid_m: float, trim: float, lpp_m: float, breadth_m: float,
-                   lwl_m: float, cb: float, displacement_t: float, kg_fluid_m: float,
-                   gm_fluid_m: float, bilge: str, bilge_keel_area_m2: float,
-                   flooding_deg: float, z_method: str, roll_angle: float | None,
-                   roll_angle_source: str | None) -> tuple[WeatherValues, list[str]]:
-    """The weather-criterion quantities and their warnings.
-
-    curve: GZ towards the side of the list (deg -> m). item_wind: (area m², centroid z m) of
-    items carrying windage. d is the mean moulded draught (at midships).
-    """
-    warnings: list[str] = []
-    d = draft_mid_m
-    # A and its centroid: the profile above the waterline plus the items' windage (2.3.2.2).
-    wind = split_profile(profile, d, trim, lpp_m)
-    areas = [wind.area_above_m2] + [a for a, _ in item_wind]
-    moments = [wind.area_above_m2 * wind.z_above_m] + [a * z for a, z in item_wind]
-    area = float(sum(areas))
-    if area <= 0.0:
-        raise InputError("windage.profile: no lateral area above the waterline")
-    wind_z = float(sum(moments)) / area
-    # Z: to half the mean draught, or to the centre of the underwater lateral area (2.3.2.2).
-    if z_method == "underwater_centre":
-        if wind.z_below_m is None:
-            raise InputError("windage.profile: calculation.wind_lever is underwater_centre but "
-                             "the profile has no area below the waterline")
-        lever = wind_z - wind.z_below_m
-    else:
-        lever = wind_z - 0.5 * d
-    lw1 = wind_lever_m(WIND_PRESSURE_N_M2, area, lever, displacement_t)
-    lw2 = LW2_FACTOR * lw1
-
-    # θ1 (2.3.4).
-    b_over_d = breadth_m / d
-    og = kg_fluid_m - d
-    r = factor_r(og, d)
-    c = coefficient_c(breadth_m, d, lwl_m)
-    x1, x2 = factor_x1(b_over_d), factor_x2(cb)
-    k = factor_k(bilge, bilge_keel_area_m2, lwl_m, breadth_m)
-    if gm_fluid_m > 0.0:
-        period = float(roll_period_s(c, breadth_m, gm_fluid_m))
-        s = factor_s(period)
-        theta1_formula = roll_angle_deg(k, x1, x2, r, s) if r * s >= 0 else None
-    else:
-        period, s, theta1_formula = None, None, None
-    theta1 = roll_angle if roll_angle is not None else theta1_formula
-
-    kg_d = kg_fluid_m / d - 1.0
-    outside = []
-    if b_over_d >= B_OVER_D_LIMIT:
-        outside.append(f"B/d = {b_over_d:.2f} is not below {B_OVER_D_LIMIT:g}")
-    if not KG_D_RANGE[0] <= kg_d <= KG_D_RANGE[1]:
-        outside.append(f"KG/d − 1 = {kg_d:.3f} is outside {KG_D_RANGE[0]:g} to "
-                       f"{KG_D_RANGE[1]:g}")
-    if period is not None and period >= ROLL_PERIOD_LIMIT_S:
-        outside.append(f"the roll period T = {period:.1f} s is not below "
-                       f"{ROLL_PERIOD_LIMIT_S:g} s")
-    if outside:
-        tail = (f"θ1 is taken from the roll angle given ({roll_angle_source})."
-                if roll_angle is not None else
-                "Consider θ1 from model tests (MSC.1/Circ.1200), given as weather.roll_angle.")
-        warnings.append("Weather criterion: " + "; ".join(outside) + ", outside the range the "
-                        "roll-angle tables of IS Code 2008 Part A 2.3 were derived for. " + tail)
-
-    # Intercepts with the wind levers (2.3.2, figure 2.3.1).
+def areas(curve: GZCurve, w: Wind, theta1_deg: float | None, flooding_deg: float) -> Areas:
+    """θ0 (first intercept of lw1), the first intercept of lw2 and θc (its second), θ2 =
+    min(θf, 50°, θc), and areas a (from θ0 − θ1 to the lw2 intercept) and b (from there to
+    θ2), IS Code 2008 Part A 2.3.2 and figure 2.3.1."""
     top = curve.heel_max_deg
-    up1 = crossings(curve, lw1, 0.0, top, "up")
+    up1 = crossings(curve, w.lw1, 0.0, top, "up")
     theta0 = up1[0] if up1 else None
-    up2 = crossings(curve, lw2, 0.0, top, "up")
+    up2 = crossings(curve, w.lw2, 0.0, top, "up")
     theta_lw2 = up2[0] if up2 else None
     thetac = None
     if theta_lw2 is not None:
-        down2 = crossings(curve, lw2, theta_lw2, top, "down")
+        down2 = crossings(curve, w.lw2, theta_lw2, top, "down")
         thetac = down2[0] if down2 else None
-    theta2 = min(flooding_deg, THETA2_LIMIT_DEG, *( [thetac] if thetac is not None else []))
-
-    theta_start = area_a = area_b = None
-    if theta0 is not None and theta1 is not None:
-        theta_start = theta0 - theta1
+    theta2 = min(flooding_deg, THETA2_LIMIT_DEG, *([thetac] if thetac is not None else []))
+    start = area_a = area_b = None
+    if theta0 is not None and theta1_deg is not None:
+        start = theta0 - theta1_deg
         if theta_lw2 is not None:
-            require_heel_range(curve, theta_start, "angle of roll to windward θ0 − θ1")
-            area_a = -area_mrad(curve, theta_start, theta_lw2, level_m=lw2)
-            area_b = area_mrad(curve, theta_lw2, theta2, level_m=lw2) if theta2 > theta_lw2 \
-                else 0.0
-    if theta0 is None:
-        warnings.append("Weather criterion: the GZ curve does not reach the wind heeling lever "
-                        "lw1; there is no steady heel angle θ0.")
+            if abs(start) > top + 1e-9:
+                raise InputError(f"the angle of roll to windward θ0 − θ1 ({start:.1f}°) is "
+                                 f"beyond the cross curves' largest heel ({top:g}°)")
+            area_a = -area_mrad(curve, start, theta_lw2, level_m=w.lw2)
+            area_b = (area_mrad(curve, theta_lw2, theta2, level_m=w.lw2)
+                      if theta2 > theta_lw2 else 0.0)
+    return Areas(theta0, theta_lw2, thetac, theta2, start, area_a, area_b)
 
-    values = WeatherValues(
-        wind_pressure=WIND_PRESSURE_N_M2, wind_area=area, wind_z=wind_z, lever=lever,
-        z_method=z_method, lw1=lw1, lw2=lw2, theta0=theta0, theta1=theta1,
-        theta1_formula=theta1_formula, roll_angle_source=roll_angle_source, theta2=theta2,
-        thetac=thetac, theta_lw2=theta_lw2, theta_start=theta_start, area_a=area_a,
-        area_b=area_b, roll_period=period, c=c, s=s, r=r, og=og, x1=x1, x2=x2, k=k,
-        b_over_d=b_over_d, cb=cb, kg_over_d_minus_1=kg_d)
-    return values, warnings
+
+@dataclass(frozen=True)
+class Weather:
+    """Every quantity of 2.3 for one condition."""
+
+    wind: Wind
+    roll: Roll
+    areas: Areas
+    roll_angle_source: str | None
+
+
+def weather_warnings(wx: Weather) -> list[str]:
+    out = []
+    if wx.roll.outside:
+        tail = (f"θ1 is taken from the roll angle given ({wx.roll_angle_source})."
+                if wx.roll_angle_source is not None else
+                "Consider θ1 from model tests (MSC.1/Circ.1200), given as weather.roll_angle.")
+        out.append("Weather criterion: " + "; ".join(wx.roll.outside) + ", outside the range "
+                   "the roll-angle tables of IS Code 2008 Part A 2.3 were derived for. " + tail)
+    if wx.areas.theta0 is None:
+        out.append("Weather criterion: the GZ curve does not reach the wind heeling lever lw1; "
+                   "there is no steady heel angle θ0.")
+    return out
 
 
 def weather_heel(s: State) -> Check:
     """2.3.1.2: the steady heel θ0 under the steady wind ≤ 16° and ≤ 80 % of the angle of
     deck edge immersion."""
     required = min(THETA0_LIMIT_DEG, DECK_EDGE_FRACTION * s.deck_edge_deg)
-    attained = s.weather.theta0
+    attained = s.weather.areas.theta0
     passed = attained is not None and attained <= required
     return Check("weather_heel", "Steady heel under wind", REF_2_3_1_2, required, attained,
                  "deg", passed, SET, limit="at_most")
@@ -283,7 +183,7 @@ def weather_heel(s: State) -> Check:
 
 def weather_area(s: State) -> Check:
     """2.3.1.4: area b ≥ area a (required = a, attained = b)."""
-    a, b = s.weather.area_a, s.weather.area_b
+    a, b = s.weather.areas.area_a, s.weather.areas.area_b
     passed = a is not None and b is not None and b >= a
     return Check("weather_area", "Wind and rolling, area b against area a", REF_2_3_1_4, a, b,
                  "m·rad", passed, SET)

@@ -15,13 +15,14 @@ from __future__ import annotations
 
 import io
 from collections.abc import Mapping
-from typing import Any
 
 import matplotlib
 import numpy as np
 from matplotlib.figure import Figure
 
 from reportgen.report.fonts import MATPLOTLIB_FAMILY, svg_with_sheet_font
+from reportgen.results import Results
+from reportgen.stability import curve_towards_side
 
 RAD_DEG = 57.29577951308232  # one radian in degrees: the GM slope reaches GM here
 
@@ -46,19 +47,6 @@ _RC = {
 FIGURE_SIZE_IN = (7.0, 3.2)  # width, height in inches: the sheet's text width
 NEGATIVE_SHARE = 0.6  # GZ figure: lowest lever drawn, as a share of the highest
 STEP_DEG = 0.25  # resampling step of the shaded areas; the data grid is 1°
-
-
-def curve_towards_side(gz: Mapping[str, Any], side: str) -> tuple[np.ndarray, np.ndarray]:
-    """GZ curve as seen towards the side the criteria are taken to.
-
-    ``gz`` holds the results' arrays (heel deg, + to starboard; GZ m). Towards port
-    both the angle and the lever change sign. Returns (heel_deg, gz_m), heel increasing.
-    """
-    sign = -1.0 if side == "port" else 1.0
-    heel = sign * np.asarray(gz["heel"], dtype=float)
-    lever = sign * np.asarray(gz["gz"], dtype=float)
-    order = np.argsort(heel)
-    return heel[order], lever[order]
 
 
 def _svg(fig: Figure) -> str:
@@ -93,23 +81,23 @@ def _legend_below(ax) -> None:
               borderaxespad=0.0)
 
 
-def gz_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) -> str:
+def gz_figure_svg(results: Results, labels: Mapping[str, str]) -> str:
     """The GZ curve with the IS Code 2008 Part A 2.2 criteria marked, as SVG text.
 
     Shaded: the areas 0°–30° and 30°–min(40°, θf) (2.2.1), in two hatchings that
     stay distinct in black and white. Lines: the initial GM slope reaching GM at
     57.3° (one radian), deck edge immersion, flooding angle θf, maximum GZ.
     """
-    side = results["angles"]["side"]
+    side = results.angles.side
     with matplotlib.rc_context(_RC):
         fig, ax = _new_axes(labels, labels[f"side_{side}"])
-        heel, lever = curve_towards_side(results["gz"], side)
+        heel, lever = curve_towards_side(results.gz.heel, results.gz.gz, side)
         keep = heel >= 0.0
         heel, lever = heel[keep], lever[keep]
         fine = np.linspace(0.0, heel[-1], round(float(heel[-1]) / STEP_DEG) + 1)
         fine_gz = np.interp(fine, heel, lever)
 
-        flooding = results["angles"]["flooding"]
+        flooding = results.angles.flooding
         upper = min(40.0, flooding) if flooding is not None else 40.0
         first = fine <= 30.0
         second = (fine >= 30.0) & (fine <= upper)
@@ -120,7 +108,7 @@ def gz_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) -> str:
                         label=labels["area_30_40"].format(upper=f"{upper:.1f}"))
         ax.plot(heel, lever, color="black", linewidth=1.3, label=labels["gz_curve"])
 
-        gm = results["hydrostatics"]["gm_fluid"]
+        gm = results.hydrostatics.gm_fluid
         ax.plot([0.0, RAD_DEG], [0.0, gm], color="black", linestyle="--", linewidth=0.8,
                 label=labels["gm_slope"])
         ax.plot([RAD_DEG, RAD_DEG], [0.0, gm], color="black", linestyle=":", linewidth=0.8)
@@ -128,21 +116,21 @@ def gz_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) -> str:
                     xytext=(-3, 3), textcoords="offset points", ha="right", fontsize=6.5,
                     bbox={"facecolor": "white", "edgecolor": "none", "pad": 0.6})
 
-        angles = results["angles"]
-        if angles["deck_edge"] is not None:
-            _vertical_marker(ax, angles["deck_edge"],
-                             labels["deck_edge"].format(angle=f"{angles['deck_edge']:.1f}"),
+        angles = results.angles
+        if angles.deck_edge is not None:
+            _vertical_marker(ax, angles.deck_edge,
+                             labels["deck_edge"].format(angle=f"{angles.deck_edge:.1f}"),
                              "-.", False)
         if flooding is not None and flooding <= heel[-1]:
             _vertical_marker(ax, flooding, labels["flooding"].format(angle=f"{flooding:.1f}"),
                              (0, (5, 2, 1, 2, 1, 2)), False)
-        if angles["gz_max"] is not None:
-            gz_max = float(np.interp(angles["gz_max"], heel, lever))
-            ax.plot([angles["gz_max"]], [gz_max], marker="o", markersize=4,
+        if angles.gz_max is not None:
+            gz_max = float(np.interp(angles.gz_max, heel, lever))
+            ax.plot([angles.gz_max], [gz_max], marker="o", markersize=4,
                     markerfacecolor="white", markeredgecolor="black", linestyle="none")
             ax.annotate(labels["gz_max"].format(gz=f"{gz_max:.3f}",
-                                                angle=f"{angles['gz_max']:.1f}"),
-                        (angles["gz_max"], gz_max), xytext=(0, 6), textcoords="offset points",
+                                                angle=f"{angles.gz_max:.1f}"),
+                        (angles.gz_max, gz_max), xytext=(0, 6), textcoords="offset points",
                         ha="center", fontsize=6.5)
         ax.set_xlim(0.0, heel[-1])
         top = max(float(lever.max()), gm, 0.05) * 1.22
@@ -157,38 +145,38 @@ def gz_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) -> str:
         return _svg(fig)
 
 
-def weather_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) -> str:
+def weather_figure_svg(results: Results, labels: Mapping[str, str]) -> str:
     """The severe wind and rolling diagram (IS Code 2008 Part A 2.3, Fig. 2.3.1), as SVG.
 
     GZ, the steady wind lever lw1 and the gust lever lw2 (constant with heel), area a
     (from θ0 − θ1 to the first intercept of lw2) and area b (from there to θ2),
     shaded in two hatchings and labelled; θ0, θ0 − θ1 and θ2 marked.
     """
-    side = results["angles"]["side"]
-    weather = results["weather"]
+    side = results.angles.side
+    weather = results.weather
     with matplotlib.rc_context(_RC):
         fig, ax = _new_axes(labels, labels[f"side_{side}"])
-        heel, lever = curve_towards_side(results["gz"], side)
-        start = weather["theta_start"]  # None where θ0 or θ1 does not exist
-        theta2 = weather["theta2"]
+        heel, lever = curve_towards_side(results.gz.heel, results.gz.gz, side)
+        start = weather.theta_start  # None where θ0 or θ1 does not exist
+        theta2 = weather.theta2
         lo = max(float(heel[0]), np.floor(((start if start is not None else -25.0) - 5.0)
                                           / 5.0) * 5.0)
-        ends = [theta2 + 10.0] + ([weather["thetac"] + 5.0] if weather["thetac"] else [])
+        ends = [theta2 + 10.0] + ([weather.thetac + 5.0] if weather.thetac else [])
         hi = min(float(heel[-1]), np.ceil(max(ends) / 5.0) * 5.0)
         fine = np.linspace(lo, hi, round(float(hi - lo) / STEP_DEG) + 1)
         fine_gz = np.interp(fine, heel, lever)
-        lw1, lw2 = weather["lw1"], weather["lw2"]
+        lw1, lw2 = weather.lw1, weather.lw2
 
-        cross = weather["theta_lw2"]
-        if None not in (cross, start, weather["area_a"], weather["area_b"]):
+        cross = weather.theta_lw2
+        if None not in (cross, start, weather.area_a, weather.area_b):
             in_a = (fine >= start) & (fine <= cross)
             in_b = (fine >= cross) & (fine <= theta2)
             ax.fill_between(fine, fine_gz, lw2, where=in_a, facecolor="white",
                             edgecolor="black", hatch="////", linewidth=0.0,
-                            label=labels["area_a_legend"].format(value=f"{weather['area_a']:.4f}"))
+                            label=labels["area_a_legend"].format(value=f"{weather.area_a:.4f}"))
             ax.fill_between(fine, fine_gz, lw2, where=in_b, facecolor="white",
                             edgecolor="0.35", hatch="\\\\\\\\", linewidth=0.0,
-                            label=labels["area_b_legend"].format(value=f"{weather['area_b']:.4f}"))
+                            label=labels["area_b_legend"].format(value=f"{weather.area_b:.4f}"))
             a_x = 0.5 * (start + cross)
             b_x = 0.5 * (cross + theta2)
             box = {"facecolor": "white", "edgecolor": "black", "pad": 1.2, "linewidth": 0.5}
@@ -202,7 +190,7 @@ def weather_figure_svg(results: Mapping[str, Any], labels: Mapping[str, str]) ->
                    label=labels["lw1"].format(value=f"{lw1:.4f}"))
         ax.axhline(lw2, color="black", linestyle="-.", linewidth=0.8,
                    label=labels["lw2"].format(value=f"{lw2:.4f}"))
-        for key, value in (("theta0", weather["theta0"]), ("theta_start", start),
+        for key, value in (("theta0", weather.theta0), ("theta_start", start),
                            ("theta2", theta2)):
             if value is not None:
                 _vertical_marker(ax, value, labels[key].format(angle=f"{value:.1f}"), ":", True)

@@ -16,25 +16,28 @@ import base64
 import hashlib
 import math
 import os
-from collections.abc import Iterator, Mapping
+from collections.abc import Iterator
 from contextlib import contextmanager
 from datetime import UTC, date, datetime
 from functools import lru_cache
 from importlib.resources import files
 from pathlib import Path
-from typing import Any, Protocol
+from typing import Any
 
 import jinja2
 import pydyf
 import weasyprint
 
+from reportgen.assemble import attachment_names
+from reportgen.docinfo import RESULTS_NAME, ROLES, document_number
 from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
-from reportgen.report.figures import curve_towards_side, gz_figure_svg, weather_figure_svg
+from reportgen.report.figures import gz_figure_svg, weather_figure_svg
+from reportgen.results import Results
+from reportgen.stability import curve_towards_side
 
 PDF_VARIANT = "pdf/a-3b"  # ISO 19005-3, conformance level B
 PX_TO_PT = 0.75  # CSS px to PDF pt (96 px = 72 pt = 1 in)
-SIGNATURE_ROLES = ("prepared", "checked", "reviewed")
 FIXED_EPOCH = datetime(1970, 1, 1, tzinfo=UTC)  # document date when the condition states none
 GZ_TABLE_STEP_DEG = 5
 GZ_TABLE_MAX_COLUMNS = 13  # values per row of the GZ table that fit the A4 text width
@@ -63,14 +66,6 @@ DECIMALS = {
 UNIT_QUANTITY = {"m·rad": "area", "m": "lever", "deg": "angle", "°": "angle", "t": "mass"}
 
 
-class ResultsLike(Protocol):
-    """What the sheet needs of reportgen.results.Results."""
-
-    def to_dict(self) -> dict: ...
-
-    def to_json(self) -> str: ...
-
-
 def format_number(value: float | None, quantity: str) -> str:
     """Fixed decimals per quantity (``DECIMALS``); an en dash for a missing value."""
     if value is None:
@@ -92,18 +87,6 @@ def format_by_unit(value: float | None, unit: str) -> str:
     return format_number(value, UNIT_QUANTITY.get(unit, "factor"))
 
 
-def document_number(inputs_sha256: str) -> str:
-    """The sheet's document number: the first 12 hex digits of the inputs' SHA-256."""
-    return inputs_sha256[:12]
-
-
-def attachment_names(condition_name: str, vessel_name: str) -> tuple[str, str]:
-    """Names of the two embedded input files; the vessel's gets "vessel-" when they clash."""
-    if vessel_name == condition_name:
-        return condition_name, "vessel-" + vessel_name
-    return condition_name, vessel_name
-
-
 def document_date(stated: str | date | None) -> datetime:
     """The fixed date of the document: the condition's date at 00:00 UTC, else 1970-01-01."""
     if stated is None:
@@ -112,11 +95,12 @@ def document_date(stated: str | date | None) -> datetime:
     return datetime(day.year, day.month, day.day, tzinfo=UTC)
 
 
-def gz_table(gz: Mapping[str, Any], side: str, step_deg: int = GZ_TABLE_STEP_DEG) -> list[dict]:
+def gz_table(heel_deg: list[float], gz: list[float], kn: list[float], side: str,
+             step_deg: int = GZ_TABLE_STEP_DEG) -> list[dict]:
     """Rows {heel, kn, gz} at every ``step_deg`` from 0° to the table's end, towards
     ``side`` (KN is odd in heel, so it turns with the side as GZ does)."""
-    heel, lever = curve_towards_side(gz, side)
-    _, kn = curve_towards_side({"heel": gz["heel"], "gz": gz["kn"]}, side)
+    heel, lever = curve_towards_side(heel_deg, gz, side)
+    _, kn = curve_towards_side(heel_deg, kn, side)
     rows = []
     for h, k, g in zip(heel, kn, lever, strict=True):
         if h >= 0.0 and abs(h - round(h)) < 1e-9 and round(h) % step_deg == 0:
@@ -128,21 +112,6 @@ def table_columns(count: int, max_columns: int = GZ_TABLE_MAX_COLUMNS) -> int:
     """Values per row so that ``count`` values fill rows of nearly equal length."""
     rows = max(1, math.ceil(count / max_columns))
     return max(1, math.ceil(count / rows))
-
-
-def deadweight_line(lines: list[Mapping[str, Any]]) -> dict:
-    """Mass (t), centres (m) and FSM (t·m) of everything but the lightship."""
-    rest = [line for line in lines if line["kind"] != "lightship"]
-    mass = sum(line["mass"] for line in rest)
-    if mass == 0.0:
-        return {"mass": 0.0, "lcg": None, "vcg": None, "tcg": None, "fsm": 0.0}
-    return {
-        "mass": mass,
-        "lcg": sum(line["mass"] * line["lcg"] for line in rest) / mass,
-        "vcg": sum(line["mass"] * line["vcg"] for line in rest) / mass,
-        "tcg": sum(line["mass"] * line["tcg"] for line in rest) / mass,
-        "fsm": sum(line["fsm"] for line in rest),
-    }
 
 
 def _read_template(name: str) -> str:
@@ -181,22 +150,21 @@ def _svg_data_uri(svg: str) -> str:
     return "data:image/svg+xml;base64," + base64.b64encode(svg.encode("utf-8")).decode("ascii")
 
 
-def sheet_html(case: Any, results: Mapping[str, Any]) -> str:
-    """The sheet as HTML text (the input of WeasyPrint), from the results document."""
+def sheet_html(case: Any, results: Results) -> str:
+    """The sheet as HTML text (the input of WeasyPrint), from the results."""
     figure_labels, _ = _labels()
-    created = document_date(results["condition"]["date"]).strftime("%Y-%m-%dT%H:%M:%SZ")
-    rows = gz_table(results["gz"], results["angles"]["side"])
+    created = document_date(results.condition.date).strftime("%Y-%m-%dT%H:%M:%SZ")
+    rows = gz_table(results.gz.heel, results.gz.gz, results.gz.kn, results.angles.side)
     return template_environment().get_template("sheet.html.j2").render(
         r=results,
-        docno=document_number(results["inputs_sha256"]),
+        docno=document_number(results.inputs_sha256),
         created=created,
         gz_rows=rows,
         gz_columns=table_columns(len(rows)),
-        deadweight=deadweight_line(results["loading"]["lines"]),
         gz_figure=_svg_data_uri(gz_figure_svg(results, figure_labels)),
         weather_figure=(_svg_data_uri(weather_figure_svg(results, figure_labels))
-                        if results.get("weather") else None),
-        roles=SIGNATURE_ROLES,
+                        if results.weather is not None else None),
+        roles=ROLES,
     )
 
 
@@ -209,7 +177,7 @@ def _attachments(case: Any, results_json: str, when: datetime) -> list[weasyprin
                               description=words["condition"], relationship="Source", **made),
         weasyprint.Attachment(string=case.vessel_bytes, name=vessel_file,
                               description=words["vessel"], relationship="Source", **made),
-        weasyprint.Attachment(string=results_json.encode("utf-8"), name="results.json",
+        weasyprint.Attachment(string=results_json.encode("utf-8"), name=RESULTS_NAME,
                               description=words["results"], relationship="Data", **made),
     ]
 
@@ -248,12 +216,12 @@ def element_rectangles(document: weasyprint.Document,
 
 def signature_rectangles(document: weasyprint.Document) -> dict[str, tuple[int, list[float]]]:
     """For each role, the page index and PDF rectangle of the box with id ``sig-<role>``."""
-    ids = tuple(f"sig-{role}" for role in SIGNATURE_ROLES)
+    ids = tuple(f"sig-{role}" for role in ROLES)
     found = element_rectangles(document, ids)
     missing = [element_id for element_id in ids if element_id not in found]
     if missing:
         raise RuntimeError(f"sheet template lacks the signature areas {missing}")
-    return {role: found[f"sig-{role}"] for role in SIGNATURE_ROLES}
+    return {role: found[f"sig-{role}"] for role in ROLES}
 
 
 def _add_signature_fields(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
@@ -298,20 +266,19 @@ def _finisher(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
     _add_signature_fields(document, pdf)
 
 
-def layout_sheet(case: Any, results: Mapping[str, Any]) -> weasyprint.Document:
+def layout_sheet(case: Any, results: Results) -> weasyprint.Document:
     """The laid-out pages of the sheet (WeasyPrint document) for a results document."""
     html = weasyprint.HTML(string=sheet_html(case, results))
     return html.render(stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
                        font_config=fonts.font_config())
 
 
-def render_sheet(case: Any, results: ResultsLike) -> bytes:
+def render_sheet(case: Any, results: Results) -> bytes:
     """The calculation sheet as PDF/A-3b bytes; equal inputs give equal bytes."""
-    data = results.to_dict()
     results_json = results.to_json()
-    when = document_date(data["condition"]["date"])
-    document = layout_sheet(case, data)
-    identifier = hashlib.sha256((data["inputs_sha256"] + results_json).encode("utf-8")).hexdigest()
+    when = document_date(results.condition.date)
+    document = layout_sheet(case, results)
+    identifier = hashlib.sha256((results.inputs_sha256 + results_json).encode("utf-8")).hexdigest()
     with _source_date_epoch(when):
         return document.write_pdf(
             finisher=_finisher,
@@ -340,7 +307,7 @@ def _source_date_epoch(when: datetime) -> Iterator[None]:
             os.environ["SOURCE_DATE_EPOCH"] = before
 
 
-def write_sheet(case: Any, results: ResultsLike, out_path: str | os.PathLike,
+def write_sheet(case: Any, results: Results, out_path: str | os.PathLike,
                 force: bool = False) -> None:
     """Write the sheet to ``out_path`` atomically (temporary file, then rename).
 

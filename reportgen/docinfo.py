@@ -1,0 +1,12 @@
+"""Facts about a reportgen document that the report and the signing code share."""
+
+from __future__ import annotations
+
+ROLES: tuple[str, ...] = ("prepared", "checked", "reviewed")  # signature fields, in order
+RESULTS_NAME = "results.json"  # the embedded results document
+DOCNO_LENGTH = 12  # hex digits of inputs_sha256 that make the document number
+
+
+def document_number(inputs_sha256: str) -> str:
+    """The document number: the first DOCNO_LENGTH hex digits of the inputs' SHA-256."""
+    return inputs_sha256[:DOCNO_LENGTH]

@@ -1,0 +1,154 @@
+"""A case: a condition with the vessel it names, the exact bytes of both, and the checks that
+need both files (tank ids and filling ranges, the criteria the vessel permits)."""
+
+from __future__ import annotations
+
+import hashlib
+from dataclasses import dataclass
+from pathlib import Path
+
+from reportgen.errors import InputError
+from reportgen.files import read_input
+from reportgen.inputs import yamlread
+from reportgen.inputs.condition import Condition
+from reportgen.inputs.vessel import Vessel
+
+APPROVAL_SUFFIX = ".p7s"  # SPEC.md: VESSEL.yaml.p7s beside the vessel file
+
+
+def parse_vessel(raw: bytes, name: str) -> Vessel:
+    """The vessel model from the bytes of a vessel data file; `name` is used in messages."""
+    return yamlread.validate(Vessel, yamlread.parse(raw, name), name, raw)
+
+
+def load_vessel(path: str | Path) -> Vessel:
+    path = Path(path)
+    return parse_vessel(read_input(path, "vessel data file"), str(path))
+
+
+@dataclass(frozen=True)
+class Case:
+    """A condition, the vessel it names, and the exact bytes both came from."""
+
+    condition: Condition
+    vessel: Vessel
+    condition_bytes: bytes
+    vessel_bytes: bytes
+    condition_name: str  # basename of the condition file
+    vessel_name: str  # basename of the vessel file
+    vessel_approval: bytes | None = None  # the detached signature VESSEL.yaml.p7s, if present
+
+    @property
+    def inputs_sha256(self) -> str:
+        """SHA-256 of the condition file's bytes followed by the vessel file's bytes (SPEC)."""
+        return hashlib.sha256(self.condition_bytes + self.vessel_bytes).hexdigest()
+
+    @property
+    def vessel_sha256(self) -> str:
+        """SHA-256 of the vessel file's bytes alone: the vessel data fingerprint (SPEC)."""
+        return hashlib.sha256(self.vessel_bytes).hexdigest()
+
+    @property
+    def criteria_sets(self) -> list[str]:
+        """The sets this condition is checked against: its own choice, else the vessel's."""
+        chosen = self.condition.criteria
+        return list(chosen) if chosen is not None else list(self.vessel.criteria)
+
+
+def _check_fillings(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> None:
+    known = {t.id: t for t in vessel.tanks}
+    for tank_id, filling in cond.tanks.items():
+        tank = known.get(tank_id)
+        if tank is None:
+            listed = ", ".join(known) or "none"
+            lines = yamlread.key_lines(raw)
+            raise InputError(f"{name}: {yamlread.where(('tanks', tank_id), lines)}: unknown tank "
+                             f"{tank_id!r} (tanks of this vessel: {listed})")
+        if filling.kind == "ullage" and tank.ullage_reference is None:
+            lines = yamlread.key_lines(raw)
+            raise InputError(f"{name}: {yamlread.where(('tanks', tank_id, 'ullage'), lines)}: "
+                             f"tank {tank_id} has no ullage_reference in the vessel file; give "
+                             f"its sounding, volume, percent or mass instead")
+        table = tank.table
+        density = filling.density if filling.density is not None else tank.density
+        ref = tank.ullage_reference or 0.0
+        limits = {
+            "volume": (0.0, table.volume[-1], "m³"),
+            "sounding": (table.sounding[0], table.sounding[-1], "m"),
+            "ullage": (ref - table.sounding[-1], ref - table.sounding[0], "m"),
+            "mass": (0.0, table.volume[-1] * density, "t"),
+        }
+        if filling.kind in limits:
+            low, high, unit = limits[filling.kind]
+            if not (low - 1e-9 <= filling.value <= high + 1e-9):
+                where = yamlread.where(("tanks", tank_id, filling.kind), yamlread.key_lines(raw))
+                raise InputError(f"{name}: {where}: {filling.kind} {filling.value:g} {unit} is "
+                                 f"outside the tank's range {low:g} to {high:g} {unit} "
+                                 f"(tank {tank.name})")
+
+
+def _check_criteria(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> None:
+    if cond.criteria is None:
+        return
+    allowed = list(vessel.criteria) + list(vessel.permitted_criteria)
+    for i, sid in enumerate(cond.criteria):
+        if sid not in allowed:
+            lines = yamlread.key_lines(raw)
+            raise InputError(f"{name}: {yamlread.where(('criteria', i), lines)}: the vessel "
+                             f"does not permit the criteria set {sid!r} (its criteria and "
+                             f"permitted_criteria: {', '.join(allowed)})")
+
+
+def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_name: str,
+                    approval: bytes | None = None, cond_label: str | None = None,
+                    vessel_label: str | None = None, cond_data: object = None) -> Case:
+    """A case from file contents; the labels (default: the names) are used in messages.
+    `cond_data`: the condition's YAML data when already parsed."""
+    cond_label = cond_label or cond_name
+    vessel_label = vessel_label or vessel_name
+    if cond_data is None:
+        cond_data = yamlread.parse(cond_raw, cond_label)
+    cond = yamlread.validate(Condition, cond_data, cond_label, cond_raw)
+    vessel = parse_vessel(vessel_raw, vessel_label)
+    if not vessel.can_evaluate:
+        raise InputError(f"{vessel_label}: no hydrostatics and cross_curves; make them from the "
+                         f"hull offsets first with 'reportgen tables', or choose "
+                         f"calculation.method: hull")
+    _check_fillings(cond, vessel, cond_label, cond_raw)
+    _check_criteria(cond, vessel, cond_label, cond_raw)
+    return Case(cond, vessel, cond_raw, vessel_raw, cond_name, vessel_name, approval)
+
+
+def vessel_path(condition_path: Path, data: object, raw: bytes) -> Path:
+    """The vessel file a condition names (relative to the condition file)."""
+    ref = data.get("vessel") if isinstance(data, dict) else None
+    if not isinstance(ref, str) or not ref:
+        # Let the model report the missing or malformed key with its line.
+        yamlread.validate(Condition, data, str(condition_path), raw)
+        raise InputError(f"{condition_path}: vessel: expected the path of the vessel data file")
+    path = condition_path.parent / ref
+    if not path.is_file():
+        where = yamlread.where(("vessel",), yamlread.key_lines(raw))
+        raise InputError(f"{condition_path}: {where}: vessel data file {path} not found")
+    return path
+
+
+def load_case(condition_path: str | Path) -> Case:
+    """Read a condition file, the vessel file it names and the vessel's approval beside it."""
+    cpath = Path(condition_path)
+    cond_raw = read_input(cpath, "condition file")
+    data = yamlread.parse(cond_raw, str(cpath))
+    vpath = vessel_path(cpath, data, cond_raw)
+    vessel_raw = read_input(vpath, "vessel data file")
+    approval_path = vpath.with_name(vpath.name + APPROVAL_SUFFIX)
+    approval = (read_input(approval_path, "vessel data approval")
+                if approval_path.is_file() else None)
+    return case_from_bytes(cond_raw, vessel_raw, cpath.name, vpath.name, approval,
+                           str(cpath), str(vpath), data)
+
+
+def load_case_bytes(condition_bytes: bytes, vessel_bytes: bytes, condition_name: str,
+                    vessel_name: str, vessel_approval: bytes | None = None) -> Case:
+    """A case from file contents (as embedded in a sheet); the names are used in messages."""
+    return case_from_bytes(condition_bytes, vessel_bytes, condition_name, vessel_name,
+                           vessel_approval)

@@ -1,0 +1,348 @@
+"""The vessel data file (SPEC.md, `format: reportgen/vessel-1`): its pydantic model.
+
+Units: t, m, t/m³, deg, m², m⁴, t·m/cm, t/cm. Axes: x from AP forward, y to starboard, z up
+from the moulded base; trims positive by the stern.
+"""
+
+from __future__ import annotations
+
+from typing import Annotated, Any, Literal
+
+import numpy as np
+from pydantic import AfterValidator, Field, model_validator
+from shapely.geometry import Polygon
+
+from reportgen.criteria.sets import SETS
+from reportgen.inputs.fields import (
+    Column,
+    Density,
+    Increasing,
+    Model,
+    NonNegative,
+    Num,
+    Percent,
+    Point2,
+    Positive,
+    Text,
+    equal_lengths,
+    increasing,
+)
+
+VESSEL_FORMAT = "reportgen/vessel-1"
+
+
+class VesselId(Model):
+    name: Text
+    identifier: Text
+    type: Text = "cargo"
+
+
+class Particulars(Model):
+    length_bp: Positive  # Lpp, m
+    breadth: Positive  # moulded B, m
+    depth: Positive  # moulded depth to the freeboard deck at side, m
+    summer_draft: Positive  # moulded summer load line draught, m
+    keel_thickness: NonNegative = 0.0  # m
+    bilge: Literal["round", "sharp"] = "round"
+    bilge_keel_area: NonNegative = 0.0  # Ak, m²
+    service_speed: Positive | None = None  # knots
+
+    @model_validator(mode="after")
+    def _draft_below_depth(self) -> Particulars:
+        if self.summer_draft >= self.depth:
+            raise ValueError("summer_draft must be less than depth")
+        return self
+
+
+class Lightship(Model):
+    mass: Positive  # t
+    lcg: Num  # m from AP
+    vcg: Num  # m above base
+    tcg: Num = 0.0  # m, + starboard
+
+
+def _per_trim(model: Any, name: str, trims: list[float] | None, rows: int) -> None:
+    """ValueError unless column `name` is one row of `rows` values (no trims) or one such row
+    per trim."""
+    value = getattr(model, name)
+    if value is None:
+        return
+    nested = bool(value) and isinstance(value[0], list)
+    if trims is None:
+        if nested:
+            raise ValueError(f"{name}: one row per trim is given, but no trims")
+        if len(value) != rows:
+            raise ValueError(f"{name} has {len(value)} rows, draft has {rows}")
+        return
+    if not nested or len(value) != len(trims):
+        raise ValueError(f"{name}: with trims, give one row per trim ({len(trims)} rows)")
+    for k, row in enumerate(value):
+        if len(row) != rows:
+            raise ValueError(f"{name} row {k + 1} (trim {trims[k]:g} m) has {len(row)} values, "
+                             f"draft has {rows}")
+
+
+def rows_of(value: list | None, n_trims: int) -> np.ndarray | None:
+    """A column given flat (no trims) or per trim as an (n_trims, n) array (None stays None)."""
+    if value is None:
+        return None
+    arr = np.asarray(value, dtype=float)
+    return arr.reshape(1, -1) if arr.ndim == 1 else arr.reshape(n_trims, -1)
+
+
+Rows = Column | list[Column]
+Trims = Annotated[list[Num], AfterValidator(increasing)]
+
+
+class Hydrostatics(Model):
+    density: Density = 1.025  # t/m³, the density the table was made at
+    trims: Trims | None = None  # m, + by the stern; then columns other than draft are per trim
+    draft: Increasing  # moulded, m (at midships when trims are given)
+    displacement: Rows  # t
+    lcb: Rows  # m from AP
+    lcf: Rows  # m from AP
+    kmt: Rows  # m
+    mct: Rows  # t·m/cm
+    tpc: Rows  # t/cm
+    lwl: Rows | None = None  # m
+    cb: Rows | None = None
+
+    @model_validator(mode="after")
+    def _rows(self) -> Hydrostatics:
+        n = len(self.draft)
+        names = ["displacement", "lcb", "lcf", "kmt", "mct", "tpc", "lwl", "cb"]
+        for name in names:
+            _per_trim(self, name, self.trims, n)
+        if self.draft[0] < 0:
+            raise ValueError("draft must not be negative")
+        k = 1 if self.trims is None else len(self.trims)
+        for k_row, row in enumerate(rows_of(self.displacement, k)):
+            where = "" if self.trims is None else f" at trim {self.trims[k_row]:g} m"
+            try:
+                increasing(list(row))
+            except ValueError as exc:
+                raise ValueError(f"displacement{where}: {exc}") from None
+        for name in ("kmt", "mct", "tpc", "lwl", "cb"):
+            arr = rows_of(getattr(self, name), k)
+            if arr is not None and np.any(arr <= 0):
+                raise ValueError(f"{name}: values must be positive")
+        cb = rows_of(self.cb, k)
+        if cb is not None and np.any(cb > 1.0):
+            raise ValueError("cb: a block coefficient cannot exceed 1")
+        return self
+
+
+class CrossCurves(Model):
+    trim: Literal["free", "even_keel", "fixed"]
+    trims: Trims | None = None  # m: the upright trims the tables were made at
+    heel: Increasing  # deg
+    displacement: Increasing  # t
+    kn: list[Column] | list[list[Column]]  # m: kn[i][j], or kn[k][i][j] with trims
+
+    @model_validator(mode="after")
+    def _shape(self) -> CrossCurves:
+        if self.heel[0] != 0:
+            raise ValueError("heel must start at 0 (negative heels follow by symmetry)")
+        if self.heel[-1] < 60 or self.heel[-1] > 90:
+            raise ValueError("heel must reach at least 60 deg and not exceed 90 deg")
+        if self.trim == "fixed" and self.trims is None:
+            raise ValueError("trim: fixed needs trims (the trims the table was made at)")
+        tables = [self.kn] if self.trims is None else self.kn
+        if self.trims is not None and len(self.kn) != len(self.trims):
+            raise ValueError(f"kn: with trims, give one table per trim ({len(self.trims)})")
+        for k, table in enumerate(tables):
+            at = "" if self.trims is None else f" (trim {self.trims[k]:g} m)"
+            if not table or not isinstance(table[0], list):
+                raise ValueError(f"kn{at}: expected one row per displacement")
+            if len(table) != len(self.displacement):
+                raise ValueError(f"kn{at} has {len(table)} rows, displacement has "
+                                 f"{len(self.displacement)}: one row per displacement")
+            for i, row in enumerate(table):
+                if not isinstance(row, list) or len(row) != len(self.heel):
+                    raise ValueError(f"kn{at} row {i + 1} has {len(row)} values, heel has "
+                                     f"{len(self.heel)}: one value per heel")
+        return self
+
+
+Angle = Annotated[float, Field(gt=0, le=90)]
+
+
+class AngleTable(Model):
+    trims: Trims | None = None  # m, + by the stern
+    displacement: Increasing  # t
+    angle: list[Angle] | list[list[Angle]]  # deg: angle[i], or angle[k][i] with trims
+
+    @model_validator(mode="after")
+    def _rows(self) -> AngleTable:
+        _per_trim(self, "angle", self.trims, len(self.displacement))
+        return self
+
+
+class Opening(Model):
+    name: Text
+    x: Num  # m from AP
+    y: Num  # m from centreline, + starboard
+    z: Num  # m above base
+
+
+class Windage(Model):
+    profile: list[Point2]  # [x, z], m: closed polygon of the lateral projection
+
+    @model_validator(mode="after")
+    def _polygon(self) -> Windage:
+        if len(self.profile) < 3:
+            raise ValueError("profile needs at least three points")
+        poly = Polygon(self.profile)
+        if not poly.is_valid or poly.area <= 0:
+            raise ValueError("profile must be a simple closed polygon with positive area")
+        return self
+
+
+class TankTable(Model):
+    sounding: Increasing  # m
+    volume: Increasing  # m³
+    lcg: Column  # m from AP
+    vcg: Column  # m above base
+    tcg: Column  # m, + starboard
+    fsi: list[NonNegative]  # m⁴
+
+    @model_validator(mode="after")
+    def _rows(self) -> TankTable:
+        equal_lengths(self, ["sounding", "volume", "lcg", "vcg", "tcg", "fsi"])
+        if self.volume[0] < 0:
+            raise ValueError("volume must not be negative")
+        return self
+
+
+def default_role(content: str) -> Literal["fixed", "consumable"]:
+    """IS Code 2008 Part B 3.1.3 (SPEC.md): ballast and cargo tanks hold a fixed filling,
+    every other content is a consumable."""
+    return "fixed" if content.strip().lower() in ("ballast", "cargo") else "consumable"
+
+
+class Tank(Model):
+    id: Text
+    name: Text
+    content: Text
+    role: Literal["fixed", "consumable"] | None = None  # default by content (default_role)
+    pair: Text | None = None  # id of its transverse twin (Part B 3.1.4), given on both
+    density: Density  # t/m³
+    table: TankTable
+    ullage_reference: Positive | None = None  # m above the sounding zero
+
+    @property
+    def fs_role(self) -> Literal["fixed", "consumable"]:
+        return self.role if self.role is not None else default_role(self.content)
+
+
+class Station(Model):
+    x: Num  # m from AP
+    points: list[Point2]  # [y, z], m: starboard half-section, keel to deck edge
+
+    @model_validator(mode="after")
+    def _offsets(self) -> Station:
+        pts = np.asarray(self.points, dtype=float).reshape(-1, 2)
+        if len(pts) < 2:
+            raise ValueError("a station needs at least two points (keel to deck edge)")
+        if np.any(pts[:, 0] < 0):
+            raise ValueError("half-breadths y must not be negative (starboard half-section)")
+        if np.any(np.diff(pts[:, 1]) < 0):
+            raise ValueError("points must run from the keel to the deck edge, z not decreasing")
+        return self
+
+
+class HullOffsets(Model):
+    density: Density = 1.025  # t/m³, for the tables made from the offsets
+    stations: list[Station]
+
+    @model_validator(mode="after")
+    def _stations(self) -> HullOffsets:
+        if len(self.stations) < 3:
+            raise ValueError("needs at least three stations")
+        increasing([s.x for s in self.stations])
+        return self
+
+
+class Calculation(Model):
+    method: Literal["tables", "hull"] = "tables"
+    wind_lever: Literal["half_draft", "underwater_centre"] = "half_draft"
+    full_percent: Annotated[Percent, Field(ge=90)] = 98.0  # Part B 3.1.2
+    gz_beyond_flooding: Literal["exclude", "include"] = "exclude"
+
+
+def known_sets(values: list[str]) -> list[str]:
+    """The criteria set ids, each known (reportgen.criteria.sets) and listed once."""
+    for v in values:
+        if v not in SETS:
+            raise ValueError(f"unknown criteria set {v!r}; known: {', '.join(SETS)}")
+    if len(set(values)) != len(values):
+        raise ValueError("a criteria set is listed twice")
+    return values
+
+
+def _some_sets(values: list[str]) -> list[str]:
+    if not values:
+        raise ValueError("choose at least one criteria set")
+    return known_sets(values)
+
+
+CriteriaSets = Annotated[list[str], AfterValidator(_some_sets)]
+
+
+class Vessel(Model):
+    format: Literal["reportgen/vessel-1"]
+    vessel: VesselId
+    source: dict[str, Text] | None = None  # where the data come from, printed on every sheet
+    particulars: Particulars
+    lightship: Lightship
+    hydrostatics: Hydrostatics | None = None
+    cross_curves: CrossCurves | None = None
+    deck_edge: AngleTable | None = None
+    openings: list[Opening] = Field(default_factory=list)
+    flooding_angle: AngleTable | None = None
+    windage: Windage
+    tanks: list[Tank] = Field(default_factory=list)
+    criteria: CriteriaSets
+    permitted_criteria: Annotated[list[str], AfterValidator(known_sets)] = Field(
+        default_factory=list)
+    calculation: Calculation = Calculation()
+    hull: HullOffsets | None = None
+    notes: Any = None
+
+    @model_validator(mode="after")
+    def _whole(self) -> Vessel:
+        if (self.hydrostatics is None) != (self.cross_curves is None):
+            raise ValueError("hydrostatics and cross_curves go together: give both or neither")
+        if not self.has_tables and self.hull is None:
+            raise ValueError("give hydrostatics with cross_curves, or hull offsets")
+        if self.calculation.method == "hull" and self.hull is None:
+            raise ValueError("calculation.method hull needs hull offsets")
+        if self.openings and self.hull is None and self.flooding_angle is None:
+            raise ValueError("openings: the angle of flooding of an opening is found on the hull "
+                             "offsets, and this file has none; give hull offsets (hull:) or the "
+                             "booklet's flooding_angle table (no approximation of θf is safe "
+                             "enough to print)")
+        ids = [t.id for t in self.tanks]
+        dup = sorted({i for i in ids if ids.count(i) > 1})
+        if dup:
+            raise ValueError(f"tank id listed twice: {', '.join(dup)}")
+        by_id = {t.id: t for t in self.tanks}
+        for t in self.tanks:
+            if t.pair is None:
+                continue
+            twin = by_id.get(t.pair)
+            if twin is None or twin.pair != t.id or twin.id == t.id:
+                raise ValueError(f"tanks: {t.id} names {t.pair!r} as its pair; a pair is two "
+                                 f"tanks of this vessel that name each other")
+            if twin.content != t.content:
+                raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
+        return self
+
+    @property
+    def has_tables(self) -> bool:
+        return self.hydrostatics is not None and self.cross_curves is not None
+
+    @property
+    def can_evaluate(self) -> bool:
+        """Tables to read, or offsets to compute on (calculation.method hull)."""
+        return self.has_tables or self.calculation.method == "hull"

@@ -1,0 +1,216 @@
+"""YAML input with limits, and pydantic validation with messages that name key path and line.
+
+The fast path parses with libyaml's C parser (yaml.CSafeLoader) and builds the Python data
+with a constructor that refuses what a stability input never needs and a hostile file may
+carry: a key given twice, a key that is not a plain value (a list or a mapping as a key),
+an alias expansion beyond MAX_EXPANDED_NODES (an "alias bomb"), nesting deeper than
+MAX_DEPTH, a scalar that cannot be built (a date that does not exist, an integer of thousands
+of digits). Line numbers of every key are worked out only when there is an error to report.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+from typing import Any
+
+import yaml
+from pydantic import BaseModel, ValidationError
+
+from reportgen.errors import InputError
+
+MAX_EXPANDED_NODES = 2_000_000  # nodes after alias expansion; a large vessel file has ~10⁵
+MAX_DEPTH = 64  # nesting of mappings and sequences
+
+_Base = getattr(yaml, "CSafeLoader", yaml.SafeLoader)
+
+
+class _Refused(Exception):
+    def __init__(self, message: str, node: yaml.Node | None) -> None:
+        super().__init__(message)
+        self.node = node
+
+
+class _Loader(_Base):  # type: ignore[misc, valid-type]
+    """SafeLoader (C parser where available) with the refusals of this module."""
+
+    def __init__(self, stream: str) -> None:
+        super().__init__(stream)
+        self._expanded = 0
+        self._sizes: dict[int, int] = {}
+        self._depth = 0
+
+    def construct_object(self, node: yaml.Node, deep: bool = False) -> Any:
+        if node in self.constructed_objects:  # an alias: the same node used again
+            self._expanded += _size(node, self._sizes)
+            if self._expanded > MAX_EXPANDED_NODES:
+                raise _Refused(f"aliases expand to more than {MAX_EXPANDED_NODES:,} values "
+                               f"(refused: a file that grows when read)", node)
+            return self.constructed_objects[node]
+        self._expanded += 1
+        self._depth += 1
+        try:
+            if self._depth > MAX_DEPTH:
+                raise _Refused(f"nested more than {MAX_DEPTH} levels deep", node)
+            return super().construct_object(node, deep=True)
+        except (_Refused, InputError):
+            raise
+        except (ValueError, OverflowError, TypeError) as exc:
+            raise _Refused(f"cannot read this value: {exc}", node) from None
+        finally:
+            self._depth -= 1
+
+    def construct_mapping(self, node: yaml.Node, deep: bool = False) -> dict:
+        if not isinstance(node, yaml.MappingNode):
+            return super().construct_mapping(node, deep=deep)
+        self.flatten_mapping(node)
+        out: dict = {}
+        for key_node, value_node in node.value:
+            if not isinstance(key_node, yaml.ScalarNode):
+                raise _Refused("a key must be a plain value, not a list or a mapping", key_node)
+            key = self.construct_object(key_node, deep=True)
+            if key in out:
+                raise _Refused(f"key {key!r} given twice", key_node)
+            out[key] = self.construct_object(value_node, deep=True)
+        return out
+
+
+# Mappings built by the loader above are plain dicts; make the standard tag use it.
+_Loader.add_constructor("tag:yaml.org,2002:map", _Loader.construct_mapping)
+
+
+def _size(node: yaml.Node, memo: dict[int, int]) -> int:
+    """Number of nodes of `node` with every alias expanded (memoised by node identity)."""
+    key = id(node)
+    if key in memo:
+        return memo[key]
+    memo[key] = 1  # a recursive alias counts once while it is being measured
+    if isinstance(node, yaml.MappingNode):
+        total = 1 + sum(_size(k, memo) + _size(v, memo) for k, v in node.value)
+    elif isinstance(node, yaml.SequenceNode):
+        total = 1 + sum(_size(v, memo) for v in node.value)
+    else:
+        total = 1
+    memo[key] = total
+    return total
+
+
+def decode(raw: bytes, name: str) -> str:
+    """UTF-8 text of a file (a leading byte-order mark allowed)."""
+    try:
+        return raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise InputError(f"{name}: not UTF-8 text (byte {exc.start})") from None
+
+
+def _line(node: yaml.Node | None) -> str:
+    return f" (line {node.start_mark.line + 1})" if node is not None and node.start_mark else ""
+
+
+def parse(raw: bytes, name: str) -> Any:
+    """The data of a YAML file (one document); InputError naming the file and line."""
+    text = decode(raw, name)
+    loader = _Loader(text)
+    try:
+        node = loader.get_single_node()
+        return loader.construct_document(node) if node is not None else None
+    except _Refused as exc:
+        raise InputError(f"{name}: {exc}{_line(exc.node)}") from None
+    except yaml.MarkedYAMLError as exc:
+        mark = exc.problem_mark or exc.context_mark
+        where = f" (line {mark.line + 1}, column {mark.column + 1})" if mark else ""
+        raise InputError(f"{name}: not valid YAML{where}: {exc.problem or exc}") from None
+    except yaml.YAMLError as exc:
+        raise InputError(f"{name}: not valid YAML: {exc}") from None
+    except RecursionError:
+        raise InputError(f"{name}: nested too deeply to read") from None
+    finally:
+        loader.dispose()
+
+
+def key_lines(raw: bytes) -> dict[tuple, int]:
+    """The 1-based line of every key path of a YAML file that `parse` accepted."""
+    loader = _Loader(decode(raw, ""))
+    try:
+        node = loader.get_single_node()
+    finally:
+        loader.dispose()
+    lines: dict[tuple, int] = {}
+    if node is not None:
+        _walk(node, (), lines, set())
+    return lines
+
+
+def _walk(node: yaml.Node, path: tuple, lines: dict[tuple, int], seen: set[int]) -> None:
+    lines.setdefault(path, node.start_mark.line + 1)
+    if id(node) in seen:  # an alias: its lines are those of the anchor
+        return
+    seen.add(id(node))
+    if isinstance(node, yaml.MappingNode):
+        for key_node, value_node in node.value:
+            key = key_node.value
+            if isinstance(key, str) and key.lstrip("-").isdigit():
+                key = int(key)
+            _walk(value_node, (*path, key), lines, seen)
+            lines[(*path, key)] = key_node.start_mark.line + 1
+    elif isinstance(node, yaml.SequenceNode):
+        for i, item in enumerate(node.value):
+            _walk(item, (*path, i), lines, seen)
+
+
+def where(path: tuple, lines: dict[tuple, int]) -> str:
+    """'a.b[2].c (line 7)' for a key path, with the line of the deepest known prefix."""
+    text = ""
+    for p in path:
+        text += f"[{p}]" if isinstance(p, int) else (f".{p}" if text else str(p))
+    for k in range(len(path), -1, -1):
+        if path[:k] in lines:
+            return f"{text or '(top level)'} (line {lines[path[:k]]})"
+    return text or "(top level)"
+
+
+def _message(err: dict) -> str:
+    if err["type"] == "extra_forbidden":
+        return "unknown key (check the spelling; free text goes under notes:)"
+    if err["type"] == "missing":
+        return "required key is missing"
+    return err["msg"].removeprefix("Value error, ")
+
+
+def validate(model: type[BaseModel], data: Any, name: str, raw: bytes) -> Any:
+    """`model` validated from `data`; the first error as InputError with key path and line.
+
+    The format line is checked first, so that a file of another kind is named as such.
+    """
+    expected = model.model_fields["format"].annotation.__args__[0]
+    if not isinstance(data, dict):
+        raise InputError(f"{name}: expected a YAML mapping starting with 'format: {expected}'")
+    if data.get("format") != expected:
+        found = data.get("format")
+        lines = key_lines(raw)
+        raise InputError(f"{name}: {where(('format',), lines)}: expected 'format: {expected}'"
+                         + (f", found {found!r}" if found is not None else ", key missing"))
+    try:
+        return model.model_validate(data)
+    except ValidationError as exc:
+        errors = exc.errors(include_url=False)
+        # A misspelt key is reported before the "missing" it causes.
+        err = min(errors, key=lambda e: e["type"] != "extra_forbidden")
+        loc = tuple(p for p in err["loc"] if not (isinstance(p, str) and "[" in p))
+        more = f" (and {exc.error_count() - 1} more problems)" if exc.error_count() > 1 else ""
+        raise InputError(f"{name}: {where(loc, key_lines(raw))}: {_message(err)}{more}") \
+            from None
+
+
+def iso_date(value: Any) -> str:
+    """An ISO 8601 calendar date YYYY-MM-DD that exists (SPEC.md "Conventions"). A ValueError
+    (which pydantic reports as a validation error with its key) otherwise."""
+    if isinstance(value, dt.date) and not isinstance(value, dt.datetime):
+        return value.isoformat()
+    text = value if isinstance(value, str) else None
+    if text is None or len(text) != 10 or text[4] != "-" or text[7] != "-":
+        problem = ("a date and time" if isinstance(value, dt.datetime) else repr(value))
+        raise ValueError(f"{problem} is not a date written YYYY-MM-DD (ISO 8601)")
+    try:
+        return dt.date.fromisoformat(text).isoformat()
+    except ValueError:
+        raise ValueError(f"{text!r} is not a date that exists") from None

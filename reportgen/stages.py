@@ -1,0 +1,251 @@
+"""The stages of one evaluation, each taking the values the stages before it made.
+
+`upright(case)` makes everything that does not depend on KG (loading, floating position, the
+KN curve, the angles, the wind); `at_kg(up, kg_fluid)` makes the rest (the GZ curve, GM, θ1,
+the weather areas, the checks). The criteria's limits bisect on `at_kg` and re-use `upright`.
+These are the only functions of the flow that read the file models; the modules they call take
+arrays and plain values.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+from scipy.interpolate import PPoly
+
+from reportgen import angles as angle_rules
+from reportgen.criteria import core, rolling
+from reportgen.criteria import weather as weather23
+from reportgen.criteria.core import Check, State
+from reportgen.floating import Floating, floating_on_tables
+from reportgen.inputs import Case
+from reportgen.loading import Loading, condition_loading
+from reportgen.loadline import SALT_WATER_T_M3, LoadLine, load_line, summer_row
+from reportgen.stability import (
+    GZCurve,
+    equilibrium_heel,
+    free_surface_correction,
+    gz_curve,
+    has_list,
+    kg_corrected,
+    list_side,
+    max_gz,
+    metacentric_height,
+    vanishing_angle,
+)
+from reportgen.vesseldata import VesselData
+
+MIN_LENGTH_M = 24.0  # IS Code 2008 Part A 2.3 and SPEC.md: ships of 24 m in length and over
+SINGLE_TRIM_TOLERANCE = angle_rules.SINGLE_TRIM_TOLERANCE
+
+
+@dataclass(frozen=True)
+class Upright:
+    """Everything of a condition that does not depend on KG."""
+
+    case: Case
+    sets: list[str]
+    loading: Loading
+    floating: Floating
+    kn: PPoly  # KN(θ°) at the condition's displacement and trim, m
+    heel_max_deg: float
+    angles: angle_rules.Angles
+    wind: weather23.Wind | None
+    roll_hull: rolling.Hull | None
+    cb_source: str
+    load_line: LoadLine | None
+    warnings: tuple[str, ...]
+
+
+@dataclass(frozen=True)
+class AtKG:
+    """The condition at one KG corrected for free surface."""
+
+    kg_fluid_m: float
+    gm_fluid_m: float
+    curve: GZCurve  # heel + to starboard
+    side_curve: GZCurve  # towards the side of the list
+    heel_deg: float | None
+    state: State
+    vanishing_deg: float | None
+    weather: weather23.Weather | None
+    checks: list[Check]
+    warnings: tuple[str, ...]
+
+
+def _floating(case: Case, vd: VesselData, loading: Loading) -> Floating:
+    v, t = case.vessel, loading.totals
+    rho = case.condition.condition.water_density
+    return floating_on_tables(vd.hydro, t.displacement, rho, t.lcg, v.particulars.length_bp)
+
+
+def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[PPoly, float, list[str]]:
+    lpp = case.vessel.particulars.length_bp
+    cross = vd.cross
+    warnings = []
+    if cross.trims is None and abs(fl.trim) > SINGLE_TRIM_TOLERANCE * lpp:
+        basis = ("made on an even keel" if case.vessel.cross_curves.trim == "even_keel" else
+                 "made free to trim from even keel")
+        warnings.append(f"The cross curves were {basis}, while the condition trims "
+                        f"{fl.trim:+.2f} m (more than 0.5 % of Lpp): give cross curves at "
+                        f"several trims, or choose calculation.method: hull.")
+    return cross.kn_spline(fl.displacement_table_t, fl.trim), cross.heel_max_deg, warnings
+
+
+def _hull_angle(case: Case, vd: VesselData, loading: Loading):
+    """The immersion finder on the hull offsets at the condition's equilibrium (free trim,
+    xB = LCG), or None without offsets."""
+    geom = vd.hull
+    if geom is None:
+        return None
+    from reportgen.hull.tables import heel_scan, immersion_angle
+
+    rho = case.condition.condition.water_density
+    volume = loading.totals.displacement / rho
+    lcg = loading.totals.lcg
+    heels = [float(h) for h in vd.cross.heel_deg] if vd.cross is not None else \
+        [float(h) for h in range(0, 91, 5)]
+    scanned = heel_scan(geom, volume, lcg, heels)
+
+    def angle(points_xyz: np.ndarray) -> float:
+        return immersion_angle(geom, points_xyz, volume, lcg, scanned)
+
+    return angle
+
+
+def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating) -> angle_rules.Angles:
+    v = case.vessel
+    p = v.particulars
+    needs_hull = not (angle_rules.is_multi_trim(vd.deck_edge)
+                      and (angle_rules.is_multi_trim(vd.flooding) or not v.openings))
+    finder = _hull_angle(case, vd, loading) if needs_hull else None
+    s = angle_rules.Situation(fl.displacement_table_t, fl.trim, fl.draughts.mid, finder)
+    deck_points = None
+    if vd.hull is not None and finder is not None:
+        from reportgen.hull.tables import deck_edge_points
+
+        deck_points = deck_edge_points(vd.hull)
+    deck, w1 = angle_rules.deck_edge_angle(vd.deck_edge, s, deck_points, p.depth, p.breadth,
+                                           p.length_bp)
+    openings = [angle_rules.Opening(o.name, o.x, o.y, o.z) for o in v.openings]
+    flood, w2 = angle_rules.flooding_angle(vd.flooding, s, openings, p.length_bp)
+    return angle_rules.Angles(deck, flood, tuple(w1 + w2))
+
+
+def _roll_hull(case: Case, fl: Floating, loading: Loading) -> tuple[rolling.Hull, str]:
+    p = case.vessel.particulars
+    lwl = fl.lwl if fl.lwl is not None else p.length_bp
+    d = fl.draughts.mid
+    if fl.cb is not None:
+        cb, source = fl.cb, "table"
+    else:
+        rho = case.condition.condition.water_density
+        cb = rolling.block_coefficient(loading.totals.displacement, rho, lwl, p.breadth, d)
+        source = "computed"
+    return rolling.Hull(p.breadth, d, lwl, cb, p.bilge, p.bilge_keel_area), source
+
+
+def _load_line(case: Case, vd: VesselData, fl: Floating) -> tuple[LoadLine | None, list[str]]:
+    """The load line from the hydrostatic table's even-keel row (trim 0) in salt water."""
+    h = vd.hydro
+    if h is None:
+        return None, []
+    k = 0
+    if h.trims is not None:
+        k = int(np.argmin(np.abs(h.trims)))
+    p = case.vessel.particulars
+    disp_t, tpc_t = summer_row(h.draft[k], h.displacement[k], h.tpc[k], p.summer_draft)
+    scale = SALT_WATER_T_M3 / h.density
+    rho = case.condition.condition.water_density
+    ll = load_line(p.summer_draft, disp_t * scale, tpc_t * scale, rho, fl.draughts.mid, fl.tpc)
+    if not ll.overloaded:
+        return ll, []
+    over_mm = round(fl.draughts.mid * 1000.0) - round(ll.permissible_draft * 1000.0)
+    text = (f"The midships draught {fl.draughts.mid:.3f} m is above the permissible draught "
+            f"{ll.permissible_draft:.3f} m in water of {rho:.3f} t/m³ (summer draught "
+            f"{p.summer_draft:.3f} m + dock water allowance {ll.dwa * 1000:.0f} mm): the ship "
+            f"is overloaded by {over_mm} mm.")
+    return ll, [text]
+
+
+def upright(case: Case, vd: VesselData) -> Upright:
+    """Loading, floating position, KN, angles and wind of a condition (no KG needed)."""
+    v, c = case.vessel, case.condition
+    sets = case.criteria_sets
+    warnings: list[str] = []
+    if v.particulars.length_bp < MIN_LENGTH_M:
+        warnings.append(f"The IS Code 2008 criteria apply to ships of {MIN_LENGTH_M:g} m in "
+                        f"length and over; this ship is {v.particulars.length_bp:g} m.")
+    loading = condition_loading(v, c, vd.tanks)
+    fl = _floating(case, vd, loading)
+    ll, ll_warnings = _load_line(case, vd, fl)
+    warnings += ll_warnings
+    kn, heel_max, kn_warnings = _kn(case, vd, fl)
+    warnings += kn_warnings
+    ang = _angles(case, vd, loading, fl)
+    warnings += ang.warnings
+    wind = roll_hull = None
+    cb_source = "computed"
+    if "weather" in core.needs(sets):
+        items = [(it.wind_area, it.wind_z) for it in c.items if it.wind_area]
+        wind = weather23.wind(vd.profile, items, fl.draughts.mid, fl.trim, v.particulars.length_bp,
+                              loading.totals.displacement, v.calculation.wind_lever)
+        roll_hull, cb_source = _roll_hull(case, fl, loading)
+    return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
+                   tuple(warnings))
+
+
+def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
+    """The GZ curve, GM, weather quantities and checks at KG corrected (m)."""
+    tcg = up.loading.totals.tcg
+    gm = metacentric_height(up.floating.kmt, kg_fluid_m)
+    curve = gz_curve(up.kn, kg_fluid_m, tcg, up.heel_max_deg)
+    side_curve = curve.towards(list_side(tcg))
+    heel = equilibrium_heel(curve)
+    flooding = up.angles.flooding.deg
+    include = up.case.vessel.calculation.gz_beyond_flooding == "include"
+    credited = up.heel_max_deg if include else min(flooding, up.heel_max_deg)
+    gz_max_deg, _ = max_gz(side_curve, 0.0, credited)
+    wx = None
+    warnings: list[str] = []
+    if heel is None:
+        warnings.append("The GZ curve has no position of equilibrium within the cross curves: "
+                        "the ship capsizes in this condition.")
+    elif gm <= 0.0:
+        warnings.append(f"The initial GM corrected for free surface is {gm:.3f} m: the ship is "
+                        f"unstable upright and lolls to {abs(heel):.1f}°.")
+    if flooding < 30.0:
+        warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below 30°: the areas to "
+                        f"40° stop at θf, and GZ beyond θf is "
+                        f"{'credited' if include else 'not credited'}.")
+    if up.wind is not None:
+        w = up.case.condition.weather
+        given = w.roll_angle if w is not None else None
+        source = w.roll_angle_source if w is not None else None
+        r = rolling.roll(up.roll_hull, kg_fluid_m, gm, given)
+        wx = weather23.Weather(up.wind, r, weather23.areas(side_curve, up.wind, r.theta1,
+                                                           flooding), source)
+        warnings += weather23.weather_warnings(wx)
+        a = wx.areas
+        if a.theta0 is not None and flooding < a.theta0:
+            warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below the steady "
+                            f"heel under wind θ0 = {a.theta0:.1f}°.")
+        if a.theta_lw2 is not None and flooding < a.theta_lw2:
+            warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below the first "
+                            f"intercept of lw2 with GZ ({a.theta_lw2:.1f}°): area b is zero.")
+    state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx)
+    checks = core.run(up.sets, state)
+    return AtKG(kg_fluid_m, gm, curve, side_curve, heel, state,
+                vanishing_angle(side_curve, gz_max_deg), wx, checks, tuple(warnings))
+
+
+def kg_fluid_of(up: Upright) -> tuple[float, float]:
+    """(FSC, KG corrected) of the condition's own loading, m."""
+    t = up.loading.totals
+    fsc = free_surface_correction(t.fsm, t.displacement)
+    return fsc, kg_corrected(t.vcg, fsc)
+
+
+def listed(up: Upright) -> bool:
+    return has_list(up.loading.totals.tcg)
