@@ -4,6 +4,8 @@ from __future__ import annotations
 
 ROLES: tuple[str, ...] = ("prepared", "checked", "reviewed")  # signature fields, in order
 RESULTS_NAME = "results.json"  # the embedded results document
+APPROVAL_SUFFIX = ".p7s"  # SPEC.md: VESSEL.yaml.p7s, the approval beside the vessel file
+TITLE_PREFIX = "Intact stability calculation "  # the PDF title, before the document number
 DOCNO_LENGTH = 12  # hex digits of inputs_sha256 that make the document number
 
 

@@ -199,7 +199,7 @@ def test_header_footer_and_caution(passing):
     case, results, pdf = passing
     reader = PdfReader(io.BytesIO(pdf))
     n = len(reader.pages)
-    assert 1 <= n <= 4
+    assert 1 <= n <= 6  # a sheet stays short enough to read at the gangway (our own limit)
     docno = case.inputs_sha256[:12]
     for i, page in enumerate(reader.pages, start=1):
         text = page.extract_text()

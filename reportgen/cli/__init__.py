@@ -36,8 +36,11 @@ class _Group(click.Group):
     """Turns InputError into one line on stderr and exit status 2, never a traceback."""
 
     def invoke(self, ctx: click.Context):
+        from reportgen.files import command_scope
+
         try:
-            return super().invoke(ctx)
+            with command_scope():  # outputs never replace this command's inputs
+                return super().invoke(ctx)
         except InputError as exc:
             click.echo(f"reportgen: {exc}", err=True)
             ctx.exit(EXIT_BAD_INPUT)

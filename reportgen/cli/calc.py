@@ -81,11 +81,10 @@ def sheet(conditions: tuple[Path, ...], output: Path, force: bool) -> None:
     codes = []
     with progress("sheets", len(conditions)) as advance:
         for path in conditions:
-            target = output / f"{path.stem}.pdf" if several or output.is_dir() else output
+            target = output / f"{path.stem}.pdf" if several else output
             try:
                 case = load_case(path)
-                check_output(target, force,
-                             inputs=[path, path.parent / case.condition.vessel])
+                check_output(target, force)
                 results = evaluate(case)
                 write_sheet(case, results, target, force=force)
             except InputError as exc:

@@ -1,82 +1,266 @@
-"""Commands of signing and verification: keygen, sign, verify."""
+"""Commands of signing and verification: keygen, sign, verify, approve, extract.
+
+Status goes to stderr, data (reports, JSON) to stdout. A progress bar shows on a terminal
+only (never on a pipe, never with NO_COLOR set).
+"""
 
 from __future__ import annotations
 
+import json
+import os
 import sys
+from collections.abc import Iterator
+from contextlib import contextmanager
 from pathlib import Path
 
 import click
 
-from reportgen.cli import main, read_passphrase
+from reportgen.cli import main
 from reportgen.errors import InputError
 
+EXIT_CODES = """\b
+Exit status: 0 done, 2 bad input (a clear message on stderr, nothing written)."""
 
-@main.command()
-@click.option("--name", required=True, help="The person's name, as it will show on signatures.")
-@click.option("--out", "out_dir", required=True, type=click.Path(path_type=Path),
-              help="Folder for key.pem, cert.pem and identity.p12.")
+
+def _bar_wanted() -> bool:
+    return sys.stderr.isatty() and "NO_COLOR" not in os.environ
+
+
+@contextmanager
+def _progress(label: str, total: int | None = None) -> Iterator:
+    """A transient rich progress bar on stderr, or nothing; yields advance()."""
+    if not _bar_wanted():
+        yield lambda *_a, **_k: None
+        return
+    from rich.console import Console
+    from rich.progress import BarColumn, Progress, SpinnerColumn, TextColumn, TimeElapsedColumn
+
+    columns = [SpinnerColumn(), TextColumn("{task.description}"), BarColumn(),
+               TimeElapsedColumn()]
+    with Progress(*columns, console=Console(stderr=True), transient=True) as bar:
+        task = bar.add_task(label, total=total)
+
+        def advance(step: float = 1, description: str | None = None) -> None:
+            bar.update(task, advance=step, **({"description": description}
+                                              if description else {}))
+
+        yield advance
+
+
+def _passphrase(path: Path | None, interactive_for: Path | None) -> bytes | None:
+    from reportgen.signing.identity import read_passphrase
+
+    passphrase = read_passphrase(path)
+    if passphrase is None and interactive_for is not None and sys.stdin.isatty():
+        passphrase = click.prompt("PKCS#12 passphrase (empty for none)", hide_input=True,
+                                  default="", show_default=False).encode() or None
+    return passphrase
+
+
+_identity_options = [
+    click.option("--key", "key_path", type=click.Path(path_type=Path),
+                 help="Private key (PEM or DER), with --cert."),
+    click.option("--cert", "cert_path", type=click.Path(path_type=Path),
+                 help="Certificate (PEM or DER; further certificates in the file are its "
+                      "chain)."),
+    click.option("--p12", "p12_path", type=click.Path(path_type=Path),
+                 help="PKCS#12 identity instead of --key/--cert."),
+    click.option("--passphrase-file", type=click.Path(path_type=Path),
+                 help="Passphrase of the key or PKCS#12 file (asked for on a terminal)."),
+]
+
+
+def _with_identity(func):
+    for option in reversed(_identity_options):
+        func = option(func)
+    return func
+
+
+@main.command(epilog="""\b
+Example:
+  reportgen keygen --name "A. N. Other, chief officer (invented)" -o ids/officer
+""" + EXIT_CODES)
+@click.option("--name", required=True, help="The person's name, as the sheet names them.")
+@click.option("-o", "--output", "--out", "out_dir", required=True,
+              type=click.Path(path_type=Path),
+              help="Folder for key.pem, cert.pem and identity.p12 (--out is an alias).")
 @click.option("--passphrase-file", type=click.Path(path_type=Path),
               help="Encrypt the key with the passphrase in this file.")
 @click.option("--force", is_flag=True, help="Replace existing files.")
 def keygen(name: str, out_dir: Path, passphrase_file: Path | None, force: bool) -> None:
     """Make a demo signing identity (self-signed; not for real use)."""
-    from reportgen.signing import keygen as make_identity
+    from reportgen.signing.identity import keygen as make_identity
+    from reportgen.signing.identity import read_passphrase
 
-    written = make_identity(name, out_dir, passphrase=read_passphrase(passphrase_file),
-                            force=force)
-    for path in written:
+    for path in make_identity(name, out_dir, passphrase=read_passphrase(passphrase_file),
+                              force=force):
         click.echo(str(path))
 
 
-@main.command()
+@main.command(epilog="""\b
+Example:
+  reportgen sign out/ballast.pdf --role prepared --p12 ids/officer/identity.p12 \\
+      -o out/ballast-prepared.pdf
+  reportgen sign out/ballast-prepared.pdf --role checked --key KEY.pem --cert CERT.pem \\
+      -o out/ballast-signed.pdf
+\b
+Roles sign in order (checked needs prepared, reviewed needs checked). Refused: a certificate
+expired or not yet valid, one that may not sign, one that already signed another role, one
+whose name is not the name the sheet gives for the role, and a sheet that fails verify's
+integrity checks.
+""" + EXIT_CODES)
 @click.argument("sheet_pdf", metavar="SHEET.pdf", type=click.Path(path_type=Path))
 @click.option("--role", required=True, type=click.Choice(["prepared", "checked", "reviewed"]))
-@click.option("--key", "key_path", type=click.Path(path_type=Path), help="Private key (PEM).")
-@click.option("--cert", "cert_path", type=click.Path(path_type=Path), help="Certificate (PEM).")
-@click.option("--p12", "p12_path", type=click.Path(path_type=Path), help="PKCS#12 identity.")
-@click.option("--passphrase-file", type=click.Path(path_type=Path),
-              help="Passphrase of the key or PKCS#12 file.")
+@_with_identity
 @click.option("--reason", help="Reason shown in the signature.")
 @click.option("--location", help="Place of signing.")
-@click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path))
+@click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
+              help="The signed PDF to write (a new file).")
 @click.option("--force", is_flag=True, help="Replace an existing output file.")
 def sign(sheet_pdf: Path, role: str, key_path: Path | None, cert_path: Path | None,
          p12_path: Path | None, passphrase_file: Path | None, reason: str | None,
          location: str | None, output: Path, force: bool) -> None:
     """Sign a sheet as prepared, checked or reviewed."""
-    from reportgen.signing import sign_sheet
+    from reportgen.signing.identity import printable
+    from reportgen.signing.sign import sign_document
 
-    if p12_path is None and (key_path is None or cert_path is None):
-        raise InputError("sign: give --key and --cert, or --p12")
-    if p12_path is not None and (key_path is not None or cert_path is not None):
-        raise InputError("sign: give either --key/--cert or --p12, not both")
-    passphrase = read_passphrase(passphrase_file)
-    if passphrase is None and p12_path is not None and sys.stdin.isatty():
-        passphrase = click.prompt("PKCS#12 passphrase (empty for none)", hide_input=True,
-                                  default="", show_default=False).encode() or None
-    sign_sheet(sheet_pdf, output, role, key_path=key_path, cert_path=cert_path,
-               p12_path=p12_path, passphrase=passphrase, reason=reason, location=location,
-               force=force)
-    click.echo(f"{output}: signed as {role}", err=True)
+    passphrase = _passphrase(passphrase_file, p12_path)
+    with _progress(f"signing {sheet_pdf.name} as {role}"):
+        done = sign_document(sheet_pdf, output, role, key_path=key_path, cert_path=cert_path,
+                             p12_path=p12_path, passphrase=passphrase, reason=reason,
+                             location=location, force=force)
+    click.echo(f"{output}: signed as {role} by {printable(done['signer'])}", err=True)
 
 
-@main.command()
-@click.argument("sheet_pdf", metavar="SHEET.pdf", type=click.Path(path_type=Path))
+def _expand(paths: tuple[Path, ...]) -> list[Path]:
+    files: list[Path] = []
+    for path in paths:
+        if path.is_dir():
+            found = sorted(p for p in path.iterdir() if p.suffix.lower() == ".pdf"
+                           and p.is_file())
+            if not found:
+                click.echo(f"reportgen: {path}: no PDF files in this folder", err=True)
+            files.extend(found)
+        else:
+            files.append(path)
+    return files
+
+
+@main.command(epilog="""\b
+Examples:
+  reportgen verify out/ballast-signed.pdf --trust ids/officer/cert.pem \\
+      --trust ids/master/cert.pem --vessel-trust ids/design-office/cert.pem
+  reportgen verify out/ --trust company-root.pem --json > report.json
+\b
+Exit status: 0 every file verified; 1 a file did not verify (an unsigned one included);
+2 a file could not be read as a reportgen document, or a --trust file is bad. With several
+files, the worst of them (2 > 1 > 0); every file is still processed.
+""")
+@click.argument("files", metavar="SHEET.pdf|FOLDER...", nargs=-1, required=True,
+                type=click.Path(path_type=Path))
 @click.option("--trust", "trust", multiple=True, type=click.Path(path_type=Path),
-              help="A trusted root certificate (PEM or DER); repeat for more.")
-@click.option("--pages", is_flag=True,
-              help="Also render the sheet afresh from its embedded inputs and compare the "
-                   "printed text of every page.")
+              help="A trusted certificate (PEM or DER); a CA certificate also vouches for "
+                   "those it issues. Repeat for more.")
+@click.option("--vessel", "vessel", type=click.Path(path_type=Path),
+              help="The approved vessel data file: the embedded one must equal it byte for "
+                   "byte.")
+@click.option("--vessel-trust", "vessel_trust", multiple=True,
+              type=click.Path(path_type=Path),
+              help="A certificate trusted to approve vessel data; the embedded vessel data "
+                   "must carry an approval trusted through it. Repeat for more.")
+@click.option("--accept-other-version", is_flag=True,
+              help="Accept a document rendered by another reportgen version (its pages are "
+                   "then not compared).")
+@click.option("--pages", is_flag=True, hidden=True,
+              help="Kept for old scripts: the pages are always compared now.")
 @click.option("--json", "as_json", is_flag=True, help="Print the report as JSON.")
-def verify(sheet_pdf: Path, trust: tuple[Path, ...], pages: bool, as_json: bool) -> None:
-    """Check the signatures and recompute the sheet from its embedded inputs."""
-    import json
+def verify(files: tuple[Path, ...], trust: tuple[Path, ...], vessel: Path | None,
+           vessel_trust: tuple[Path, ...], accept_other_version: bool, pages: bool,
+           as_json: bool) -> None:
+    """Verify signed sheets: signatures, trust, pages and a recomputation."""
+    from reportgen.files import read_input
+    from reportgen.signing.identity import printable
+    from reportgen.signing.report import one_line, render_report, summary_line
+    from reportgen.signing.trust import load_trust
+    from reportgen.signing.verify import verify_document
 
-    from reportgen.signing import render_verify_report, verify_sheet
-
-    report = verify_sheet(sheet_pdf, list(trust), pages=pages)
+    store = load_trust(trust)
+    vessel_store = load_trust(vessel_trust) if vessel_trust else None
+    if vessel is not None:
+        read_input(vessel, "approved vessel data file")  # a bad --vessel is bad input, once
+    paths = _expand(files)
+    reports: list[dict] = []
+    unreadable: list[dict] = []
+    with _progress("verifying", total=len(paths)) as advance:
+        for path in paths:
+            try:
+                reports.append(verify_document(
+                    path, store, vessel=vessel, vessel_trust=vessel_store or (),
+                    accept_other_version=accept_other_version))
+            except InputError as exc:
+                if len(paths) == 1:
+                    raise
+                click.echo(f"reportgen: {printable(exc)}", err=True)
+                unreadable.append({"file": str(path), "error": printable(exc)})
+            advance()
+    status = 2 if unreadable or not paths else (0 if all(r["ok"] for r in reports) else 1)
     if as_json:
-        click.echo(json.dumps(report, indent=2, ensure_ascii=False))
+        if len(paths) == 1 and reports:
+            document: object = reports[0]
+        else:
+            document = {"format": "reportgen/verify-batch-1", "files": reports,
+                        "unreadable": unreadable,
+                        "summary": {"files": len(paths),
+                                    "verified": sum(1 for r in reports if r["ok"]),
+                                    "not_verified": sum(1 for r in reports if not r["ok"]),
+                                    "unreadable": len(unreadable)}}
+        click.echo(json.dumps(document, indent=2, ensure_ascii=True))
+    elif len(paths) == 1 and reports:
+        color = sys.stdout.isatty() and "NO_COLOR" not in os.environ
+        click.echo(render_report(reports[0], color=color), nl=False)
     else:
-        click.echo(render_verify_report(report))
-    sys.exit(0 if report["ok"] else 1)
+        for report in reports:
+            click.echo(one_line(report))
+        click.echo(summary_line(reports, len(unreadable)))
+    sys.exit(status)
+
+
+@main.command(epilog="""\b
+Example:
+  reportgen approve conditions/vessels/SHIP.yaml --p12 ids/design-office/identity.p12
+  (writes conditions/vessels/SHIP.yaml.p7s, which `sheet` then embeds)
+""" + EXIT_CODES)
+@click.argument("vessel_file", metavar="VESSEL.yaml", type=click.Path(path_type=Path))
+@_with_identity
+@click.option("-o", "--output", "output", type=click.Path(path_type=Path),
+              help="The approval to write (default: VESSEL.yaml.p7s beside the file).")
+@click.option("--force", is_flag=True, help="Replace an existing approval.")
+def approve(vessel_file: Path, key_path: Path | None, cert_path: Path | None,
+            p12_path: Path | None, passphrase_file: Path | None, output: Path | None,
+            force: bool) -> None:
+    """Approve vessel data: a detached CMS signature (RFC 5652) of the file's bytes."""
+    from reportgen.signing.approve import approve_vessel
+    from reportgen.signing.identity import printable
+
+    done = approve_vessel(vessel_file, output, key_path=key_path, cert_path=cert_path,
+                          p12_path=p12_path, passphrase=_passphrase(passphrase_file, p12_path),
+                          force=force)
+    click.echo(f"{done['output']}: vessel data approved by {printable(done['signer'])}",
+               err=True)
+
+
+@main.command(epilog="""\b
+Example:
+  reportgen extract out/ballast-signed.pdf -o out/ballast-inputs
+  reportgen check out/ballast-inputs/ballast-departure.yaml --json
+""" + EXIT_CODES)
+@click.argument("sheet_pdf", metavar="SHEET.pdf", type=click.Path(path_type=Path))
+@click.option("-o", "--output", "out_dir", required=True, type=click.Path(path_type=Path),
+              help="Folder to write the condition and vessel files (and approval) into.")
+@click.option("--force", is_flag=True, help="Replace existing files.")
+def extract(sheet_pdf: Path, out_dir: Path, force: bool) -> None:
+    """Write a sheet's embedded input files, ready to check again."""
+    from reportgen.signing.approve import extract_inputs
+
+    for path in extract_inputs(sheet_pdf, out_dir, force=force):
+        click.echo(str(path))

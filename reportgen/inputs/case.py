@@ -7,13 +7,12 @@ import hashlib
 from dataclasses import dataclass
 from pathlib import Path
 
+from reportgen.docinfo import APPROVAL_SUFFIX
 from reportgen.errors import InputError
 from reportgen.files import read_input
 from reportgen.inputs import yamlread
 from reportgen.inputs.condition import Condition
 from reportgen.inputs.vessel import Vessel
-
-APPROVAL_SUFFIX = ".p7s"  # SPEC.md: VESSEL.yaml.p7s beside the vessel file
 
 
 def parse_vessel(raw: bytes, name: str) -> Vessel:

@@ -4,7 +4,10 @@ Python passes values; every word of the sheet is in templates/ (sheet.html.j2,
 sheet.css, labels.j2). The PDF carries the condition and vessel files byte for byte
 and the results document as PDF/A-3 associated files (ISO 19005-3:2012, 6.8), and
 three empty signature fields (ISO 32000-1:2008, 12.7.4.5) placed over the boxes of
-the signature block, for pyHanko to fill by name.
+the signature block, for pyHanko to fill by name. The vessel data's approval
+(VESSEL.yaml.p7s, reportgen.provenance), when the case carries one, is embedded too, and
+the document information records the versions of the rendering stack (``rendering_stack``),
+so that ``verify`` can tell a different stack from a different page.
 
 Lengths in this module: CSS px from WeasyPrint's layout, PDF points in the file
 (1 px = 0.75 pt, CSS Values and Units Level 3, 5.2).
@@ -14,6 +17,7 @@ from __future__ import annotations
 
 import base64
 import hashlib
+import json
 import math
 import os
 from collections.abc import Iterator
@@ -28,8 +32,10 @@ import jinja2
 import pydyf
 import weasyprint
 
+from reportgen import provenance
 from reportgen.assemble import attachment_names
 from reportgen.docinfo import RESULTS_NAME, ROLES, document_number
+from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
 from reportgen.report.figures import gz_figure_svg, weather_figure_svg
@@ -38,6 +44,7 @@ from reportgen.stability import curve_towards_side
 
 PDF_VARIANT = "pdf/a-3b"  # ISO 19005-3, conformance level B
 PX_TO_PT = 0.75  # CSS px to PDF pt (96 px = 72 pt = 1 in)
+STACK_KEY = "RenderingStack"  # /Info entry: the versions that made the pages (JSON text)
 FIXED_EPOCH = datetime(1970, 1, 1, tzinfo=UTC)  # document date when the condition states none
 GZ_TABLE_STEP_DEG = 5
 GZ_TABLE_MAX_COLUMNS = 13  # values per row of the GZ table that fit the A4 text width
@@ -150,6 +157,22 @@ def _svg_data_uri(svg: str) -> str:
     return "data:image/svg+xml;base64," + base64.b64encode(svg.encode("utf-8")).decode("ascii")
 
 
+def approval_of(case: Any) -> dict | None:
+    """Who approved the case's vessel data and when (reportgen.provenance), or None.
+
+    An approval that does not sign exactly these vessel bytes is refused (InputError): the
+    sheet must not print an approval that is not there.
+    """
+    p7s = getattr(case, "vessel_approval", None)
+    if p7s is None:
+        return None
+    approval = provenance.read_approval(p7s, case.vessel_bytes)
+    if not approval.intact:
+        raise InputError(f"{case.vessel_name}{provenance.APPROVAL_SUFFIX}: {approval.problem}; "
+                         f"remove it or approve the vessel data again")
+    return approval.describe()
+
+
 def sheet_html(case: Any, results: Results) -> str:
     """The sheet as HTML text (the input of WeasyPrint), from the results."""
     figure_labels, _ = _labels()
@@ -165,6 +188,7 @@ def sheet_html(case: Any, results: Results) -> str:
         weather_figure=(_svg_data_uri(weather_figure_svg(results, figure_labels))
                         if results.weather is not None else None),
         roles=ROLES,
+        approval=approval_of(case),
     )
 
 
@@ -179,7 +203,10 @@ def _attachments(case: Any, results_json: str, when: datetime) -> list[weasyprin
                               description=words["vessel"], relationship="Source", **made),
         weasyprint.Attachment(string=results_json.encode("utf-8"), name=RESULTS_NAME,
                               description=words["results"], relationship="Data", **made),
-    ]
+    ] + ([weasyprint.Attachment(string=case.vessel_approval,
+                                name=provenance.approval_name(vessel_file),
+                                description=words["approval"], relationship="Source", **made)]
+         if getattr(case, "vessel_approval", None) is not None else [])
 
 
 def _find_box(page_box: Any, element_id: str) -> Any | None:
@@ -264,6 +291,8 @@ def _deduplicate_associated_files(pdf: pydyf.PDF) -> None:
 def _finisher(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
     _deduplicate_associated_files(pdf)
     _add_signature_fields(document, pdf)
+    pdf.info[STACK_KEY] = pydyf.String(json.dumps(provenance.rendering_stack(),
+                                                   sort_keys=True))
 
 
 def layout_sheet(case: Any, results: Results) -> weasyprint.Document:

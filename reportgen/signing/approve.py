@@ -1,0 +1,151 @@
+"""Approval of vessel data, and the embedded input files taken back out of a document.
+
+``approve_vessel`` writes a detached CMS signature (RFC 5652, 5.1 SignedData without
+encapsulated content, DER) over the vessel file's bytes, with the signing time as a signed
+attribute (RFC 5652, 11.3): the design office or class approves a vessel data set once;
+``sheet`` embeds ``VESSEL.yaml.p7s`` when it lies beside the vessel file.
+
+``extract_inputs`` writes a document's embedded condition file, vessel file (and approval)
+into a folder, laid out so that the condition finds its vessel by its own ``vessel:`` path:
+``reportgen check`` on the written condition then gives the document's results.
+"""
+
+from __future__ import annotations
+
+import asyncio
+import posixpath
+from pathlib import Path
+from typing import Any
+
+from reportgen.errors import InputError
+from reportgen.files import check_output, command_scope, make_folder, read_input, write_atomic
+from reportgen.provenance import APPROVAL_SUFFIX, read_approval
+from reportgen.signing import identity as ids
+from reportgen.signing.recompute import check_vessel, vessel_reference
+from reportgen.signing.sheetfile import read_document
+from reportgen.signing.trust import signing_usage_problems, validity_problem
+
+MAX_CONDITION_DEPTH = 8  # "../" levels a condition's vessel path may climb when extracted
+
+
+def _approve_vessel(vessel_path: Path, out_path: Path | None = None, *,
+                   key_path: Path | None = None, cert_path: Path | None = None,
+                   p12_path: Path | None = None, passphrase: bytes | None = None,
+                   force: bool = False) -> dict:
+    """Sign the vessel file's bytes (detached CMS); write VESSEL.yaml.p7s or ``out_path``.
+
+    Refused: a file that is not a valid vessel data file; a certificate expired or not yet
+    valid now or whose key usage does not allow signatures. Returns {"output", "signer",
+    "signing_time"}.
+    """
+    from asn1crypto import keys as asn1_keys
+    from cryptography.hazmat.primitives import serialization
+    from pyhanko.sign import signers
+    from pyhanko.sign.signers.pdf_cms import PdfCMSSignedAttributes
+    from pyhanko_certvalidator.registry import SimpleCertificateStore
+
+    vessel_path = Path(vessel_path)
+    out_path = Path(out_path) if out_path is not None else \
+        vessel_path.with_name(vessel_path.name + APPROVAL_SUFFIX)
+    vessel = read_input(vessel_path, "vessel data file")
+    check_output(out_path, force)
+    check_vessel(vessel, str(vessel_path))
+    who = ids.load_identity(key_path, cert_path, p12_path, passphrase, command="approve")
+    now = ids.utc_now()
+    problem = validity_problem(who.certificate, now, "now")
+    if problem:
+        raise InputError(f"{who.origin}: {problem}")
+    usage = signing_usage_problems(who.certificate)
+    if usage:
+        raise InputError(f"{who.origin}: the certificate may not sign: {'; '.join(usage)}")
+    registry = SimpleCertificateStore()
+    registry.register_multiple(ids.to_asn1(c) for c in who.chain)
+    key_info = asn1_keys.PrivateKeyInfo.load(who.key.private_bytes(
+        serialization.Encoding.DER, serialization.PrivateFormat.PKCS8,
+        serialization.NoEncryption()))
+    signer = signers.SimpleSigner(signing_cert=ids.to_asn1(who.certificate),
+                                  signing_key=key_info, cert_registry=registry)
+    try:
+        info = asyncio.run(signer.async_sign_general_data(
+            vessel, "sha256", detached=True,
+            signed_attr_settings=PdfCMSSignedAttributes(signing_time=now)))
+    except Exception as exc:  # noqa: BLE001 - pyHanko reports bad keys in many types
+        raise InputError(f"{who.origin}: cannot sign the vessel data: {exc}") from None
+    p7s = info.dump()
+    if not read_approval(p7s, vessel).intact:  # never write an approval that does not check
+        raise InputError(f"{vessel_path}: the approval made does not verify; nothing written")
+    write_atomic(out_path, p7s, force=force)
+    return {"output": str(out_path), "signer": ids.common_name(who.certificate),
+            "signing_time": now.isoformat()}
+
+
+def _safe_name(name: str, what: str) -> str:
+    if not name or "/" in name or "\\" in name or name in (".", "..") or "\x00" in name:
+        raise InputError(f"the embedded {what} has an unsafe file name {ids.printable(name)!r}")
+    return name
+
+
+def _layout(condition_name: str, vessel_ref: str) -> tuple[Path, Path]:
+    """Relative paths for the condition and vessel files such that the condition's
+    ``vessel:`` path, taken from the condition's folder, reaches the vessel file and neither
+    leaves the output folder. A path that climbs ("../") puts the condition that many
+    folders deep (each named "conditions")."""
+    if vessel_ref.startswith("/") or "\\" in vessel_ref or "\x00" in vessel_ref:
+        raise InputError(f"the condition names its vessel file by an absolute or unusual path "
+                         f"{ids.printable(vessel_ref)!r}; extract writes only inside the "
+                         f"output folder")
+    parts = posixpath.normpath(vessel_ref).split("/")
+    climb = 0
+    while climb < len(parts) and parts[climb] == "..":
+        climb += 1
+    rest = parts[climb:]
+    if not rest or ".." in rest or climb > MAX_CONDITION_DEPTH:
+        raise InputError(f"the condition's vessel path {ids.printable(vessel_ref)!r} cannot "
+                         f"be laid out inside the output folder")
+    condition = Path(*(["conditions"] * climb), condition_name)
+    vessel = Path(*rest)
+    if vessel == condition:
+        raise InputError("the condition names itself as its vessel file")
+    return condition, vessel
+
+
+def _extract_inputs(sheet_path: Path, out_dir: Path, force: bool = False) -> list[Path]:
+    """Write the embedded input files of a document into ``out_dir``; the written paths.
+
+    Existing files are kept unless ``force``; nothing outside ``out_dir`` is written.
+    """
+    sheet_path, out_dir = Path(sheet_path), Path(out_dir)
+    doc = read_document(read_input(sheet_path, "sheet"), sheet_path)
+    try:
+        inputs = doc.kind.inputs(doc.content, doc.files)
+    except InputError as exc:
+        raise InputError(f"{sheet_path}: {exc}") from None
+    condition_name = _safe_name(inputs.condition_name, "condition file")
+    try:
+        reference = vessel_reference(inputs)
+        condition_rel, vessel_rel = _layout(condition_name, reference)
+    except InputError as exc:
+        raise InputError(f"{sheet_path}: {exc}") from None
+    files = [(out_dir / condition_rel, inputs.condition), (out_dir / vessel_rel, inputs.vessel)]
+    if inputs.approval is not None:
+        files.append((out_dir / vessel_rel.with_name(vessel_rel.name + APPROVAL_SUFFIX),
+                      inputs.approval))
+    for path, _data in files:
+        if path.parent.is_dir():
+            check_output(path, force)
+    for path, data in files:
+        make_folder(path.parent)
+        write_atomic(path, data, force=force)
+    return [path for path, _data in files]
+
+
+def approve_vessel(vessel_path: Path, out_path: Path | None = None, **kw: Any) -> dict:
+    """``_approve_vessel`` in a command scope of its own (outputs never replace inputs)."""
+    with command_scope():
+        return _approve_vessel(vessel_path, out_path, **kw)
+
+
+def extract_inputs(sheet_path: Path, out_dir: Path, force: bool = False) -> list[Path]:
+    """``_extract_inputs`` in a command scope of its own (outputs never replace inputs)."""
+    with command_scope():
+        return _extract_inputs(sheet_path, out_dir, force)
