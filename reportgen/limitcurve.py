@@ -140,7 +140,7 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
                          f"'reportgen tables' first")
     vd = vessel_data(vessel)
     sets = curve_sets(vessel)
-    rows, warnings = [], []
+    rows, warnings, named = [], [], []
     disps = displacements(vd)
     if not disps:
         raise InputError(f"{vessel_name}: no displacement of the cross curves lies within the "
@@ -153,6 +153,9 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
             raise InputError(f"{vessel_name}: limits at {d:.1f} t, trim {trim_m:g} m: {exc}"
                              ) from None
         warnings += [w for w in _warnings(up) if w not in warnings]
+        if not named:
+            named = [{"id": c.id, "title": c.title, "reference": c.reference, "set": c.set,
+                      "limit": c.limit} for c in stages.at_kg(up, 0.0).checks]
         if advance is not None:
             advance()
     return clean({
@@ -165,7 +168,7 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
         "criteria": sets, "trim": float(trim_m), "density": vd.hydro.density,
         "search": {"start": 0.0, "step_max": limits.SCAN_STEP_MAX_M,
                    "tolerance": limits.TOLERANCE_M},
-        "rows": rows, "warnings": warnings})
+        "rows": rows, "criteria_list": named, "warnings": warnings})
 
 
 def to_json(doc: dict) -> str:

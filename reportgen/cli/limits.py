@@ -42,7 +42,7 @@ def limits(vessel: Path, trim: float, as_json: bool, output: Path | None, force:
     if output is not None:
         from reportgen.report.limitsdoc import write_limits
 
-        write_limits(raw, doc, output, force=force)
+        write_limits(raw, doc, output, force=force, vessel_sets=list(model.criteria))
         click.echo(f"{output}: limits document written", err=True)
     if as_json:
         click.echo(to_json(doc), nl=False)
