@@ -20,7 +20,7 @@ from collections.abc import Callable
 
 import numpy as np
 
-from reportgen import NAME, __version__, limits, stages
+from reportgen import NAME, __version__, docinfo, limits, stages
 from reportgen.errors import InputError
 from reportgen.floating import HydroTable, check_in_range, floating_on_tables
 from reportgen.inputs import Case
@@ -29,9 +29,9 @@ from reportgen.inputs.vessel import Lightship, Vessel
 from reportgen.results import clean
 from reportgen.vesseldata import VesselData, vessel_data
 
-LIMITS_FORMAT = "reportgen/limits-1"
-LIMITS_NAME = "limits.json"  # the embedded data document of a limits PDF
-REQUEST_NAME = "limits-request.json"  # what, beside the vessel file, the curve depends on
+LIMITS_FORMAT = docinfo.LIMITS_FORMAT
+LIMITS_NAME = docinfo.LIMITS_NAME  # the embedded data document of a limits PDF
+REQUEST_NAME = docinfo.LIMITS_REQUEST_NAME  # what, beside the vessel file, the curve rests on
 NOT_ON_CURVE = ("booklet.limits",)
 TRIM_MATCH_M = 0.001  # the upright trim must come out within this of the trim asked, m
 

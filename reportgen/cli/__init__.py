@@ -65,5 +65,4 @@ def main() -> None:
 
 
 # The commands register themselves on `main` when their modules are imported.
-from reportgen.cli import calc, setup, signing  # noqa: F401
-from reportgen.cli import limits  # noqa: F401, E402
+from reportgen.cli import calc, limits, setup, signing  # noqa: F401
