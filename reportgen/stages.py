@@ -15,7 +15,7 @@ import numpy as np
 from scipy.interpolate import PPoly
 
 from reportgen import angles as angle_rules
-from reportgen.criteria import core, rolling
+from reportgen.criteria import booklet, core, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
 from reportgen.floating import Floating, floating_on_tables
@@ -234,8 +234,11 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
         if a.theta_lw2 is not None and flooding < a.theta_lw2:
             warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below the first "
                             f"intercept of lw2 with GZ ({a.theta_lw2:.1f}°): area b is zero.")
-    state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx)
+    curve_b = booklet.curve_of(up.case.vessel) if "booklet" in core.needs(up.sets) else None
+    state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx,
+                  kg_fluid_m, up.loading.totals.displacement, curve_b)
     checks = core.run(up.sets, state)
+    warnings += booklet.warnings(state)
     return AtKG(kg_fluid_m, gm, curve, side_curve, heel, state,
                 vanishing_angle(side_curve, gz_max_deg), wx, checks, tuple(warnings))
 

@@ -25,4 +25,9 @@ SETS: dict[str, SetInfo] = {
         "reportgen.criteria.weather",
         "IMO 2008 IS Code (MSC.267(85)), Part A, 2.3: severe wind and rolling criterion",
         frozenset({"weather"})),
+    "booklet.limits": SetInfo(
+        "reportgen.criteria.booklet",
+        "The approved stability booklet's limiting KG (or minimum GM) curve, as the vessel "
+        "file gives it",
+        frozenset({"booklet"})),
 }

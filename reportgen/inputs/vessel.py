@@ -263,6 +263,23 @@ class HullOffsets(Model):
         return self
 
 
+class LimitingCurve(Model):
+    """The approved booklet's limiting curve (criteria set booklet.limits): KG max (m, KG
+    corrected for free surface) or GM min (m, GM corrected) by displacement (t)."""
+
+    source: Text
+    displacement: Increasing  # t
+    kg: list[Positive] | None = None  # m, maximum KG corrected
+    gm: list[Num] | None = None  # m, minimum GM corrected
+
+    @model_validator(mode="after")
+    def _one_column(self) -> LimitingCurve:
+        if (self.kg is None) == (self.gm is None):
+            raise ValueError("give exactly one of kg (maximum KG) and gm (minimum GM)")
+        equal_lengths(self, ["displacement", "kg", "gm"])
+        return self
+
+
 class Calculation(Model):
     method: Literal["tables", "hull"] = "tables"
     wind_lever: Literal["half_draft", "underwater_centre"] = "half_draft"
@@ -306,6 +323,8 @@ class Vessel(Model):
     permitted_criteria: Annotated[list[str], AfterValidator(known_sets)] = Field(
         default_factory=list)
     calculation: Calculation = Calculation()
+    limiting_kg: LimitingCurve | None = None  # the booklet's curve (criteria set booklet.limits)
+    limiting_gm: LimitingCurve | None = None  # the same as a minimum GM curve (gm:)
     hull: HullOffsets | None = None
     notes: Any = None
 
@@ -322,6 +341,7 @@ class Vessel(Model):
                              "offsets, and this file has none; give hull offsets (hull:) or the "
                              "booklet's flooding_angle table (no approximation of θf is safe "
                              "enough to print)")
+        self._booklet_curve()
         ids = [t.id for t in self.tanks]
         dup = sorted({i for i in ids if ids.count(i) > 1})
         if dup:
@@ -337,6 +357,16 @@ class Vessel(Model):
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
         return self
+
+    def _booklet_curve(self) -> None:
+        if self.limiting_kg is not None and self.limiting_gm is not None:
+            raise ValueError("give limiting_kg or limiting_gm, not both")
+        if self.limiting_gm is not None and self.limiting_gm.gm is None:
+            raise ValueError("limiting_gm: give the minimum GM as gm")
+        wanted = "booklet.limits" in list(self.criteria) + list(self.permitted_criteria)
+        if wanted and self.limiting_kg is None and self.limiting_gm is None:
+            raise ValueError("criteria booklet.limits needs the booklet's curve: limiting_kg "
+                             "(or limiting_gm)")
 
     @property
     def has_tables(self) -> bool:
