@@ -105,18 +105,10 @@ def upright_at(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, vd: Vessel
     return stages.upright(case, vd)
 
 
-def _floor(value: float | None, decimals: int = 6) -> float | None:
-    """Rounded down (the passing side) to the document's decimals."""
-    if value is None:
-        return None
-    scale = 10.0 ** decimals
-    return math.floor(value * scale) / scale
-
-
 def row(up: stages.Upright) -> dict:
     """One row of the curve: displacement, draught, KMt, kg_max, gm_min, governing, angles."""
     lim = limits.limit_of(up, 0.0)
-    kg_max = _floor(lim.kg_max_m)
+    kg_max = limits.reported(lim.kg_max_m)
     fl = up.floating
     return {"displacement": fl.displacement_table_t, "draft_mean": fl.draughts.mid,
             "kmt": fl.kmt, "kg_max": kg_max,

@@ -22,6 +22,7 @@ that can still be added at a point.
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
@@ -37,6 +38,10 @@ SCAN_STEP_MAX_M = 0.25  # largest step of the walk on KG (a failure narrower tha
 TOLERANCE_M = 0.001  # SPEC.md "Limits": found to within 1 mm
 CEILING_MARGIN_M = 0.5  # the walk stops this far above the KG at which GZ ≤ 0 at every heel
 
+REPORTED_DECIMALS = 6  # the results documents round to 6 decimals (reportgen.results)
+SAFE_SIDE_M = 2e-6  # kg_max as reported is this much below the passing end, then rounded down,
+# so that a KG re-made from the printed numbers (KG + margin) still passes
+
 Evaluate = Callable[[float], Sequence[Check]]
 
 
@@ -50,6 +55,15 @@ class KGLimit:
     kg_max_m: float | None
     governing: str | None
     checked_above_m: float | None = None
+
+
+def reported(kg_m: float | None) -> float | None:
+    """A passing KG (m) as documents print it: moved SAFE_SIDE_M down, rounded down to
+    REPORTED_DECIMALS, so that it stays on the passing side after rounding."""
+    if kg_m is None:
+        return None
+    scale = 10.0 ** REPORTED_DECIMALS
+    return math.floor((kg_m - SAFE_SIDE_M) * scale) / scale
 
 
 def passes(checks: Sequence[Check]) -> bool:
@@ -158,10 +172,10 @@ def condition_limits(up: stages.Upright, k: stages.AtKG) -> dict:
     kg_max (m), the governing criterion with its title and reference."""
     kg = k.kg_fluid_m
     lim = limit_of(up, kg, {kg: k.checks})
-    kg_max = lim.kg_max_m
+    kg_max = reported(lim.kg_max_m)
     named = {c.id: c for c in k.checks}.get(lim.governing)
     return {"kg_max": kg_max,
-            "kg_margin": None if kg_max is None else kg_max - kg,
+            "kg_margin": None if kg_max is None else reported(kg_max - kg + SAFE_SIDE_M),
             "gm_min": None if kg_max is None else up.floating.kmt - kg_max,
             "governing": lim.governing,
             "governing_title": named.title if named else None,
