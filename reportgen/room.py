@@ -14,6 +14,7 @@ from __future__ import annotations
 
 import dataclasses
 import math
+from collections.abc import Callable
 
 from reportgen import stages
 from reportgen.errors import InputError
@@ -65,7 +66,7 @@ def check_point(case: Case, x_m: float, y_m: float, z_m: float) -> None:
         raise InputError("--at/--tcg: the point is outside the ship: " + "; ".join(bad))
 
 
-def trial(case: Case, vd: VesselData, mass_t: float, x_m: float, y_m: float,
+def trial_of(case: Case, vd: VesselData, mass_t: float, x_m: float, y_m: float,
           z_m: float) -> Trial:
     """The condition with ``mass_t`` added: passes, or what stops it."""
     c = with_mass(case, mass_t, x_m, y_m, z_m) if mass_t > 0.0 else case
@@ -91,12 +92,19 @@ def trial(case: Case, vd: VesselData, mass_t: float, x_m: float, y_m: float,
     return Trial(mass_t, True, None, None, disp, mid, perm)
 
 
-def room_at(case: Case, x_m: float, y_m: float, z_m: float) -> dict:
+def room_at(case: Case, x_m: float, y_m: float, z_m: float,
+            advance: Callable[[], None] | None = None) -> dict:
     """The largest mass (t) that can be added at (x, y, z) and what limits it (module
     docstring): {mass, limited_by, limited_by_title, at, displacement, draft_mean,
     permissible_draft, windage}."""
     check_point(case, x_m, y_m, z_m)
     vd = vessel_data(case.vessel)
+
+    def trial(c: Case, data: VesselData, m: float, x: float, y: float, z: float) -> Trial:
+        if advance is not None:
+            advance()
+        return trial_of(c, data, m, x, y, z)
+
     lo = trial(case, vd, 0.0, x_m, y_m, z_m)
     hi = None
     if lo.passed:

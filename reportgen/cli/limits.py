@@ -75,7 +75,9 @@ def room(condition: Path, at: str, tcg: float, as_json: bool) -> None:
         x, z = (float(v) for v in at.split(","))
     except ValueError:
         raise InputError(f"--at {at!r}: expected X,Z in metres, e.g. --at 48.0,9.5") from None
-    answer = room_at(load_case(condition), x, tcg, z)
+    case = load_case(condition)
+    with progress("room", None) as advance:
+        answer = room_at(case, x, tcg, z, advance)
     if as_json:
         click.echo(json.dumps(answer, indent=2, ensure_ascii=False))
     else:
