@@ -36,6 +36,10 @@ NOT_ON_CURVE = ("booklet.limits",)
 TRIM_MATCH_M = 0.001  # the upright trim must come out within this of the trim asked, m
 
 
+class ImpossibleTrim(InputError):
+    """The trim puts the keel out of the water or the deck under at a perpendicular."""
+
+
 def request_bytes(trim_m: float) -> bytes:
     """The canonical bytes of the request (the trim, m): with the vessel file's bytes they make
     the document's inputs_sha256 = SHA-256(request bytes + vessel bytes)."""
@@ -99,9 +103,16 @@ def upright_at(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, vd: Vessel
                          f"of the table's density, which a condition cannot take "
                          f"({str(exc).splitlines()[0]})") from None
     case = Case(cond, ship, b"", vessel_bytes, "limits", vessel_name)
-    fl = floating_on_tables(h, disp_t, h.density, lcg, vessel.particulars.length_bp)
+    p = vessel.particulars
+    fl = floating_on_tables(h, disp_t, h.density, lcg, p.length_bp)
     if abs(fl.trim - trim_m) > TRIM_MATCH_M:  # a guard: the inversion above is exact
         raise InputError(f"the ship cannot be put at a trim of {trim_m:g} m at {disp_t:.1f} t")
+    dr = fl.draughts
+    if min(dr.aft, dr.fore) < 0.0 or max(dr.aft, dr.fore) > p.depth or \
+            not -0.05 * p.length_bp <= lcg <= 1.05 * p.length_bp:
+        raise ImpossibleTrim(f"a trim of {trim_m:g} m is not physically possible at this "
+                         f"displacement (draughts aft {dr.aft:.2f} m, fore {dr.fore:.2f} m, "
+                         f"depth {p.depth:g} m; LCG {lcg:.1f} m): choose a smaller --trim")
     return stages.upright(case, vd)
 
 
@@ -137,10 +148,14 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
     if not disps:
         raise InputError(f"{vessel_name}: no displacement of the cross curves lies within the "
                          f"hydrostatic table")
+    skipped = []
     for d in disps:
         try:
             up = upright_at(vessel, vessel_bytes, vessel_name, vd, d, trim_m, sets)
             rows.append(row(up))
+        except ImpossibleTrim:
+            skipped.append(d)
+            continue
         except InputError as exc:
             raise InputError(f"{vessel_name}: limits at {d:.1f} t, trim {trim_m:g} m: {exc}"
                              ) from None
@@ -150,6 +165,13 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
                       "limit": c.limit} for c in stages.at_kg(up, 0.0).checks]
         if advance is not None:
             advance()
+    if not rows:
+        raise InputError(f"{vessel_name}: a trim of {trim_m:g} m is not physically possible at "
+                         f"any displacement of the tables: choose a smaller --trim")
+    if skipped:
+        warnings.append(f"No limit is given at {', '.join(f'{d:.1f}' for d in skipped)} t: "
+                        f"at a trim of {trim_m:g} m a draught at a perpendicular would be below "
+                        f"zero or above the depth.")
     return clean({
         "format": LIMITS_FORMAT, "software": {"name": NAME, "version": __version__},
         "inputs_sha256": inputs_sha256(trim_m, vessel_bytes),
