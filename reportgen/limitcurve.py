@@ -26,6 +26,7 @@ from reportgen.floating import HydroTable, check_in_range, floating_on_tables
 from reportgen.inputs import Case
 from reportgen.inputs.condition import Condition
 from reportgen.inputs.vessel import Lightship, Vessel
+from reportgen.limitsmodel import LimitsDocument
 from reportgen.results import clean
 from reportgen.vesseldata import VesselData, vessel_data
 
@@ -172,7 +173,7 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
         warnings.append(f"No limit is given at {', '.join(f'{d:.1f}' for d in skipped)} t: "
                         f"at a trim of {trim_m:g} m a draught at a perpendicular would be below "
                         f"zero or above the depth.")
-    return clean({
+    return LimitsDocument.model_validate(clean({
         "format": LIMITS_FORMAT, "software": {"name": NAME, "version": __version__},
         "inputs_sha256": inputs_sha256(trim_m, vessel_bytes),
         "inputs": {"vessel_file": vessel_name, "request": REQUEST_NAME},
@@ -182,7 +183,7 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
         "criteria": sets, "trim": float(trim_m), "density": vd.hydro.density,
         "search": {"start": 0.0, "step_max": limits.SCAN_STEP_MAX_M,
                    "tolerance": limits.TOLERANCE_M},
-        "rows": rows, "criteria_list": named, "warnings": warnings})
+        "rows": rows, "criteria_list": named, "warnings": warnings})).model_dump(mode="json")
 
 
 def to_json(doc: dict) -> str:
