@@ -189,3 +189,16 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
 def to_json(doc: dict) -> str:
     """The limits document as text: indented, keys in document order, a final newline."""
     return json.dumps(doc, indent=2, ensure_ascii=False) + "\n"
+
+
+def booklet_block(doc: dict) -> str:
+    """The curve as a `limiting_kg` block of a vessel file (YAML text), its `source` saying how
+    it was made; rows without a limit are left out."""
+    rows = [r for r in doc["rows"] if r["kg_max"] is not None]
+    source = (f"made by reportgen limits {doc['software']['version']} from "
+              f"{doc['inputs']['vessel_file']} (SHA-256 {doc['vessel']['sha256'][:12]}), "
+              f"upright at trim {doc['trim']:g} m, criteria {', '.join(doc['criteria'])}")
+    return ("limiting_kg:\n"
+            f"  source: {json.dumps(source, ensure_ascii=False)}\n"
+            f"  displacement: {json.dumps([r['displacement'] for r in rows])}\n"
+            f"  kg: {json.dumps([r['kg_max'] for r in rows])}\n")

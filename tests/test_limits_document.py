@@ -103,3 +103,27 @@ def test_pdf_is_signed_and_verified_by_recomputation(small_box, tmp_path):
     state = integrity(read_document(forged.read_bytes(), forged))
     assert not state["recomputation"]["ok"]
     assert any("rows[0].kg_max" in d for d in state["recomputation"]["differences"])
+
+
+def test_booklet_block_round_trip(small_box, tmp_path):
+    """`--booklet-block` prints a limiting_kg block that a vessel file takes as its booklet
+    curve: at a row's displacement the criterion kg_limit requires that row's KG max."""
+    from eval_box import condition_dict, write_case
+
+    from reportgen.pipeline import evaluate_path
+
+    run = _run("limits", str(small_box), "--booklet-block")
+    assert run.returncode == 0, run.stderr
+    block = yaml.safe_load(run.stdout)["limiting_kg"]
+    assert block["source"].startswith("made by reportgen limits")
+    doc = json.loads(_run("limits", str(small_box), "--json").stdout)
+    vessel = yaml.safe_load(small_box.read_text())
+    vessel["criteria"] = ["is2008.general", "is2008.weather", "booklet.limits"]
+    vessel["limiting_kg"] = block
+    draft = DRAFTS[KEEP[1]]
+    disp = RHO * L * B * draft
+    cargo = {"name": "Cargo", "mass": disp - 1000.0, "lcg": L / 2,
+             "vcg": (disp * 5.0 - 4000.0) / (disp - 1000.0)}
+    r = evaluate_path(write_case(tmp_path, condition_dict([cargo]), vessel))
+    c = {c.id: c for c in r.criteria}["kg_limit"]
+    assert c.required == pytest.approx(doc["rows"][1]["kg_max"], abs=1e-6)

@@ -24,8 +24,11 @@ Exit status: 0 the limits were found (and written); 2 bad input (nothing is writ
 @click.option("--json", "as_json", is_flag=True, help="Print the limits document (JSON).")
 @click.option("-o", "--output", "output", type=click.Path(path_type=Path),
               help="Write the limits document as a PDF/A-3 file.")
+@click.option("--booklet-block", "booklet", is_flag=True,
+              help="Print the curve as a limiting_kg block for a vessel file (booklet.limits).")
 @click.option("--force", is_flag=True, help="Replace an existing file.")
-def limits(vessel: Path, trim: float, as_json: bool, output: Path | None, force: bool) -> None:
+def limits(vessel: Path, trim: float, as_json: bool, output: Path | None, booklet: bool,
+           force: bool) -> None:
     """The limiting KG / minimum GM curve of a vessel for its criteria."""
     from reportgen.files import check_output, read_input
     from reportgen.inputs.case import parse_vessel
@@ -46,6 +49,10 @@ def limits(vessel: Path, trim: float, as_json: bool, output: Path | None, force:
         click.echo(f"{output}: limits document written", err=True)
     if as_json:
         click.echo(to_json(doc), nl=False)
+    elif booklet:
+        from reportgen.limitcurve import booklet_block
+
+        click.echo(booklet_block(doc), nl=False)
     elif output is None:
         from reportgen.limitsummary import render_limits
 
