@@ -77,15 +77,17 @@ def test_pdf_is_signed_and_verified_by_recomputation(small_box, tmp_path):
     not match its inputs is refused."""
     from reportgen.inputs.case import parse_vessel
     from reportgen.limitcurve import limiting_curve
-    from reportgen.report.limitsdoc import render_limits
+    from reportgen.report.limitsdoc import render_limits, write_limits
     from reportgen.signing import sign_document
     from reportgen.signing.identity import keygen
     from reportgen.signing.sheetfile import read_document
     from reportgen.signing.verify import integrity, verify_document
 
+    raw = small_box.read_bytes()
+    vessel = parse_vessel(raw, "box.yaml")
+    doc = limiting_curve(vessel, raw, "box.yaml")
     pdf = tmp_path / "limits.pdf"
-    run = _run("limits", str(small_box), "-o", str(pdf))
-    assert run.returncode == 0, run.stderr
+    write_limits(raw, doc, pdf, vessel_sets=list(vessel.criteria))
     keygen("Invented Design Office", tmp_path / "id")
     signed = tmp_path / "signed.pdf"
     sign_document(pdf, signed, "prepared", key_path=tmp_path / "id/key.pem",
@@ -95,11 +97,9 @@ def test_pdf_is_signed_and_verified_by_recomputation(small_box, tmp_path):
     assert report["kind"] == "limits"
     assert report["pages"]["method"] == "bytes"
 
-    raw = small_box.read_bytes()
-    doc = limiting_curve(parse_vessel(raw, "box.yaml"), raw, "box.yaml")
     doc["rows"][0]["kg_max"] += 0.5  # a curve that is not what the vessel data give
     forged = tmp_path / "forged.pdf"
-    forged.write_bytes(render_limits("box.yaml", raw, doc))
+    forged.write_bytes(render_limits("box.yaml", raw, doc, list(vessel.criteria)))
     state = integrity(read_document(forged.read_bytes(), forged))
     assert not state["recomputation"]["ok"]
     assert any("rows[0].kg_max" in d for d in state["recomputation"]["differences"])
