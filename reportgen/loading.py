@@ -123,7 +123,7 @@ class Line:
     (reportgen.freesurface reasons) or None; slack: whether the tank is slack.
     """
 
-    kind: Literal["lightship", "tank", "item"]
+    kind: Literal["lightship", "tank", "item", "grain"]
     id: str | None
     name: str
     content: str | None
@@ -262,6 +262,9 @@ def condition_loading(vessel, condition, tank_tables: dict[str, TankTable]) -> L
         lines.append(tank_line(tank.id, tank.name, tank.content, tank.fs_role, density, state,
                                ullage, is_slack(state.percent, full),
                                c.fsm_tm if c else 0.0, c.reason if c else None))
+    from reportgen.grainload import grain_cargo, grain_lines
+
+    lines += grain_lines(grain_cargo(vessel, condition))
     for it in condition.items:
         lines.append(item_line(it.name, it.mass, it.lcg, it.vcg, it.tcg))
     return Loading(tuple(lines), totals(lines), tuple(counted.values()),

@@ -27,6 +27,7 @@ from reportgen.inputs.fields import (
     equal_lengths,
     increasing,
 )
+from reportgen.inputs.grain import VesselGrain, check_centres
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -307,6 +308,7 @@ class Vessel(Model):
         default_factory=list)
     calculation: Calculation = Calculation()
     hull: HullOffsets | None = None
+    grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
     notes: Any = None
 
     @model_validator(mode="after")
@@ -322,6 +324,7 @@ class Vessel(Model):
                              "offsets, and this file has none; give hull offsets (hull:) or the "
                              "booklet's flooding_angle table (no approximation of θf is safe "
                              "enough to print)")
+        check_centres(self.grain, self.particulars.length_bp)
         ids = [t.id for t in self.tanks]
         dup = sorted({i for i in ids if ids.count(i) > 1})
         if dup:

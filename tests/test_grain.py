@@ -1,0 +1,189 @@
+"""Grain in bulk (International Grain Code, MSC.23(59)): a box hold in a box barge, worked by
+hand. The barge (tests/eval_box.py) is 100 × 16 × 14 m; its GZ up to 40° at T = 7 m is the
+wall-sided formula (deck edge and bilge at atan(7/8) = 41.2°; Rawson & Tupper, Basic Ship
+Theory, ch. 4). The hold is a box x 30..70, y −4..4, z 1..11 m (l = 40, b = 8, depth 10)."""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+from eval_box import RHO, B, L, condition_dict, vessel_dict, wall_sided_gz, write_case
+from scipy.integrate import quad
+from scipy.optimize import brentq
+from shapely.geometry import box
+
+from reportgen import grainshift
+from reportgen.errors import InputError
+from reportgen.pipeline import evaluate_path
+
+HOLD_L, HOLD_B, HOLD_D, HOLD_Z0 = 40.0, 8.0, 10.0, 1.0
+SF = 1.25  # m³/t
+B15 = 1.12  # B 1.5 (recalled from memory): partly filled, total = 1.12 × transverse moment
+TAN25 = math.tan(math.radians(25.0))  # B 5.1 (recalled from memory): surface shifts to 25°
+T, KG = 7.0, 6.0
+DISP = RHO * L * B * T  # 11480 t
+
+
+def _partly_table() -> dict:
+    """The hold's partly-filled table at every metre of grain: volume l·b·s, centre (50,
+    z0 + s/2), VHM by the B 5 surface shift (grainshift, checked against the closed form
+    below) × 1.12 (B 1.5)."""
+    section = box(-HOLD_B / 2, HOLD_Z0, HOLD_B / 2, HOLD_Z0 + HOLD_D)
+    levels = [float(s) for s in range(11)]
+    return {"volume": [HOLD_L * HOLD_B * s for s in levels],
+            "lcg": [50.0] * 11, "vcg": [HOLD_Z0 + s / 2 for s in levels],
+            "vhm": [B15 * HOLD_L * grainshift.partly_moment_m3(section, HOLD_Z0 + s)
+                    for s in levels]}
+
+
+def _vessel(scale_vhm: float = 1.0) -> dict:
+    table = _partly_table()
+    table["vhm"] = [v * scale_vhm for v in table["vhm"]]
+    hold = {"id": "H1", "name": "No.1 hold", "partly": table,
+            "filled": {"volume": HOLD_L * HOLD_B * HOLD_D, "lcg": 50.0,
+                       "vcg": HOLD_Z0 + HOLD_D / 2, "vhm": 100.0}}
+    return vessel_dict(criteria=("grain.2008",), grain={"compartments": [hold]})
+
+
+def _run(tmp_path, level_m: float = 5.0, scale_vhm: float = 1.0, **grain_extra) -> dict:
+    """The barge at T = 7 m and KG 6.0 m with the hold filled to `level_m` of grain."""
+    volume = HOLD_L * HOLD_B * level_m
+    mass_grain, vcg_grain = volume / SF, HOLD_Z0 + level_m / 2
+    rest = DISP - 1000.0 - mass_grain
+    item = {"name": "Ballast and stores", "mass": rest, "lcg": 50.0,
+            "vcg": (DISP * KG - 1000.0 * 4.0 - mass_grain * vcg_grain) / rest}
+    grain = {"stowage_factor": SF, "compartments": {"H1": {"volume": volume}}}
+    grain.update(grain_extra)
+    cond = condition_dict(items=[item], grain=grain)
+    return evaluate_path(write_case(tmp_path, cond, _vessel(scale_vhm))).to_dict()
+
+
+# --- B 5: the surface shift of a partly filled box hold -------------------------------------
+
+
+def test_box_hold_vhm_closed_form():
+    """B 5.1 (recalled from memory): the level surface turns to 25° about the centreline; the
+    wedge ∫ y·(y·tan 25°) dy over −b/2..b/2 = b³·tan 25°/12 m³ per metre, valid while
+    (b/2)·tan 25° = 1.865 m ≤ the grain depth and the headroom. × l = 40 m, × 1.12 (B 1.5,
+    the vertical shift of the surface, recalled from memory)."""
+    by_hand = 1.12 * 40.0 * 8.0 ** 3 * TAN25 / 12.0  # = 891.33 m⁴
+    assert by_hand == pytest.approx(891.33, abs=0.01)
+    section = box(-4.0, 1.0, 4.0, 11.0)
+    for level in (3.0, 6.0, 9.0):  # grain 2, 5 and 8 m deep: the wedge clears both
+        assert B15 * 40.0 * grainshift.partly_moment_m3(section, level) == pytest.approx(
+            by_hand, rel=1e-9)
+    # Shallow grain (0.5 m deep): the wedge is cut by the floor, so the moment is smaller.
+    assert grainshift.partly_moment_m3(section, 1.5) < by_hand / (1.12 * 40.0)
+
+
+def test_trimmed_void_shift_by_hand():
+    """B 1.1.1 and B 2 (recalled from memory): a void Vd = 0.43 m deep under a flat deckhead
+    10 m wide becomes a triangle against the deckhead with its surface at 15°, same area:
+    ½·x²·tan 15° = 10·0.43 gives x; the void's centroid travels from y = 0 to 5 − x/3, so the
+    grain's moment per metre is 4.3·(5 − x/3) m³."""
+    x = math.sqrt(2 * 10 * 0.43 / math.tan(math.radians(15.0)))
+    section = box(-5.0, 0.0, 5.0, 10.0)
+    got = grainshift.shift_moment_m3(section, grainshift.trimmed_grain(section, 0.43), 15.0)
+    assert got == pytest.approx(4.3 * (5.0 - x / 3.0), rel=1e-9)
+
+
+# --- A 7 on the box barge ------------------------------------------------------------------
+
+
+def _arm(lambda0: float, heel_deg: float) -> float:
+    """A 7 figure: λ straight from λ0 at 0° to 0.8·λ0 at 40°."""
+    return lambda0 * (1.0 - 0.2 * heel_deg / 40.0)
+
+
+def test_heeling_arm_heel_and_residual_area_by_hand(tmp_path):
+    d = _run(tmp_path)
+    g = d["grain"]
+    vhm = 1.12 * 40.0 * 8.0 ** 3 * TAN25 / 12.0
+    # Mass of grain = volume / SF (B 1.4 / A 2.6): 1600 m³ / 1.25 = 1280 t.
+    line = next(ln for ln in d["loading"]["lines"] if ln["kind"] == "grain")
+    assert line["mass"] == pytest.approx(1280.0, rel=1e-12)
+    assert line["fsm"] == 0.0  # grain has no free surface of its own
+    assert d["loading"]["displacement"] == pytest.approx(DISP, rel=1e-12)
+    # λ0 = VHM/(SF·Δ), λ40 = 0.8·λ0 (A 7 figure notes)
+    lam0 = vhm / (SF * DISP)
+    assert g["vhm"] == pytest.approx(vhm, rel=1e-6)
+    assert g["heeling_moment"] == pytest.approx(vhm / SF, rel=1e-6)
+    assert g["lambda0"] == pytest.approx(lam0, abs=1e-6)  # the document rounds to 1e-6
+    assert g["lambda40"] == pytest.approx(0.8 * lam0, abs=1e-6)
+    # Angle of heel: wall-sided GZ = the straight arm, solved by scipy's brentq.
+    heel = brentq(lambda h: wall_sided_gz(T, KG, h) - _arm(lam0, h), 0.0, 30.0)
+    assert g["heel"] == pytest.approx(heel, abs=0.02)
+    # Residual area (A 7.1.2): GZ − λ grows to 40° (GZ rises, λ falls), θf = 90° here, so it
+    # runs from the heel to 40°; the integral of the wall-sided GZ in closed form (see
+    # test_box_barge_chain) less the trapezoid under the straight arm, in radians.
+    bm, gm = B * B / (12 * T), T / 2 + B * B / (12 * T) - KG
+
+    def ws_area(a_deg: float) -> float:
+        t = math.radians(a_deg)
+        return gm * (1 - math.cos(t)) + 0.5 * bm * (1 / math.cos(t) + math.cos(t) - 2)
+
+    trapezoid = 0.5 * (_arm(lam0, heel) + _arm(lam0, 40.0)) * math.radians(40.0 - heel)
+    residual = ws_area(40.0) - ws_area(heel) - trapezoid
+    assert g["residual_to"] == pytest.approx(40.0)
+    assert g["residual_to_reason"] == "forty"
+    assert g["residual_area"] == pytest.approx(residual, abs=5e-4)
+    # the same integral by scipy's quad, to check the closed form itself
+    assert residual == pytest.approx(
+        quad(lambda h: wall_sided_gz(T, KG, h) - _arm(lam0, h), heel, 40.0)[0]
+        * math.pi / 180.0, rel=1e-9)
+    crit = {c["id"]: c for c in d["criteria"]}
+    assert [c["id"] for c in d["criteria"]] == ["grain_heel", "grain_residual_area",
+                                                 "grain_gm0"]
+    assert crit["grain_heel"]["required"] == 12.0  # deck edge at 41.2° is not the lesser
+    assert crit["grain_heel"]["reference"].endswith("A 7.1.1")
+    assert crit["grain_gm0"]["attained"] == pytest.approx(gm, abs=0.01)
+    assert crit["grain_gm0"]["required"] == 0.30  # A 7.1.3
+    assert crit["grain_residual_area"]["required"] == 0.075  # A 7.1.2
+    assert d["passed"] is True
+
+
+def test_allowable_moment_is_the_limit(tmp_path):
+    """The allowable heeling moment reproduces the limit it reports: with the VHM scaled so
+    that the moment is just under it every grain criterion passes; just over it one fails."""
+    base = _run(tmp_path)["grain"]
+    allowable, actual = base["allowable_moment"], base["heeling_moment"]
+    assert base["moment_margin"] == pytest.approx(allowable - actual, rel=1e-9)
+    assert allowable > actual
+    under = _run(tmp_path, scale_vhm=allowable / actual * (1 - 1e-5))
+    over = _run(tmp_path, scale_vhm=allowable / actual * (1 + 1e-4))
+    assert under["passed"] is True
+    assert over["passed"] is False
+    assert over["grain"]["heeling_moment"] > allowable
+    # Here the heel limit governs: at the allowable moment the angle of heel is 12°.
+    failed = [c["id"] for c in over["criteria"] if not c["passed"]]
+    assert failed == ["grain_heel"]
+    assert under["grain"]["heel"] == pytest.approx(12.0, abs=1e-3)
+
+
+def test_mass_given_and_filled_states(tmp_path):
+    """A partly filled compartment given by mass: volume = mass·SF (A 2.6)."""
+    d = _run(tmp_path, level_m=5.0, compartments={"H1": {"mass": 1280.0}})
+    line = next(ln for ln in d["loading"]["lines"] if ln["kind"] == "grain")
+    assert line["volume"] == pytest.approx(1600.0)
+    c = d["grain"]["compartments"][0]
+    assert (c["state"], c["vhm"]) == ("partly", pytest.approx(891.33, abs=0.01))
+
+
+@pytest.mark.parametrize("grain, message", [
+    ({"stowage_factor": SF, "compartments": {"H9": {"volume": 10.0}}}, "unknown grain"),
+    ({"stowage_factor": SF, "compartments": {"H1": {"volume": 99999.0}}}, "outside"),
+    ({"stowage_factor": SF, "compartments": {"H1": {"filled": "untrimmed"}}},
+     "filled_untrimmed_vhm"),
+    ({"stowage_factor": SF, "compartments": {"H1": {"volume": 5.0, "mass": 4.0}}},
+     "exactly one"),
+])
+def test_bad_grain_input_is_refused(tmp_path, grain, message):
+    cond = condition_dict(items=[], grain=grain)
+    with pytest.raises(InputError, match=message):
+        evaluate_path(write_case(tmp_path, cond, _vessel()))
+
+
+def test_grain_set_without_grain_is_refused(tmp_path):
+    with pytest.raises(InputError, match="needs the condition's grain"):
+        evaluate_path(write_case(tmp_path, condition_dict(items=[]), _vessel()))
