@@ -27,7 +27,7 @@ _FAR_M = 1.0e3  # half-planes are drawn as polygons this far beyond the section
 
 def below(section: Polygon, level_z: float, slope: float = 0.0, pivot_y: float = 0.0) -> Polygon:
     """The part of `section` below the line z = level + slope·(y − pivot) (m)."""
-    y0, z0, y1, z1 = section.bounds
+    y0, z0, y1, _ = section.bounds
     ya, yb = y0 - _FAR_M, y1 + _FAR_M
     cut = Polygon([(ya, z0 - _FAR_M), (yb, z0 - _FAR_M),
                    (yb, level_z + slope * (yb - pivot_y)),

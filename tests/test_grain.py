@@ -187,3 +187,51 @@ def test_bad_grain_input_is_refused(tmp_path, grain, message):
 def test_grain_set_without_grain_is_refused(tmp_path):
     with pytest.raises(InputError, match="needs the condition's grain"):
         evaluate_path(write_case(tmp_path, condition_dict(items=[]), _vessel()))
+
+
+# --- A 7.1.2: the end of the residual area -------------------------------------------------
+
+
+def _hump_curve(amp_m: float = 0.6):
+    """An analytic GZ = A·sin 3θ (KG 0, TCG 0): its peak at 30° lies inside 40°; KN sampled
+    every degree and splined as the cross curves are (reportgen.stability.odd_spline)."""
+    import numpy as np
+
+    from reportgen.stability import gz_curve, odd_spline
+
+    heel = np.arange(0.0, 91.0)
+    kn = amp_m * np.sin(np.radians(3 * heel))
+    return gz_curve(odd_spline(heel, kn), 0.0, 0.0, 90.0)
+
+
+def test_residual_area_ends_at_greatest_difference_or_flooding():
+    from reportgen import grain
+
+    amp, lam0 = 0.6, 0.2
+    curve = _hump_curve(amp)
+    heel = brentq(lambda h: amp * math.sin(math.radians(3 * h)) - _arm(lam0, h), 0.0, 30.0)
+    # d/dθ (A sin 3θ − λ0(1 − θ/200)) = 0 with θ in degrees:
+    # 3A·cos 3θ·π/180 + λ0/200 = 0  ->  θ = acos(−λ0/200·180/(3Aπ))/3, just past the 30° peak.
+    peak = math.degrees(math.acos(-lam0 / 200 * 180 / (3 * amp * math.pi))) / 3
+    assert 30.0 < peak < 31.0
+
+    def residual(end: float) -> float:
+        # ∫ A sin 3θ dθ = A/3·(cos 3a − cos 3b), θ in radians; less the trapezoid under λ
+        a, b = math.radians(heel), math.radians(end)
+        gz = amp / 3 * (math.cos(3 * a) - math.cos(3 * b))
+        return gz - 0.5 * (_arm(lam0, heel) + _arm(lam0, end)) * (b - a)
+
+    g = grain.stability(curve, lam0, flooding_deg=90.0, deck_edge_deg=45.0)
+    assert g.heel_deg == pytest.approx(heel, abs=1e-3)
+    assert (g.residual_to_reason, g.residual_to_deg) == ("max_difference",
+                                                         pytest.approx(peak, abs=0.01))
+    assert g.residual_area == pytest.approx(residual(peak), abs=1e-4)
+    g = grain.stability(curve, lam0, flooding_deg=25.0, deck_edge_deg=45.0)
+    assert (g.residual_to_reason, g.residual_to_deg) == ("flooding", 25.0)
+    assert g.residual_area == pytest.approx(residual(25.0), abs=1e-4)
+    # A 7.1.1: the deck-edge angle caps the heel limit when it is below 12°.
+    assert grain.stability(curve, lam0, 90.0, deck_edge_deg=9.0).heel_limit_deg == 9.0
+    # GZ never reaching the arm: no angle of heel, no residual area.
+    g = grain.stability(curve, 0.8, 90.0, 45.0)  # above max GZ/(1 − θ/200)
+    assert (g.heel_deg, g.residual_area) == (None, None)
+    assert not grain.passes(g)
