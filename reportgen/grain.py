@@ -89,12 +89,14 @@ def _difference(curve: GZCurve, lambda0: float):
 
 
 def heel_angle_deg(curve: GZCurve, lambda0: float) -> float | None:
-    """The angle of heel from the grain shift (deg): the first angle from 0° where GZ rises
-    through the heeling arm (the grid of the curve brackets it, scipy's brentq finds it).
+    """The angle of heel from the grain shift (deg): 0° when GZ at 0° is not below the arm,
+    else the first angle where GZ rises through the heeling arm (the grid of the curve brackets it, scipy's brentq finds it).
     None when GZ does not reach the arm within the cross curves."""
     gh, gv = curve.grid
     keep = gh >= 0.0
     heel, f = gh[keep], gv[keep] - heeling_arm_m(lambda0, gh[keep])
+    if f[0] >= 0.0:  # no arm (or a rounding residue of GZ at 0°): upright
+        return 0.0
     up = np.nonzero((f[:-1] <= 0.0) & (f[1:] > 0.0))[0]
     if not len(up):
         return None

@@ -61,17 +61,31 @@ def partly_moment_m3(section: Polygon, level_z: float, angle_deg: float = 25.0) 
     return shift_moment_m3(section, below(section, level_z), angle_deg)
 
 
-def trimmed_grain(section: Polygon, void_depth_m: float) -> Polygon:
+HATCH_VOID_M = 0.150  # B 1.1.2: the void within a filled hatchway, 150 mm (published text)
+
+
+def trimmed_grain(section: Polygon, void_depth_m: float,
+                  hatch_half_breadth_m: float | None = None) -> Polygon:
     """B 1.1.1: a filled, trimmed section with a void of average depth Vd (m) under a flat
-    deckhead (the section's top): the grain lies below top − Vd."""
-    return below(section, section.bounds[3] - void_depth_m)
+    deckhead (the section's top); with a hatchway (|y| ≤ its half-breadth, m) the void there is
+    150 mm instead (B 1.1.2, the coaming not modelled: the hatchway's top taken at the
+    deckhead)."""
+    top = section.bounds[3]
+    grain = below(section, top - void_depth_m)
+    if hatch_half_breadth_m is None:
+        return grain
+    hatch = shapely.intersection(below(section, top - HATCH_VOID_M),
+                                 shapely.box(-hatch_half_breadth_m, section.bounds[1],
+                                             hatch_half_breadth_m, top))
+    return shapely.union(grain, hatch)
 
 
 def untrimmed_grain(section: Polygon, hatch_half_breadth_m: float,
                     slope_deg: float = 30.0) -> Polygon:
     """B 1.1.3: filled, untrimmed: outside the hatchway (|y| > the hatch half-breadth) the
-    grain surface slopes down into the void under the deck at 30° from the hatch edge."""
-    top = section.bounds[3]
+    grain surface slopes down into the void under the deck at 30° from the hatch edge; within
+    the hatchway a void of 150 mm (B 1.1.2)."""
+    top = section.bounds[3] - HATCH_VOID_M
     s = math.tan(math.radians(slope_deg))
     stbd = below(section, top, -s, hatch_half_breadth_m)
     return shapely.intersection(stbd, below(section, top, s, -hatch_half_breadth_m))

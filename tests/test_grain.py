@@ -229,6 +229,10 @@ def test_residual_area_ends_at_greatest_difference_or_flooding():
     g = grain.stability(curve, lam0, flooding_deg=25.0, deck_edge_deg=45.0)
     assert (g.residual_to_reason, g.residual_to_deg) == ("flooding", 25.0)
     assert g.residual_area == pytest.approx(residual(25.0), abs=1e-4)
+    # No heeling arm: upright (GZ(0°) = 0 is not below the arm), the area to the GZ peak.
+    assert grain.heel_angle_deg(curve, 0.0) == 0.0
+    assert grain.stability(curve, 0.0, 90.0, 45.0).residual_area == pytest.approx(
+        amp / 3 * (1 - math.cos(math.radians(90.0))), abs=1e-4)  # ∫0..30° A sin 3θ = A/3
     # A 7.1.1: the deck-edge angle caps the heel limit when it is below 12°.
     assert grain.stability(curve, lam0, 90.0, deck_edge_deg=9.0).heel_limit_deg == 9.0
     # GZ never reaching the arm: no angle of heel, no residual area.
