@@ -239,3 +239,26 @@ def test_residual_area_ends_at_greatest_difference_or_flooding():
     g = grain.stability(curve, 0.8, 90.0, 45.0)  # above max GZ/(1 − θ/200)
     assert (g.heel_deg, g.residual_area) == (None, None)
     assert not grain.passes(g)
+
+
+def test_sheet_has_the_grain_section(tmp_path):
+    """The sheet's grain section names each paragraph of A 7.1 it applies and prints the
+    figure with the residual area's value in its legend (the same value as the results)."""
+    from reportgen.inputs import load_case
+    from reportgen.pipeline import evaluate
+    from reportgen.report.render import sheet_html
+
+    _run(tmp_path)  # writes box.yaml and cond.yaml
+    case = load_case(tmp_path / "cond.yaml")
+    results = evaluate(case)
+    html = sheet_html(case, results)
+    assert "5. Grain in bulk (International Grain Code)" in html
+    assert "6. Assumptions" in html
+    for ref in ("A 7.1.1", "A 7.1.2", "A 7.1.3", "B 1.5"):
+        assert ref in html
+    import base64
+    import re
+
+    svg = base64.b64decode(re.search(r'id="figure-grain">\s*<img src="data:image/svg\+xml;'
+                                     r'base64,([^"]+)"', html).group(1)).decode()
+    assert f"Residual area = {results.grain.residual_area:.4f} m·rad" in svg

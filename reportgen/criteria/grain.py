@@ -5,6 +5,7 @@ areas in m·rad, levers in m."""
 from __future__ import annotations
 
 from reportgen.criteria.core import Check, State, at_least
+from reportgen.errors import InputError
 from reportgen.grain import GM0_M, RESIDUAL_AREA_MRAD
 
 SET = "grain.2008"
@@ -34,4 +35,7 @@ def grain_gm0(s: State) -> Check:
 
 
 def checks(s: State) -> list[Check]:
+    if s.grain is None:
+        raise InputError(f"criteria: the set {SET} needs grain on board (the condition's grain "
+                         f"block with its stowage factor and compartments)")
     return [grain_heel(s), grain_residual_area(s), grain_gm0(s)]
