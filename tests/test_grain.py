@@ -262,3 +262,17 @@ def test_sheet_has_the_grain_section(tmp_path):
     svg = base64.b64decode(re.search(r'id="figure-grain">\s*<img src="data:image/svg\+xml;'
                                      r'base64,([^"]+)"', html).group(1)).decode()
     assert f"Residual area = {results.grain.residual_area:.4f} m·rad" in svg
+
+
+@pytest.mark.parametrize("change, message", [
+    (lambda h: h["partly"].update(vhm=h["partly"]["vhm"][:-1]), "same number of rows"),
+    (lambda h: h["filled"].update(volume=100.0), "exceeds the filled volume"),
+    (lambda h: h["filled"].update(vcg=-1.0), "outside the ship"),
+    (lambda h: h["partly"].update(lcg=[500.0] * 11), "outside the ship"),
+])
+def test_bad_grain_data_in_the_vessel_file_is_refused(tmp_path, change, message):
+    vessel = _vessel()
+    change(vessel["grain"]["compartments"][0])
+    grain = {"stowage_factor": SF, "compartments": {"H1": {"volume": 1600.0}}}
+    with pytest.raises(InputError, match=message):
+        evaluate_path(write_case(tmp_path, condition_dict(items=[], grain=grain), vessel))
