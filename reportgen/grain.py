@@ -5,8 +5,15 @@ moments, the angle of heel, the residual area and the allowable heeling moment.
 Units: volumes m³, volumetric heeling moments (VHM) m⁴, stowage factor SF m³/t, mass t,
 heeling moments t·m, levers m, angles deg (radians inside the integrals), areas m·rad.
 
-Sources (the Code's text as published, e.g. the consolidated text of MSC.23(59) on
-puc.overheid.nl, "GRAIN International Code for the safe carriage of grain in bulk"):
+Sources. Found in published copies of the Code's text: A 2 (definitions; the consolidated text
+of MSC.23(59) on puc.overheid.nl, "GRAIN International Code for the safe carriage of grain in
+bulk"), A 7.1.1 to A 7.1.3 (reproduced word for word on thenauticalsite.in, "SOLAS - Carriage
+of Grain"), B 1.1.1 to B 1.1.3, B 1.2 and the first sentence of B 1.3 (a copy of Part B, "IMO-
+Vega", on scribd, and marinegyaan.com). The factors 1.06 and 1.12 and the shift angles 15° and
+25° agree with secondary sources found (marinegyaan.com: "an addition of 12%" for partly filled
+holds; a grain-loading presentation: "15° shift for filled compartment and 25° for partly
+filled"), but the paragraphs holding them were not found: their numbers are recalled from
+memory, as marked below.
 - A 2.6: the stowage factor is the volume per unit weight of the cargo as attested by the
   loading facility.
 - A 7.1.1: the angle of heel due to the shift of grain ≤ 12°, or (ships constructed on or after
@@ -21,10 +28,13 @@ puc.overheid.nl, "GRAIN International Code for the safe carriage of grain in bul
 - A 7, figure A 7 and its notes: λ0 = assumed volumetric heeling moment due to transverse
   grain shift / (stowage factor × displacement); λ40 = 0.8 × λ0; the heeling arm curve is the
   straight line between them; the displacement is the weight of ship, fuel, fresh water,
-  stores etc. and cargo; the righting arm curve from cross curves that include 12° and 40°.
-- B 1.3 (recalled from memory): in a "filled compartment, trimmed" the cargo's centre of gravity
-  is normally at the volumetric centre of the whole space; where the Administration allows the
-  voids to be accounted for in the VCG, total heeling moment = 1.06 × the transverse moment.
+  stores etc. and cargo; the righting arm curve from cross curves that include 12° and 40°
+  (these notes as reproduced in "Stability Notes: Bulk Grain Cargoes", found on scribd; the
+  straight line between λ0 and λ40 is that of the figure, recalled from memory).
+- B 1.3: in a "filled compartment, trimmed" the cargo's centre of gravity is normally at the
+  volumetric centre of the whole space (found); where the Administration allows the voids to be
+  accounted for in the VCG, total heeling moment = 1.06 × the transverse moment (recalled from
+  memory).
 - B 1.4 (recalled from memory): the cargo of a filled compartment weighs the volume of the whole
   space divided by the stowage factor.
 - B 1.5 (recalled from memory): in partly filled compartments, total heeling moment = 1.12 ×
