@@ -276,3 +276,36 @@ def test_bad_grain_data_in_the_vessel_file_is_refused(tmp_path, change, message)
     grain = {"stowage_factor": SF, "compartments": {"H1": {"volume": 1600.0}}}
     with pytest.raises(InputError, match=message):
         evaluate_path(write_case(tmp_path, condition_dict(items=[], grain=grain), vessel))
+
+
+def test_hold_data_from_a_box_hull_by_hand():
+    """reportgen.hull.grainholds (the demo ship's grain data) on a box hull 100 × 16 × 14 m and
+    the box hold of this file: volume l·b·s and centre (50, z0 + s/2) by hand; the partly-filled
+    VHM at 5 m of grain is the closed form of B 5.1 × 1.12 (B 1.5) above; a filled, trimmed hold
+    with a 0.43 m void over the whole deckhead (no hatchway) is the void shift worked by hand in
+    test_trimmed_void_shift_by_hand, × the length."""
+    import numpy as np
+    from hull_helpers import box_stations
+
+    from reportgen.hull.compartments import TankBox
+    from reportgen.hull.grainholds import hold_grain, void_depth_m
+    from reportgen.hull.sections import hull_from_stations
+
+    hull = hull_from_stations(box_stations(100.0, 16.0, 14.0))
+    hold = TankBox(30.0, 70.0, -4.0, 4.0, 1.0, 11.0)
+    g = hold_grain(hull, hold, np.array([0.0, 5.0, 10.0]), void_depth_m(430.0, 600.0),
+                   hatch_half_breadth_m=4.0)  # hatchway as wide as the hold: 150 mm void
+    p = g["partly"]
+    assert p["volume"] == pytest.approx([0.0, 1600.0, 3200.0], abs=1e-6)
+    assert p["lcg"][1:] == pytest.approx([50.0, 50.0], abs=1e-9)
+    assert p["vcg"][1:] == pytest.approx([3.5, 6.0], abs=1e-9)
+    assert p["vhm"][1] == pytest.approx(1.12 * 40.0 * 8.0 ** 3 * TAN25 / 12.0, rel=1e-6)
+    assert p["vhm"][2] == pytest.approx(0.0, abs=1e-6)  # full to the deckhead: nothing shifts
+    # B 1.1.2: a 150 mm void across the 8 m hatchway; shifted to 15° it becomes a triangle
+    # ½·x²·tan 15° = 8·0.15 against the deckhead (the void-shift of the test above).
+    x = math.sqrt(2 * 8 * 0.15 / math.tan(math.radians(15.0)))
+    assert g["filled"]["vhm"] == pytest.approx(40.0 * 1.2 * (4.0 - x / 3.0), rel=1e-6)
+    assert g["filled"]["volume"] == pytest.approx(3200.0)
+    # B 1.1.1: Vd = Vd1 + 0.75·(d − 600) mm, never below 100 mm
+    assert void_depth_m(430.0, 800.0) == pytest.approx(0.58)
+    assert void_depth_m(50.0, 500.0) == pytest.approx(0.10)
