@@ -59,7 +59,6 @@ HEEL_LIMIT_DEG = 12.0  # A 7.1.1
 RESIDUAL_AREA_MRAD = 0.075  # A 7.1.2
 RESIDUAL_END_DEG = 40.0  # A 7.1.2
 GM0_M = 0.30  # A 7.1.3
-VERTICAL_SHIFT_FILLED = 1.06  # B 1.3 (recalled from memory)
 VERTICAL_SHIFT_PARTLY = 1.12  # B 1.5 (recalled from memory)
 FILLED_SHIFT_DEG = 15.0  # B 2 (recalled from memory)
 PARTLY_SHIFT_DEG = 25.0  # B 5.1 (recalled from memory)

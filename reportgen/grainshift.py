@@ -89,10 +89,3 @@ def untrimmed_grain(section: Polygon, hatch_half_breadth_m: float,
     s = math.tan(math.radians(slope_deg))
     stbd = below(section, top, -s, hatch_half_breadth_m)
     return shapely.intersection(stbd, below(section, top, s, -hatch_half_breadth_m))
-
-
-def box_partly_moment_m3(breadth_m: float, angle_deg: float = 25.0) -> float:
-    """Closed form for a rectangular section whose tilted surface stays clear of floor and
-    deckhead ((b/2)·tan α ≤ the depth of grain and ≤ the headroom): the wedge
-    ∫ y·(y·tan α) dy over −b/2..b/2 = b³·tan α / 12 (m³ per m)."""
-    return breadth_m ** 3 * math.tan(math.radians(angle_deg)) / 12.0
