@@ -213,7 +213,7 @@ class LoadLine(Section):
 class GrainCompartment(Section):
     id: str
     name: str
-    state: Literal["trimmed", "untrimmed", "partly"]
+    state: Literal["trimmed", "untrimmed", "partly"]  # filled trimmed or untrimmed, or partly
     volume: F  # m³
     mass: F  # t
     lcg: F  # m from AP
@@ -228,11 +228,11 @@ class Grain(Section):
     stowage_factor: F  # m³/t
     vhm: F  # m⁴, Σ of the compartments
     heeling_moment: F  # t·m, ΣVHM / SF
-    lambda0: F  # m
-    lambda40: F  # m
+    lambda0: F  # m, grain heeling arm at 0°: ΣVHM / (SF·Δ)
+    lambda40: F  # m, at 40°: 0.8·λ0
     heel: OptF  # deg; None: GZ does not reach the heeling arm
-    residual_area: OptF  # m·rad
-    residual_to: F  # deg
+    residual_area: OptF  # m·rad, between GZ and the heeling arm (A 7.1.2)
+    residual_to: F  # deg, the end of the residual area
     allowable_moment: OptF  # t·m; None: no grain heeling moment passes
     heel_limit: F  # deg, min(12°, deck edge)
     residual_to_reason: Literal["forty", "flooding", "max_difference"]

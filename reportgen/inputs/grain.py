@@ -60,7 +60,7 @@ class GrainCompartment(Model):
     name: Text
     filled: FilledGrain
     filled_untrimmed_vhm: NonNegative | None = None  # m⁴ (A 2.3, B 1.1.3)
-    partly: PartlyGrain | None = None
+    partly: PartlyGrain | None = None  # partly filled (A 2.4): centre and VHM by volume
 
     @model_validator(mode="after")
     def _partly_within(self) -> GrainCompartment:
@@ -71,7 +71,7 @@ class GrainCompartment(Model):
 
 
 class VesselGrain(Model):
-    compartments: Annotated[list[GrainCompartment], Field(min_length=1)]
+    compartments: Annotated[list[GrainCompartment], Field(min_length=1)]  # each cargo space
 
     @model_validator(mode="after")
     def _unique(self) -> VesselGrain:
@@ -85,7 +85,7 @@ class VesselGrain(Model):
 class GrainFilling(Model):
     """One compartment's grain: filled (trimmed | untrimmed), or partly by volume or mass."""
 
-    filled: Literal["trimmed", "untrimmed"] | None = None
+    filled: Literal["trimmed", "untrimmed"] | None = None  # a filled compartment (A 2.2, A 2.3)
     volume: Positive | None = None  # m³
     mass: Positive | None = None  # t
 
@@ -100,7 +100,7 @@ class GrainFilling(Model):
 
 class ConditionGrain(Model):
     stowage_factor: Annotated[float, Field(ge=0.5, le=5.0)]  # m³/t (grain: about 1.2 to 2.5)
-    compartments: Annotated[dict[str, GrainFilling], Field(min_length=1)]
+    compartments: Annotated[dict[str, GrainFilling], Field(min_length=1)]  # by compartment id
 
 
 def check_grain(cond, vessel, name: str, raw: bytes) -> None:
