@@ -18,7 +18,6 @@ from dataclasses import dataclass
 import numpy as np
 
 from reportgen.grain import grain_mass_t, heeling_moment_tm
-from reportgen.loading import Line
 
 
 @dataclass(frozen=True)
@@ -72,11 +71,3 @@ def grain_cargo(vessel, condition) -> GrainCargo | None:
     vhm = float(sum(x.vhm for x in loads))
     return GrainCargo(sf, loads, vhm, heeling_moment_tm(vhm, sf))
 
-
-def grain_lines(cargo: GrainCargo | None) -> list[Line]:
-    """One loading line per compartment (kind "grain", no free-surface moment)."""
-    if cargo is None:
-        return []
-    return [Line("grain", x.id, x.name, "grain", None, None, None, x.volume,
-                  1.0 / cargo.stowage_factor, x.mass, x.lcg, x.vcg, 0.0, 0.0, None)
-            for x in cargo.loads]

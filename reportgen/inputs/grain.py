@@ -24,7 +24,6 @@ from reportgen.inputs.fields import (
     Text,
     equal_lengths,
 )
-from reportgen.inputs.tablecheck import OVERHANG_FRACTION
 
 GRAIN_SET = "grain.2008"
 
@@ -147,18 +146,3 @@ def check_grain(cond, vessel, name: str, raw: bytes) -> None:
                                  f"{volume:.1f} m³ of grain is outside the partly-filled table "
                                  f"of {cid} ({lo:g} to {hi:g} m³)")
 
-
-def check_centres(grain: VesselGrain | None, lpp_m: float) -> None:
-    """ValueError when a compartment's centre lies outside the ship: x beyond the overhangs
-    of reportgen.inputs.tablecheck (those of reportgen.plausible), or z below the base."""
-    if grain is None:
-        return
-    x_lo, x_hi = -OVERHANG_FRACTION * lpp_m, (1.0 + OVERHANG_FRACTION) * lpp_m
-    for c in grain.compartments:
-        rows = [(c.filled.lcg, c.filled.vcg)]
-        if c.partly is not None:
-            rows += list(zip(c.partly.lcg, c.partly.vcg, strict=True))
-        for lcg, vcg in rows:
-            if not x_lo <= lcg <= x_hi or vcg < 0.0:
-                raise ValueError(f"grain compartment {c.id}: centre (lcg {lcg:g}, vcg {vcg:g}) "
-                                 f"m lies outside the ship")

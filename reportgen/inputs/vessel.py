@@ -27,8 +27,7 @@ from reportgen.inputs.fields import (
     equal_lengths,
     increasing,
 )
-from reportgen.inputs.grain import VesselGrain, check_centres
-from reportgen.inputs.tablecheck import table_problems
+from reportgen.inputs.grain import VesselGrain
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -325,7 +324,6 @@ class Vessel(Model):
                              "offsets, and this file has none; give hull offsets (hull:) or the "
                              "booklet's flooding_angle table (no approximation of θf is safe "
                              "enough to print)")
-        check_centres(self.grain, self.particulars.length_bp)
         ids = [t.id for t in self.tanks]
         dup = sorted({i for i in ids if ids.count(i) > 1})
         if dup:
@@ -340,9 +338,6 @@ class Vessel(Model):
                                  f"tanks of this vessel that name each other")
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
-        problems = table_problems(self)
-        if problems:
-            raise ValueError("implausible tables: " + "; ".join(problems))
         return self
 
     @property
