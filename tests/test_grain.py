@@ -309,3 +309,20 @@ def test_hold_data_from_a_box_hull_by_hand():
     # B 1.1.1: Vd = Vd1 + 0.75·(d − 600) mm, never below 100 mm
     assert void_depth_m(430.0, 800.0) == pytest.approx(0.58)
     assert void_depth_m(50.0, 500.0) == pytest.approx(0.10)
+
+
+def test_heeling_arm_is_the_straight_line_of_figure_a7():
+    """Figure A 7 and its notes: λ0 at 0°, λ40 = 0.8·λ0 at 40°, a straight line between (here
+    against numpy's linear interpolation between the two points); its area by the trapezoid
+    equals scipy's quad."""
+    import numpy as np
+
+    from reportgen import grain
+
+    heel = np.array([0.0, 7.5, 12.0, 25.0, 40.0])
+    for lam0 in (0.05, 0.31):
+        line = np.interp(heel, [0.0, 40.0], [lam0, 0.8 * lam0])
+        assert grain.heeling_arm_m(lam0, heel) == pytest.approx(line, rel=1e-12)
+        assert grain.arm_area_mrad(lam0, 6.0, 33.0) == pytest.approx(
+            quad(lambda h, lam=lam0: float(np.interp(h, [0.0, 40.0], [lam, 0.8 * lam])),
+                 6.0, 33.0)[0] * math.pi / 180.0, rel=1e-12)
