@@ -49,7 +49,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.optimize import brentq, minimize_scalar
+from scipy.optimize import brentq
 
 from reportgen.stability import DEG, GZCurve, area_mrad
 
@@ -62,8 +62,8 @@ GM0_M = 0.30  # A 7.1.3
 VERTICAL_SHIFT_PARTLY = 1.12  # B 1.5 (recalled from memory)
 FILLED_SHIFT_DEG = 15.0  # B 2 (recalled from memory)
 PARTLY_SHIFT_DEG = 25.0  # B 5.1 (recalled from memory)
-ALLOWABLE_SCAN = 40  # steps of the scan for the first failing heeling arm
-ALLOWABLE_BISECTIONS = 50  # then bisection of that step (relative precision 2⁻⁵⁰)
+ALLOWABLE_SCAN = 20  # steps of the scan for the first failing heeling arm
+ALLOWABLE_BISECTIONS = 20  # then bisection of that step (to 2⁻²⁰ of a step, ~1e-7 of the range)
 
 
 def grain_mass_t(volume_m3: float, stowage_factor_m3_t: float) -> float:
@@ -117,8 +117,9 @@ def heel_angle_deg(curve: GZCurve, lambda0: float) -> float | None:
 
 def max_difference_deg(curve: GZCurve, lambda0: float, start_deg: float,
                        end_deg: float) -> float:
-    """The angle (deg) of the greatest GZ − λ on [start, end]: the best grid point, refined by
-    scipy's bounded scalar minimiser between its neighbours."""
+    """The angle (deg) of the greatest GZ − λ on [start, end]: the best grid point, refined
+    where d(GZ − λ)/dθ = dGZ/dθ + 0.2·λ0/40° changes sign from + to − between its neighbours
+    (scipy's brentq)."""
     gh, gv = curve.grid
     inside = (gh > start_deg) & (gh < end_deg)
     heel = np.concatenate([[start_deg], gh[inside], [end_deg]])
@@ -126,11 +127,14 @@ def max_difference_deg(curve: GZCurve, lambda0: float, start_deg: float,
         - heeling_arm_m(lambda0, heel)
     i = int(np.argmax(f))
     if 0 < i < len(heel) - 1:
-        diff = _difference(curve, lambda0)
-        res = minimize_scalar(lambda h: -diff(h), bounds=(heel[i - 1], heel[i + 1]),
-                              method="bounded", options={"xatol": 1e-8})
-        if -res.fun > f[i]:
-            return float(res.x)
+        fall = lambda0 * (1.0 - LAMBDA40_FACTOR) / ARM_END_DEG  # −dλ/dθ, m per degree
+
+        def rate(h: float) -> float:
+            return float(curve.slope(h)) + fall
+
+        a, b = float(heel[i - 1]), float(heel[i + 1])
+        if rate(a) > 0.0 > rate(b):
+            return float(brentq(rate, a, b, xtol=1e-10))
     return float(heel[i])
 
 
