@@ -326,3 +326,19 @@ def test_heeling_arm_is_the_straight_line_of_figure_a7():
         assert grain.arm_area_mrad(lam0, 6.0, 33.0) == pytest.approx(
             quad(lambda h, lam=lam0: float(np.interp(h, [0.0, 40.0], [lam, 0.8 * lam])),
                  6.0, 33.0)[0] * math.pi / 180.0, rel=1e-12)
+
+
+def test_grain_loaded_without_the_grain_criteria_is_said(tmp_path):
+    """Grain on board with only IS Code sets chosen: the grain is loading, its quantities are
+    reported, and a warning says the shift is not checked (no grain criterion is run)."""
+    vessel = _vessel()
+    vessel["criteria"] = ["is2008.general"]
+    volume = HOLD_L * HOLD_B * 5.0
+    grain = {"stowage_factor": SF, "compartments": {"H1": {"volume": volume}}}
+    ballast = {"name": "Ballast", "mass": 4000.0, "lcg": 50.0, "vcg": 2.0}
+    d = evaluate_path(write_case(tmp_path, condition_dict(items=[ballast], grain=grain),
+                                 vessel)).to_dict()
+    assert {c["set"] for c in d["criteria"]} == {"is2008.general"}
+    assert any("grain.2008" in w and "not checked" in w for w in d["warnings"])
+    assert d["grain"]["vhm"] == pytest.approx(891.33, abs=0.01)
+    assert d["loading"]["displacement"] == pytest.approx(5000.0 + volume / SF)
