@@ -55,7 +55,7 @@ class _Loader(_Base):  # type: ignore[misc, valid-type]
         except (_Refused, InputError):
             raise
         except (ValueError, OverflowError, TypeError) as exc:
-            raise _Refused(f"cannot read this value: {exc}", node) from None
+            raise _Refused(_unreadable(node, exc), node) from None
         finally:
             self._depth -= 1
 
@@ -94,6 +94,16 @@ def _size(node: yaml.Node, memo: dict[int, int]) -> int:
     return total
 
 
+def _unreadable(node: yaml.Node, exc: Exception) -> str:
+    """Why a scalar could not be built, in the user's terms."""
+    text = str(node.value)[:40] + ("..." if len(str(node.value)) > 40 else "")
+    if node.tag.endswith(":timestamp"):
+        return f"{text!r} is not a date that exists (ISO 8601, YYYY-MM-DD)"
+    if node.tag.endswith((":int", ":float")):
+        return f"{text!r} is not a number reportgen can read ({len(str(node.value))} characters)"
+    return f"cannot read this value: {exc}"
+
+
 def decode(raw: bytes, name: str) -> str:
     """UTF-8 text of a file (a leading byte-order mark allowed)."""
     try:
@@ -110,15 +120,21 @@ def parse(raw: bytes, name: str) -> Any:
     """The data of a YAML file (one document); InputError naming the file and line."""
     text = decode(raw, name)
     loader = _Loader(text)
+    node = None
     try:
         node = loader.get_single_node()
         return loader.construct_document(node) if node is not None else None
     except _Refused as exc:
+        path = _path_to(node, exc.node) if node is not None else None
+        if path:
+            lines: dict[tuple, int] = {}
+            _walk(node, (), lines, set())
+            raise InputError(f"{name}: {where(path, lines)}: {exc}") from None
         raise InputError(f"{name}: {exc}{_line(exc.node)}") from None
     except yaml.MarkedYAMLError as exc:
         mark = exc.problem_mark or exc.context_mark
-        where = f" (line {mark.line + 1}, column {mark.column + 1})" if mark else ""
-        raise InputError(f"{name}: not valid YAML{where}: {exc.problem or exc}") from None
+        at = f" (line {mark.line + 1}, column {mark.column + 1})" if mark else ""
+        raise InputError(f"{name}: not valid YAML{at}: {exc.problem or exc}") from None
     except yaml.YAMLError as exc:
         raise InputError(f"{name}: not valid YAML: {exc}") from None
     except RecursionError:
@@ -155,6 +171,24 @@ def _walk(node: yaml.Node, path: tuple, lines: dict[tuple, int], seen: set[int])
     elif isinstance(node, yaml.SequenceNode):
         for i, item in enumerate(node.value):
             _walk(item, (*path, i), lines, seen)
+
+
+def _path_to(root: yaml.Node, target: yaml.Node | None) -> tuple | None:
+    """The key path of `target` inside the node tree `root` (None when it is not a value)."""
+    stack: list[tuple[yaml.Node, tuple]] = [(root, ())]
+    seen: set[int] = set()
+    while stack:
+        node, path = stack.pop()
+        if node is target:
+            return path
+        if id(node) in seen:
+            continue
+        seen.add(id(node))
+        if isinstance(node, yaml.MappingNode):
+            stack += [(v, (*path, k.value)) for k, v in node.value]
+        elif isinstance(node, yaml.SequenceNode):
+            stack += [(v, (*path, i)) for i, v in enumerate(node.value)]
+    return None
 
 
 def where(path: tuple, lines: dict[tuple, int]) -> str:
