@@ -11,6 +11,7 @@ of digits). Line numbers of every key are worked out only when there is an error
 from __future__ import annotations
 
 import datetime as dt
+import re
 from typing import Any
 
 import yaml
@@ -47,6 +48,11 @@ class _Loader(_Base):  # type: ignore[misc, valid-type]
                                f"(refused: a file that grows when read)", node)
             return self.constructed_objects[node]
         self._expanded += 1
+        numbers = _plain_numbers(node)
+        if numbers is not None:  # a row of a table: built at once (the bulk of a vessel file)
+            self._expanded += len(numbers)
+            self.constructed_objects[node] = numbers
+            return numbers
         self._depth += 1
         try:
             if self._depth > MAX_DEPTH:
@@ -92,6 +98,32 @@ def _size(node: yaml.Node, memo: dict[int, int]) -> int:
         total = 1
     memo[key] = total
     return total
+
+
+_FLOAT_TAG = "tag:yaml.org,2002:float"
+_INT_TAG = "tag:yaml.org,2002:int"
+_PLAIN_DECIMAL = re.compile(r"-?[0-9]+(\.[0-9]*)?([eE][-+]?[0-9]+)?")
+
+
+def _plain_numbers(node: yaml.Node) -> list | None:
+    """The numbers of a sequence of plain decimal scalars (what the safe constructor would
+    make of them: int for an int-tagged integer, float otherwise), or None when the sequence
+    holds anything else (left to the full constructor)."""
+    if not isinstance(node, yaml.SequenceNode) or not node.value:
+        return None
+    out = []
+    for child in node.value:
+        if not isinstance(child, yaml.ScalarNode) or child.style is not None:
+            return None
+        tag, value = child.tag, child.value
+        if tag == _FLOAT_TAG and _PLAIN_DECIMAL.fullmatch(value) and "." in value:
+            out.append(float(value))
+        elif tag == _INT_TAG and value.lstrip("-").isdigit() and len(value) < 20 and (
+                value.lstrip("-")[:1] != "0" or value.lstrip("-") == "0"):
+            out.append(int(value))
+        else:
+            return None
+    return out
 
 
 def _unreadable(node: yaml.Node, exc: Exception) -> str:
