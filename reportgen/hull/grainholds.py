@@ -14,9 +14,11 @@ with Simpson's rule (scipy), as the tank tables are. Units: m, m³, m⁴.
   volumetric centre of the whole space (B 1.3), so no vertical-shift factor is applied.
 - Filled, untrimmed: outside the hatchway (|y| > the hatch half-breadth) the grain slopes into
   the void under the deck at 30° from the hatch edge (B 1.1.3), 150 mm within the hatchway
-  (B 1.1.2), then shifts to 15° (B 2).
-- Partly filled: a level surface shifting to 25° (B 5.1, recalled from memory), the moment
-  × 1.12 for the vertical shift of the surface (B 1.5, recalled from memory).
+  (B 1.1.2), then shifts to 15° (B 3, the untrimmed compartment, as B 2; recalled from
+  memory).
+- Partly filled: a level surface shifting to 25° (B 5.1, recalled from memory; B 1.2, found in
+  the published text, places the partly filled pattern in B 5), the moment × 1.12 for the
+  vertical shift of the surface (B 1.5, recalled from memory).
 """
 
 from __future__ import annotations
