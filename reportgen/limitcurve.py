@@ -8,7 +8,8 @@ vessel's windage profile and nothing else on board, and made by the same `stages
 condition (so the KN, the flooding and deck-edge angles, the wind and roll quantities are taken
 exactly as a condition's would be); `reportgen.limits.limit_of` then searches KG from 0 upward.
 The criteria are the vessel's `criteria` without `booklet.limits` (the booklet's own curve
-cannot limit the curve that would replace it).
+cannot limit the curve that would replace it) and without `grain.2008` (its heeling moment is a
+property of a grain cargo, which an empty ship at a displacement does not have).
 """
 
 from __future__ import annotations
@@ -33,7 +34,7 @@ from reportgen.vesseldata import VesselData, vessel_data
 LIMITS_FORMAT = docinfo.LIMITS_FORMAT
 LIMITS_NAME = docinfo.LIMITS_NAME  # the embedded data document of a limits PDF
 REQUEST_NAME = docinfo.LIMITS_REQUEST_NAME  # what, beside the vessel file, the curve rests on
-NOT_ON_CURVE = ("booklet.limits",)
+NOT_ON_CURVE = ("booklet.limits", "grain.2008")  # the booklet's own curve; needs a grain cargo
 TRIM_MATCH_M = 0.001  # the upright trim must come out within this of the trim asked, m
 
 
@@ -56,8 +57,8 @@ def curve_sets(vessel: Vessel) -> list[str]:
     """The vessel's criteria sets the curve is found against."""
     sets = [s for s in vessel.criteria if s not in NOT_ON_CURVE]
     if not sets:
-        raise InputError("criteria: the vessel has no criteria set besides booklet.limits; a "
-                         "limiting KG curve needs Code criteria to bisect")
+        raise InputError("criteria: the vessel has no criteria set besides booklet.limits and "
+                         "grain.2008; a limiting KG curve needs Code criteria to bisect")
     return sets
 
 

@@ -8,14 +8,12 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from importlib import import_module
-from typing import TYPE_CHECKING, Literal
+from typing import TYPE_CHECKING, Any, Literal
 
 from reportgen.criteria.sets import SETS
 from reportgen.errors import InputError
 
 if TYPE_CHECKING:
-    from reportgen.criteria.booklet import Curve
-    from reportgen.criteria.weather import Weather
     from reportgen.stability import GZCurve
 
 
@@ -60,6 +58,7 @@ class State:
     the table); gz_max_deg: the angle of the greatest GZ on that credited range; gm_fluid_m:
     initial GM corrected for free surface; flooding_deg, deck_edge_deg: the angles at the
     condition's state; weather: the 2.3 quantities, None when no selected set needs them;
+    grain: the Grain Code A 7 quantities, None without grain on board;
     kg_fluid_m: KG corrected; displacement_t: the condition's displacement; booklet: the
     booklet's limiting curve, when a selected set needs it.
     """
@@ -70,10 +69,11 @@ class State:
     gm_fluid_m: float
     flooding_deg: float
     deck_edge_deg: float
-    weather: Weather | None = None
-    kg_fluid_m: float | None = None
-    displacement_t: float | None = None
-    booklet: Curve | None = None
+    weather: Any = None  # reportgen.criteria.weather.Weather, when the set needs it
+    grain: Any = None  # reportgen.grain.GrainStability, with grain on board
+    kg_fluid_m: float | None = None  # m
+    displacement_t: float | None = None  # t
+    booklet: Any = None  # reportgen.criteria.booklet.Curve, when a set needs it
 
 
 def needs(set_ids: list[str]) -> frozenset[str]:

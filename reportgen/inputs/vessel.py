@@ -27,7 +27,7 @@ from reportgen.inputs.fields import (
     equal_lengths,
     increasing,
 )
-from reportgen.inputs.tablecheck import table_problems
+from reportgen.inputs.grain import VesselGrain
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -327,6 +327,7 @@ class Vessel(Model):
     limiting_kg: LimitingCurve | None = None  # the booklet's curve (criteria set booklet.limits)
     limiting_gm: LimitingCurve | None = None  # the same as a minimum GM curve (gm:)
     hull: HullOffsets | None = None
+    grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
     notes: Any = None
 
     @model_validator(mode="after")
@@ -357,9 +358,6 @@ class Vessel(Model):
                                  f"tanks of this vessel that name each other")
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
-        problems = table_problems(self)
-        if problems:
-            raise ValueError("implausible tables: " + "; ".join(problems))
         return self
 
     def _booklet_curve(self) -> None:
