@@ -89,9 +89,9 @@ done
 echo "== Limiting KG curve of the demo ship (signed by the demo design office, verified)"
 $RG limits "$ship" > out/limits.txt || exit 1
 $RG limits "$ship" -o out/limits.pdf --force 2>/dev/null || exit 1
-rm -f out/limits.signed.pdf
+rm -f out/limits-signed.pdf
 $RG sign out/limits.pdf --role prepared --key out/ids/design-office/key.pem \
-    --cert out/ids/design-office/cert.pem -o out/limits.signed.pdf 2>/dev/null || exit 1
-$RG verify out/limits.signed.pdf --trust out/ids/design-office/cert.pem > out/limits.verify.txt \
-  || { echo "   out/limits.signed.pdf: VERIFICATION FAILED (see out/limits.verify.txt)"; exit 1; }
-echo "   out/limits.txt, out/limits.pdf, out/limits.signed.pdf (verified: out/limits.verify.txt)"
+    --cert out/ids/design-office/cert.pem -o out/limits-signed.pdf 2>/dev/null || exit 1
+$RG verify out/limits-signed.pdf --trust out/ids/design-office/cert.pem > out/limits.verify.txt \
+  || { echo "   out/limits-signed.pdf: VERIFICATION FAILED (see out/limits.verify.txt)"; exit 1; }
+echo "   out/limits.txt, out/limits.pdf, out/limits-signed.pdf (verified: out/limits.verify.txt)"
