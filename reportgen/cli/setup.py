@@ -39,6 +39,9 @@ def tables(vessel: Path, output: Path, even_keel: bool, force: bool) -> None:
 
         made = build_tables(model, even_keel=even_keel, progress=progress)
     text = vessel_text_with_tables(vessel.read_text(encoding="utf-8"), made)
+    from reportgen.cli.shipdata import with_tank_tables  # tanks given by geometry
+
+    text = with_tank_tables(text, model, vessel)
     write_atomic(output, text.encode("utf-8"), force=force)
     hydro, cross = made["hydrostatics"], made["cross_curves"]
     click.echo(

@@ -1,0 +1,246 @@
+"""Hull offsets from a closed hull mesh (a CAD export, STL or OBJ), by slicing it with trimesh.
+
+Axes as in SPEC.md (x from AP forward, y to starboard, z from the moulded baseline up), all
+lengths in m (after `scale`), areas m², volumes m³.
+
+At each station the mesh is cut by the plane x = const (trimesh.intersections.mesh_plane);
+the cut's segments are joined into rings and the section is their even-odd union (shapely).
+Its starboard half (y ≥ 0) gives the offsets from the keel (the lowest point on the
+centreline) round the outside to the deck edge: the run of the outline that goes inboard
+across the deck, nearly level (|dz| ≤ DECK_SLOPE·|dy|), is left out, so the written section
+closes across the deck by the straight line between its deck edges (SPEC's offsets). The
+stations are spaced evenly over the mesh's length; by default their number is doubled until
+the sections, integrated along the length with Simpson's rule, hold the mesh's own volume
+(trimesh's divergence-theorem integral over the closed surface) to VOLUME_TOL.
+"""
+
+from __future__ import annotations
+
+import io
+from collections.abc import Callable
+from dataclasses import dataclass, field
+
+import numpy as np
+import shapely
+from scipy.integrate import simpson
+from shapely.geometry import Polygon, box
+from shapely.geometry.polygon import orient
+
+MAX_FACES = 2_000_000
+MAX_STATIONS = 1001
+DEFAULT_STATIONS = 41  # the first try; doubled (2n − 1) until VOLUME_TOL is met
+MAX_AUTO_STATIONS = 321
+VOLUME_TOL = 0.001  # 0.1 %: a twentieth of Circ.1229's 2 % for displacement
+DECK_SLOPE = 0.25  # a deck run rises at most this much per unit of breadth (camber, sheer)
+SNAP_M = 1e-7  # cut points closer than this are one point
+Z_DECREASE_TOL_M = 0.001  # an outline may fall this much (tessellation noise) and is levelled
+DECIMALS = 4
+
+
+@dataclass
+class MeshStations:
+    """The offsets made from a mesh and what was learnt on the way."""
+
+    stations: list[tuple[float, np.ndarray]]  # (x m, starboard half-section (n, 2) y, z m)
+    mesh_volume_m3: float
+    section_volume_m3: float  # the cut sections integrated along x (Simpson)
+    offsets_volume_m3: float  # the written half-sections, mirrored, integrated along x
+    extents_m: tuple[float, float, float, float, float, float]  # x0, x1, y0, y1, z0, z1
+    warnings: list[str] = field(default_factory=list)
+
+
+def load_mesh(raw: bytes, file_type: str, scale: float = 1.0):
+    """A closed trimesh.Trimesh from the bytes of an STL or OBJ file, scaled to metres.
+    ValueError with the reason when it cannot be read or is not a closed surface."""
+    import trimesh
+
+    try:
+        mesh = trimesh.load_mesh(io.BytesIO(raw), file_type=file_type, process=True)
+    except Exception as exc:  # noqa: BLE001 - any reader failure is a bad file
+        raise ValueError(f"cannot read it as {file_type.upper()}: {exc}") from None
+    if not isinstance(mesh, trimesh.Trimesh) or len(mesh.faces) == 0:
+        raise ValueError("no triangles found in it")
+    if len(mesh.faces) > MAX_FACES:
+        raise ValueError(f"{len(mesh.faces):,} triangles is more than the limit of "
+                         f"{MAX_FACES:,}; reduce it in the CAD program")
+    if not np.all(np.isfinite(mesh.vertices)):
+        raise ValueError("some vertex coordinates are not finite numbers")
+    if scale != 1.0:
+        mesh.apply_scale(scale)
+    mesh.update_faces(mesh.nondegenerate_faces())
+    _check_closed(mesh)
+    if mesh.volume < 0:
+        mesh.invert()
+    return mesh
+
+
+def _check_closed(mesh) -> None:
+    """ValueError naming why `mesh` does not enclose a volume."""
+    _, counts = np.unique(mesh.edges_sorted, axis=0, return_counts=True)
+    open_edges = int(np.sum(counts == 1))
+    shared = int(np.sum(counts > 2))
+    if open_edges or shared:
+        parts = []
+        if open_edges:
+            parts.append(f"{open_edges} edges border only one triangle (holes in the surface: "
+                         f"an open deck, transom or a gap between patches)")
+        if shared:
+            parts.append(f"{shared} edges are shared by more than two triangles")
+        raise ValueError("the mesh is not closed (watertight): " + "; ".join(parts)
+                         + "; close it in the CAD program and export it again")
+    if not mesh.is_winding_consistent:
+        raise ValueError("the mesh's triangles are not consistently oriented (some face "
+                         "inwards); repair the normals in the CAD program")
+    if abs(mesh.volume) <= 0:
+        raise ValueError("the mesh encloses no volume")
+
+
+def _rings(segments_yz: np.ndarray, x_m: float) -> list[Polygon]:
+    lines = shapely.set_precision(shapely.linestrings(segments_yz), SNAP_M)
+    merged = shapely.line_merge(shapely.union_all(lines))
+    parts = shapely.get_parts(merged)
+    rings = []
+    for part in parts:
+        if part.is_empty:
+            continue
+        if not part.is_closed:
+            raise ValueError(f"the cut at x = {x_m:.4f} m does not close into a section")
+        poly = Polygon(part.coords)
+        if poly.area > 0:
+            rings.append(shapely.make_valid(poly))
+    return rings
+
+
+def section(mesh, x_m: float) -> Polygon | shapely.MultiPolygon:
+    """The cut of the mesh by the plane x = x_m, in (y, z), m (empty when it misses)."""
+    from trimesh.intersections import mesh_plane
+
+    seg = mesh_plane(mesh, [1.0, 0.0, 0.0], [x_m, 0.0, 0.0])
+    if len(seg) == 0:
+        return Polygon()
+    region = Polygon()
+    for ring in _rings(np.asarray(seg)[:, :, 1:3], x_m):
+        region = region.symmetric_difference(ring)  # even-odd: holes stay holes
+    return region
+
+
+def half_outline(sec, x_m: float, warnings: list[str]) -> np.ndarray | None:
+    """Starboard offsets (n, 2) of a section from the keel to the deck edge; None when the
+    section has no starboard part."""
+    half = sec.intersection(box(0.0, -1e6, 1e6, 1e6))
+    polys = [g for g in shapely.get_parts(half) if g.geom_type == "Polygon" and g.area > 0]
+    if not polys:
+        return None
+    main = max(polys, key=lambda g: g.area)
+    lost = half.area - main.area
+    if lost > 1e-6 * max(half.area, 1e-12):
+        warnings.append(f"x = {x_m:.3f} m: {len(polys) - 1} separate part(s) of the section "
+                        f"({lost:.4f} m² a side, {100 * lost / half.area:.2f} %) left out; "
+                        f"the offsets hold one outline per station")
+    if main.interiors:
+        warnings.append(f"x = {x_m:.3f} m: a hollow in the section is ignored (the offsets "
+                        f"give the outer surface)")
+    ring = np.asarray(orient(Polygon(main.exterior), sign=1.0).exterior.coords)[:-1]
+    tol = 1e-6 * max(1.0, float(np.max(ring[:, 0])))
+    on_cl = np.flatnonzero(np.abs(ring[:, 0]) <= tol)
+    if not on_cl.size:
+        raise ValueError(f"the section at x = {x_m:.4f} m does not reach the centreline "
+                         f"(y = 0): is the mesh placed with its centreline at y = 0?")
+    keel = int(on_cl[np.argmin(ring[on_cl, 1])])
+    ring = np.roll(ring, -keel, axis=0)
+    back = np.flatnonzero(np.abs(ring[1:, 0]) <= tol)
+    end = int(back[0]) + 1 if back.size else len(ring) - 1
+    path = ring[: end + 1]
+    # Leave out the deck: the last run going inboard, nearly level.
+    k = len(path) - 1
+    while k > 1:
+        dy, dz = path[k] - path[k - 1]
+        if dy < 0 and abs(dz) <= DECK_SLOPE * abs(dy):
+            k -= 1
+        else:
+            break
+    path = path[: k + 1].copy()
+    path[0, 0] = 0.0
+    drops = np.diff(path[:, 1])
+    if np.any(drops < -Z_DECREASE_TOL_M):
+        i = int(np.argmax(drops < -Z_DECREASE_TOL_M))
+        raise ValueError(f"the section at x = {x_m:.4f} m turns downward (z {path[i, 1]:.3f} to "
+                         f"{path[i + 1, 1]:.3f} m at y {path[i + 1, 0]:.3f} m); offsets run "
+                         f"from the keel to the deck edge with z rising (a tunnel or overhang "
+                         f"cannot be written as offsets)")
+    path[:, 1] = np.maximum.accumulate(path[:, 1])
+    path = np.round(path, DECIMALS) + 0.0
+    keep = np.ones(len(path), dtype=bool)
+    keep[1:] = np.any(np.diff(path, axis=0) != 0, axis=1)
+    path = path[keep]
+    if len(path) < 2:
+        path = np.array([path[0], path[0] + [0.0, 1e-4]])
+    return path
+
+
+def _cut_all(mesh, xs: np.ndarray, progress: Callable[[], None] | None):
+    x0, x1 = float(xs[0]), float(xs[-1])
+    nudge = 1e-6 * (x1 - x0)
+    out = []
+    for x in xs:
+        at = min(max(float(x), x0 + nudge), x1 - nudge)  # the end faces: just inside
+        out.append(section(mesh, at))
+        if progress is not None:
+            progress()
+    return out
+
+
+def mesh_stations(mesh, n_stations: int | None = None,
+                  progress: Callable[[], None] | None = None) -> MeshStations:
+    """Offsets of `mesh` (closed, from load_mesh) at n_stations evenly spaced stations from its
+    aft end to its fore end; None: DEFAULT_STATIONS, doubled until VOLUME_TOL is met (at most
+    MAX_AUTO_STATIONS). ValueError when a section cannot be written as offsets."""
+    (x0, y0, z0), (x1, y1, z1) = mesh.bounds
+    breadth = y1 - max(y0, -y1)
+    if y0 < -1e-6 * breadth and abs(y0 + y1) > 0.005 * (y1 - y0):
+        raise ValueError(f"the mesh is not symmetric about the centreline: y runs from "
+                         f"{y0:.3f} to {y1:.3f} m (a whole hull from -B/2 to B/2, or the "
+                         f"starboard half from 0, is expected)")
+    volume = float(mesh.volume)
+    warnings: list[str] = []
+    n = n_stations or DEFAULT_STATIONS
+    while True:
+        xs = np.linspace(x0, x1, n)
+        secs = _cut_all(mesh, xs, progress)
+        areas = np.array([s.area for s in secs])
+        sec_volume = float(simpson(areas, x=xs))
+        miss = abs(sec_volume - volume) / volume
+        if n_stations is not None or miss <= VOLUME_TOL or 2 * n - 1 > MAX_AUTO_STATIONS:
+            break
+        n = 2 * n - 1
+    if miss > VOLUME_TOL:
+        warnings.append(f"the sections at {n} stations integrate to {sec_volume:.3f} m³, "
+                        f"{100 * miss:.2f} % off the mesh's volume {volume:.3f} m³: give more "
+                        f"stations (--stations)")
+    stations: list[tuple[float, np.ndarray]] = []
+    for x, sec in zip(xs, secs, strict=True):
+        pts = half_outline(sec, float(x), warnings)
+        stations.append((round(float(x), DECIMALS) + 0.0, pts))
+    _fill_empty(stations)
+    written = np.array([2.0 * _half_area(p) for _, p in stations])
+    return MeshStations(stations, volume, sec_volume,
+                        float(simpson(written, x=np.array([s[0] for s in stations]))),
+                        (x0, x1, y0, y1, z0, z1), warnings)
+
+
+def _half_area(points: np.ndarray) -> float:
+    """Area (m²) of the starboard half-section closed along the deck and the centreline."""
+    ring = np.vstack([points, [[0.0, points[-1, 1]]], [[0.0, points[0, 1]]]])
+    return abs(Polygon(ring).area) if len(points) > 1 else 0.0
+
+
+def _fill_empty(stations: list[tuple[float, np.ndarray | None]]) -> None:
+    """A station the mesh does not reach gets a zero-width section at its neighbour's keel and
+    deck heights."""
+    for i, (x, pts) in enumerate(stations):
+        if pts is not None:
+            continue
+        near = [p for _, p in sorted(((abs(j - i), q) for j, (_, q) in enumerate(stations)
+                                      if q is not None), key=lambda t: t[0])][:1]
+        z_lo, z_hi = (float(near[0][0, 1]), float(near[0][-1, 1])) if near else (0.0, 1.0)
+        stations[i] = (x, np.array([[0.0, z_lo], [0.0, max(z_hi, z_lo + 1e-4)]]))
