@@ -3,7 +3,8 @@
 Axes as in SPEC.md (x from AP forward, y to starboard, z from the moulded baseline up), all
 lengths in m (after `scale`), areas m², volumes m³.
 
-At each station the mesh is cut by the plane x = const (trimesh.intersections.mesh_plane);
+At each station the mesh is cut by the plane x = const (trimesh.intersections.mesh_plane; the end stations a
+hair inside the ends, END_NUDGE);
 the cut's segments are joined into rings and the section is their even-odd union (shapely).
 Its starboard half (y ≥ 0) gives the offsets from the keel (the lowest point on the
 centreline) round the outside to the deck edge: the run of the outline that goes inboard
@@ -33,6 +34,8 @@ MAX_AUTO_STATIONS = 321
 VOLUME_TOL = 0.001  # 0.1 %: a twentieth of Circ.1229's 2 % for displacement
 DECK_SLOPE = 0.25  # a deck run rises at most this much per unit of breadth (camber, sheer)
 SNAP_M = 1e-7  # cut points closer than this are one point
+END_NUDGE = 1e-4  # the end stations are cut this fraction of the length inside the ends
+TINY_M = 1e-3  # a cut smaller than this each way is no section (a pointed end)
 Z_DECREASE_TOL_M = 0.001  # an outline may fall this much (tessellation noise) and is levelled
 DECIMALS = 4
 
@@ -118,6 +121,9 @@ def section(mesh, x_m: float) -> Polygon | shapely.MultiPolygon:
     seg = mesh_plane(mesh, [1.0, 0.0, 0.0], [x_m, 0.0, 0.0])
     if len(seg) == 0:
         return Polygon()
+    yz = np.asarray(seg)[:, :, 1:3].reshape(-1, 2)
+    if np.all(np.ptp(yz, axis=0) < TINY_M):
+        return Polygon()
     region = Polygon()
     for ring in _rings(np.asarray(seg)[:, :, 1:3], x_m):
         region = region.symmetric_difference(ring)  # even-odd: holes stay holes
@@ -180,7 +186,7 @@ def half_outline(sec, x_m: float, warnings: list[str]) -> np.ndarray | None:
 
 def _cut_all(mesh, xs: np.ndarray, progress: Callable[[], None] | None):
     x0, x1 = float(xs[0]), float(xs[-1])
-    nudge = 1e-6 * (x1 - x0)
+    nudge = END_NUDGE * (x1 - x0)
     out = []
     for x in xs:
         at = min(max(float(x), x0 + nudge), x1 - nudge)  # the end faces: just inside

@@ -24,7 +24,7 @@ from reportgen.hull.sections import Hull
 START_STEP_M = 0.1  # the regular sounding step, m (smaller for shallow tanks)
 MIN_STEP_M = 0.002  # the finest step refinement goes to, m
 REL_TOL = 0.002  # 0.2 %: a tenth of Circ.1229's 2 % for volume and FSM
-FLOOR_TOL = 0.0002  # of the full-tank value, where the value itself is near zero
+FLOOR_TOL = 2e-6  # of the full-tank value, where the value itself is near zero
 CENTRE_TOL_M = 0.005  # a tenth of Circ.1229's 5 cm for VCG
 CENTRE_TOL_LOW_M = 0.05  # in the bottom LOW_FRACTION of the capacity
 LOW_FRACTION = 0.02
