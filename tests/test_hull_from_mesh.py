@@ -94,7 +94,7 @@ def test_box_mesh_hydrostatics_are_the_box_formulas(tmp_path):
 
 
 def test_wigley_mesh_hydrostatics_are_the_closed_forms(wigley):
-    geom, data = wigley
+    geom, _ = wigley
     h = hydrostatic_table(geom, np.array([T]), RHO)
     volume = 4.0 / 9.0 * L * B * T  # Wigley's closed form
     kb = 5.0 * T / 8.0
