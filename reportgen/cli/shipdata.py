@@ -62,7 +62,7 @@ def hull_from_mesh(mesh: Path, output: Path, stations: int | None, scale: float,
                    density: float, force: bool) -> None:
     """Hull offsets by slicing a closed hull mesh (STL or OBJ)."""
     from reportgen.files import check_output, read_input, write_atomic
-    from reportgen.hull.mesh import MAX_AUTO_STATIONS, load_mesh, mesh_stations
+    from reportgen.hull.mesh import load_mesh, mesh_stations
 
     kind = MESH_TYPES.get(mesh.suffix.lower())
     if kind is None:
@@ -75,7 +75,7 @@ def hull_from_mesh(mesh: Path, output: Path, stations: int | None, scale: float,
         if not 1.0 <= x1 - x0 <= 600.0:
             raise ValueError(f"the mesh is {x1 - x0:.6g} m long: not a ship's length in "
                              f"metres (a mesh in millimetres needs --scale 0.001)")
-        with progress("slicing the mesh", stations or MAX_AUTO_STATIONS) as step:
+        with progress("slicing the mesh", stations) as step:
             made = mesh_stations(m, stations, progress=step)
     except ValueError as exc:
         raise InputError(f"{mesh}: {exc}") from None

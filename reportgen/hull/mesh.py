@@ -36,6 +36,7 @@ DECK_SLOPE = 0.25  # a deck run rises at most this much per unit of breadth (cam
 SNAP_M = 1e-7  # cut points closer than this are one point
 END_NUDGE = 1e-4  # the end stations are cut this fraction of the length inside the ends
 TINY_M = 1e-3  # a cut smaller than this each way is no section (a pointed end)
+SIMPLIFY_M = 5e-5  # points off the outline by less than this (0.05 mm) are dropped
 Z_DECREASE_TOL_M = 0.001  # an outline may fall this much (tessellation noise) and is levelled
 DECIMALS = 4
 
@@ -175,6 +176,8 @@ def half_outline(sec, x_m: float, warnings: list[str]) -> np.ndarray | None:
                          f"from the keel to the deck edge with z rising (a tunnel or overhang "
                          f"cannot be written as offsets)")
     path[:, 1] = np.maximum.accumulate(path[:, 1])
+    if len(path) > 2:  # drop the points a straight run or a triangle's diagonal adds
+        path = np.asarray(shapely.LineString(path).simplify(SIMPLIFY_M).coords)
     path = np.round(path, DECIMALS) + 0.0
     keep = np.ones(len(path), dtype=bool)
     keep[1:] = np.any(np.diff(path, axis=0) != 0, axis=1)
