@@ -51,8 +51,12 @@ def tank_tables(vessel: Any, hull: Hull, progress: Callable[[], None] | None = N
             continue
         try:
             out[tank.id] = geometry_tank_table(hull, box_of(tank.geometry))
-        except ValueError as exc:
-            raise ValueError(f"tanks: {tank.id}: geometry: {exc}") from None
+        except ValueError:
+            g = tank.geometry
+            raise ValueError(
+                f"tanks: {tank.id}: geometry: the box x {g.x[0]:g} to {g.x[1]:g} m, y {g.y[0]:g} "
+                f"to {g.y[1]:g} m, z {g.z[0]:g} to {g.z[1]:g} m holds no part of the hull (its "
+                f"stations run from x {hull.x_m[0]:g} to {hull.x_m[-1]:g} m)") from None
         if progress is not None:
             progress()
     return out
