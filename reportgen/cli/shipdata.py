@@ -70,7 +70,8 @@ def hull_from_mesh(mesh: Path, output: Path, stations: int | None, scale: float,
     raw = read_input(mesh, "hull mesh")
     check_output(output, force)
     try:
-        m = load_mesh(raw, kind, scale)
+        with progress("reading the mesh", None):
+            m = load_mesh(raw, kind, scale)
         x0, x1 = m.bounds[:, 0]
         if not 1.0 <= x1 - x0 <= 600.0:
             raise ValueError(f"the mesh is {x1 - x0:.6g} m long: not a ship's length in "

@@ -36,6 +36,7 @@ DECK_SLOPE = 0.25  # a deck run rises at most this much per unit of breadth (cam
 SNAP_M = 1e-7  # cut points closer than this are one point
 END_NUDGE = 1e-4  # the end stations are cut this fraction of the length inside the ends
 TINY_M = 1e-3  # a cut smaller than this each way is no section (a pointed end)
+OPEN_FRACTION = 0.01  # of a cut's length that may stay open (tessellation noise)
 SIMPLIFY_M = 5e-5  # points off the outline by less than this (0.05 mm) are dropped
 Z_DECREASE_TOL_M = 0.001  # an outline may fall this much (tessellation noise) and is levelled
 DECIMALS = 4
@@ -80,10 +81,10 @@ def load_mesh(raw: bytes, file_type: str, scale: float = 1.0):
 
 def _check_closed(mesh) -> None:
     """ValueError naming why `mesh` does not enclose a volume."""
-    _, counts = np.unique(mesh.edges_sorted, axis=0, return_counts=True)
-    open_edges = int(np.sum(counts == 1))
-    shared = int(np.sum(counts > 2))
-    if open_edges or shared:
+    if not mesh.is_watertight:
+        _, counts = np.unique(mesh.edges_sorted, axis=0, return_counts=True)
+        open_edges = int(np.sum(counts == 1))
+        shared = int(np.sum(counts > 2))
         parts = []
         if open_edges:
             parts.append(f"{open_edges} edges border only one triangle (holes in the surface: "
@@ -99,36 +100,41 @@ def _check_closed(mesh) -> None:
         raise ValueError("the mesh encloses no volume")
 
 
-def _rings(segments_yz: np.ndarray, x_m: float) -> list[Polygon]:
+def _region(segments_yz: np.ndarray, x_m: float):
+    """The section from the cut's segments: the rings they close (shapely.polygonize), joined
+    even-odd, so that a hollow stays a hollow. ValueError when much of the cut stays open."""
     lines = shapely.set_precision(shapely.linestrings(segments_yz), SNAP_M)
-    merged = shapely.line_merge(shapely.union_all(lines))
-    parts = shapely.get_parts(merged)
-    rings = []
-    for part in parts:
-        if part.is_empty:
-            continue
-        if not part.is_closed:
-            raise ValueError(f"the cut at x = {x_m:.4f} m does not close into a section")
-        poly = Polygon(part.coords)
-        if poly.area > 0:
-            rings.append(shapely.make_valid(poly))
-    return rings
+    noded = shapely.get_parts(shapely.union_all(lines))
+    faces, cuts, dangles, invalid = shapely.polygonize_full(noded)
+    region = Polygon()
+    for face in shapely.get_parts(faces):
+        region = region.symmetric_difference(Polygon(face.exterior))
+    loose = sum(g.length for g in (cuts, dangles, invalid))
+    total = float(np.sum(shapely.length(noded)))
+    if loose > max(OPEN_FRACTION * total, TINY_M):
+        raise ValueError(f"the cut at x = {x_m:.4f} m does not close into a section "
+                         f"({loose:.4f} m of its {total:.4f} m stays open)")
+    return region
 
 
-def section(mesh, x_m: float) -> Polygon | shapely.MultiPolygon:
-    """The cut of the mesh by the plane x = x_m, in (y, z), m (empty when it misses)."""
+def section(mesh, x_m: float, face_x: np.ndarray | None = None
+            ) -> Polygon | shapely.MultiPolygon:
+    """The cut of the mesh by the plane x = x_m, in (y, z), m (empty when it misses).
+    face_x: (n_faces, 2) least and greatest x of each triangle, to cut only those it crosses."""
     from trimesh.intersections import mesh_plane
 
-    seg = mesh_plane(mesh, [1.0, 0.0, 0.0], [x_m, 0.0, 0.0])
+    local = None
+    if face_x is not None:
+        local = np.flatnonzero((face_x[:, 0] <= x_m) & (face_x[:, 1] >= x_m))
+        if not local.size:
+            return Polygon()
+    seg = mesh_plane(mesh, [1.0, 0.0, 0.0], [x_m, 0.0, 0.0], local_faces=local)
     if len(seg) == 0:
         return Polygon()
     yz = np.asarray(seg)[:, :, 1:3].reshape(-1, 2)
     if np.all(np.ptp(yz, axis=0) < TINY_M):
         return Polygon()
-    region = Polygon()
-    for ring in _rings(np.asarray(seg)[:, :, 1:3], x_m):
-        region = region.symmetric_difference(ring)  # even-odd: holes stay holes
-    return region
+    return _region(np.asarray(seg)[:, :, 1:3], x_m)
 
 
 def half_outline(sec, x_m: float, warnings: list[str]) -> np.ndarray | None:
@@ -187,15 +193,21 @@ def half_outline(sec, x_m: float, warnings: list[str]) -> np.ndarray | None:
     return path
 
 
-def _cut_all(mesh, xs: np.ndarray, progress: Callable[[], None] | None):
+def _cut_all(mesh, xs: np.ndarray, progress: Callable[[], None] | None, done: dict):
+    """The sections at xs; `done` keeps those cut before (by x), for a finer spacing."""
     x0, x1 = float(xs[0]), float(xs[-1])
     nudge = END_NUDGE * (x1 - x0)
+    face_x = mesh.vertices[:, 0][mesh.faces]
+    face_x = np.column_stack([face_x.min(axis=1), face_x.max(axis=1)])
     out = []
     for x in xs:
-        at = min(max(float(x), x0 + nudge), x1 - nudge)  # the end faces: just inside
-        out.append(section(mesh, at))
-        if progress is not None:
-            progress()
+        key = round(float(x), 9)
+        if key not in done:
+            at = min(max(float(x), x0 + nudge), x1 - nudge)  # the end faces: just inside
+            done[key] = section(mesh, at, face_x)
+            if progress is not None:
+                progress()
+        out.append(done[key])
     return out
 
 
@@ -213,9 +225,10 @@ def mesh_stations(mesh, n_stations: int | None = None,
     volume = float(mesh.volume)
     warnings: list[str] = []
     n = n_stations or DEFAULT_STATIONS
+    done: dict = {}
     while True:
         xs = np.linspace(x0, x1, n)
-        secs = _cut_all(mesh, xs, progress)
+        secs = _cut_all(mesh, xs, progress, done)
         areas = np.array([s.area for s in secs])
         sec_volume = float(simpson(areas, x=xs))
         miss = abs(sec_volume - volume) / volume
