@@ -183,3 +183,37 @@ def test_fifo_refused(tmp_path):
     os.mkfifo(fifo)
     done = run("hull-from-mesh", str(fifo), "-o", str(tmp_path / "o.yaml"))
     assert done.exit_code == 2 and "FIFO" in done.output
+
+
+def test_starboard_half_mesh_gives_the_same_offsets(tmp_path):
+    half = trimesh.creation.box(extents=[L, B / 2, D])
+    half.apply_translation([L / 2, B / 4, D / 2])
+    _, got = offsets(tmp_path, half, "half.stl", "--stations", "5")
+    _, whole = offsets(tmp_path, box_mesh(), "whole.stl", "--stations", "5")
+    assert got == whole
+
+
+def test_cambered_deck_left_out_deck_edge_at_side(tmp_path):
+    """A deck with 0.2 m of camber: the offsets end at the deck edge (B/2, D), so that the
+    deck-edge immersion angle is taken at the side (SPEC: keel to deck edge)."""
+    y = np.linspace(B / 2, 0.0, 11)
+    half = np.vstack([[0.0, 0.0], [B / 2, 0.0],
+                      np.column_stack([y, D + 0.2 * (1 - (2 * y / B) ** 2)])])
+    ring = np.vstack([half, (half[::-1] * [-1, 1])[1:-1]])
+    m = len(ring)
+    rings = [np.column_stack([np.full(m, x), ring]) for x in np.linspace(0, L, 5)]
+    verts = np.vstack([*rings, rings[0].mean(0), rings[-1].mean(0)])
+    faces = []
+    for i in range(4):
+        for j in range(m):
+            k = (j + 1) % m
+            a, b, c, d = i * m + j, i * m + k, (i + 1) * m + j, (i + 1) * m + k
+            faces += [[a, b, d], [a, d, c]]
+    faces += [[len(verts) - 2, (j + 1) % m, j] for j in range(m)]
+    faces += [[len(verts) - 1, 4 * m + j, 4 * m + (j + 1) % m] for j in range(m)]
+    mesh = trimesh.Trimesh(verts, np.array(faces), process=False)
+    if mesh.volume < 0:
+        mesh.invert()
+    _, data = offsets(tmp_path, mesh, "camber.stl", "--stations", "5")
+    for s in data["stations"]:
+        assert s["points"] == [[0.0, 0.0], [B / 2, 0.0], [B / 2, D]]

@@ -222,7 +222,9 @@ def mesh_stations(mesh, n_stations: int | None = None,
         raise ValueError(f"the mesh is not symmetric about the centreline: y runs from "
                          f"{y0:.3f} to {y1:.3f} m (a whole hull from -B/2 to B/2, or the "
                          f"starboard half from 0, is expected)")
-    volume = float(mesh.volume)
+    half = y0 >= -1e-6 * breadth  # the starboard half only, closed at the centreplane
+    mirror = 2.0 if half else 1.0  # volumes below are of the whole hull
+    volume = mirror * float(mesh.volume)
     warnings: list[str] = []
     n = n_stations or DEFAULT_STATIONS
     done: dict = {}
@@ -230,7 +232,7 @@ def mesh_stations(mesh, n_stations: int | None = None,
         xs = np.linspace(x0, x1, n)
         secs = _cut_all(mesh, xs, progress, done)
         areas = np.array([s.area for s in secs])
-        sec_volume = float(simpson(areas, x=xs))
+        sec_volume = mirror * float(simpson(areas, x=xs))
         miss = abs(sec_volume - volume) / volume
         if n_stations is not None or miss <= VOLUME_TOL or 2 * n - 1 > MAX_AUTO_STATIONS:
             break
@@ -244,10 +246,22 @@ def mesh_stations(mesh, n_stations: int | None = None,
         pts = half_outline(sec, float(x), warnings)
         stations.append((round(float(x), DECIMALS) + 0.0, pts))
     _fill_empty(stations)
+    _deck_jumps(stations, z1 - z0, warnings)
     written = np.array([2.0 * _half_area(p) for _, p in stations])
     return MeshStations(stations, volume, sec_volume,
                         float(simpson(written, x=np.array([s[0] for s in stations]))),
                         (x0, x1, y0, y1, z0, z1), warnings)
+
+
+def _deck_jumps(stations: list[tuple[float, np.ndarray]], height_m: float,
+                warnings: list[str]) -> None:
+    """A warning where the deck edge jumps between neighbouring stations by more than a tenth
+    of the mesh's height: a deckhouse or a raised deck in the mesh ends the offsets at its top."""
+    z = np.array([p[-1, 1] for _, p in stations])
+    for i in np.flatnonzero(np.abs(np.diff(z)) > 0.1 * height_m)[:3]:
+        warnings.append(f"the deck edge jumps from z {z[i]:.2f} m (x {stations[i][0]:g} m) to "
+                        f"{z[i + 1]:.2f} m (x {stations[i + 1][0]:g} m): the offsets end at the "
+                        f"highest deck of each section; leave deckhouses out of the mesh")
 
 
 def _half_area(points: np.ndarray) -> float:
