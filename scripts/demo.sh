@@ -19,8 +19,8 @@ fi
 
 echo "== Setting up a ship from a mesh (conditions/setup-example: the README's walk-through)"
 ex=conditions/setup-example
-$RG hull-from-mesh $ex/tern-hull.obj -o out/tern-offsets.yaml --force 2>/dev/null || exit 1
-cat $ex/tern-head.yaml out/tern-offsets.yaml > out/tern-hull.yaml
+$RG hull-from-mesh $ex/tern-hull.obj --vessel $ex/tern-head.yaml -o out/tern-hull.yaml --force \
+    2>/dev/null || exit 1
 $RG tables out/tern-hull.yaml -o out/tern.yaml --force 2>/dev/null || exit 1
 $RG show out/tern.yaml > out/tern-show.txt || exit 1
 $RG new out/tern.yaml -o out/tern-new-condition.yaml --force 2>/dev/null || exit 1

@@ -33,9 +33,12 @@ def run(*args) -> str:
 @pytest.fixture(scope="module")
 def ship(tmp_path_factory):
     out = tmp_path_factory.mktemp("tern")
+    run("hull-from-mesh", EXAMPLE / "tern-hull.obj", "--vessel", EXAMPLE / "tern-head.yaml",
+        "-o", out / "tern-hull.yaml")
+    # The same as the hull: block alone put after the head.
     run("hull-from-mesh", EXAMPLE / "tern-hull.obj", "-o", out / "tern-offsets.yaml")
-    (out / "tern-hull.yaml").write_text((EXAMPLE / "tern-head.yaml").read_text()
-                                        + (out / "tern-offsets.yaml").read_text())
+    assert (out / "tern-hull.yaml").read_text() == ((EXAMPLE / "tern-head.yaml").read_text()
+                                                    + (out / "tern-offsets.yaml").read_text())
     run("tables", out / "tern-hull.yaml", "-o", out / "tern.yaml")
     return out
 

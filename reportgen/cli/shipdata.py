@@ -15,6 +15,7 @@ from reportgen.cli import main, progress
 from reportgen.errors import InputError
 
 MESH_TYPES = {".stl": "stl", ".obj": "obj"}
+_GENERATED = ("# Hull offsets made by", "# (SHA-256 ", "# the offsets (closed", "# warning: ")
 CSV_MAX_BYTES = 16 * 1024 * 1024
 
 
@@ -42,10 +43,12 @@ def with_tank_tables(text: str, vessel, vessel_path: Path) -> str:
 Examples:
   reportgen hull-from-mesh hull.stl -o hull.yaml
   reportgen hull-from-mesh hull.obj -o hull.yaml --stations 81 --scale 0.001
+  reportgen hull-from-mesh hull.stl --vessel head.yaml -o ship-hull.yaml
 \b
 The mesh must be closed (watertight), in the vessel file's axes: x from the aft
 perpendicular forward, y to starboard (the whole hull, or its starboard half), z up from
-the moulded baseline. The output holds the hull: block for a vessel file.
+the moulded baseline. The output holds the hull: block for a vessel file; with
+--vessel, that vessel file with its hull: block put in (added, or replaced).
 Exit status: 0 written; 2 bad input (nothing written).""")
 @click.argument("mesh", type=click.Path(path_type=Path))
 @click.option("-o", "--output", required=True, type=click.Path(path_type=Path),
@@ -57,9 +60,11 @@ Exit status: 0 written; 2 bad input (nothing written).""")
               help="Factor to metres (0.001 for a mesh in millimetres).")
 @click.option("--density", type=click.FloatRange(0.99, 1.05), default=1.025,
               help="Water density for the tables made from these offsets, t/m³.")
+@click.option("--vessel", "head", type=click.Path(path_type=Path), default=None,
+              help="Write this vessel file with the offsets as its hull: block.")
 @click.option("--force", is_flag=True, help="Replace an existing file.")
 def hull_from_mesh(mesh: Path, output: Path, stations: int | None, scale: float,
-                   density: float, force: bool) -> None:
+                   density: float, head: Path | None, force: bool) -> None:
     """Hull offsets by slicing a closed hull mesh (STL or OBJ)."""
     from reportgen.files import check_output, read_input, write_atomic
     from reportgen.hull.mesh import load_mesh, mesh_stations
@@ -68,6 +73,11 @@ def hull_from_mesh(mesh: Path, output: Path, stations: int | None, scale: float,
     if kind is None:
         raise InputError(f"{mesh}: expected an .stl or .obj mesh file")
     raw = read_input(mesh, "hull mesh")
+    head_text = None
+    if head is not None:
+        from reportgen.inputs.yamlread import decode
+
+        head_text = decode(read_input(head, "vessel data file"), str(head))
     check_output(output, force)
     try:
         with progress("reading the mesh", None):
@@ -85,6 +95,8 @@ def hull_from_mesh(mesh: Path, output: Path, stations: int | None, scale: float,
         made.warnings.append(f"the lowest point of the mesh is at z = {z0:.3f} m; offsets keep "
                              f"the mesh's z, which must be measured from the moulded baseline")
     text = _hull_text(mesh.name, hashlib.sha256(raw).hexdigest(), made, density)
+    if head_text is not None:
+        text = _with_hull(head_text, text, head, output)
     write_atomic(output, text.encode("utf-8"), force=force)
     for w in made.warnings:
         click.echo(f"reportgen: warning: {w}", err=True)
@@ -92,6 +104,27 @@ def hull_from_mesh(mesh: Path, output: Path, stations: int | None, scale: float,
                f"{2 * y1:.3f} m, z {z0:.3f} to {z1:.3f} m; mesh volume "
                f"{made.mesh_volume_m3:.3f} m³, the offsets {made.offsets_volume_m3:.3f} m³",
                err=True)
+
+
+def _with_hull(head_text: str, hull_text: str, head: Path, output: Path) -> str:
+    """The vessel file `head_text` with its top-level hull: block (and the comment lines this
+    command wrote above it) replaced by `hull_text`, or `hull_text` appended; checked as a
+    vessel file."""
+    from reportgen.hull.tables import _block_spans
+    from reportgen.inputs import parse_vessel
+
+    lines = head_text.splitlines(keepends=True)
+    spans = _block_spans(lines)
+    if "hull" in spans:
+        start, end = spans["hull"]
+        while start > 0 and lines[start - 1].startswith(_GENERATED):
+            start -= 1
+        text = "".join(lines[:start]) + hull_text + "".join(lines[end:])
+    else:
+        sep = "" if head_text.endswith("\n") or not head_text else "\n"
+        text = head_text + sep + hull_text
+    parse_vessel(text.encode("utf-8"), f"{head} (with the offsets added)")
+    return text
 
 
 def _hull_text(name: str, sha256: str, made, density: float) -> str:
