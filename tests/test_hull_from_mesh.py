@@ -217,3 +217,11 @@ def test_cambered_deck_left_out_deck_edge_at_side(tmp_path):
     _, data = offsets(tmp_path, mesh, "camber.stl", "--stations", "5")
     for s in data["stations"]:
         assert s["points"] == [[0.0, 0.0], [B / 2, 0.0], [B / 2, D]]
+
+
+def test_asymmetric_and_absurd_meshes_refused(tmp_path):
+    tet = "f 1 3 2\nf 1 2 4\nf 1 4 3\nf 2 3 4\n"
+    lopsided = "v 0 -1 0\nv 10 -1 0\nv 0 1 0\nv 0 -1 3\n" + tet
+    assert "not symmetric" in refused(tmp_path, "lopsided.obj", lopsided.encode())
+    absurd = "v 0 0 0\nv 1e300 0 0\nv 0 1e300 0\nv 0 0 1e300\n" + tet
+    assert "not a ship's length" in refused(tmp_path, "absurd.obj", absurd.encode())

@@ -82,10 +82,6 @@ def hull_from_mesh(mesh: Path, output: Path, stations: int | None, scale: float,
     try:
         with progress("reading the mesh", None):
             m = load_mesh(raw, kind, scale)
-        x0, x1 = m.bounds[:, 0]
-        if not 1.0 <= x1 - x0 <= 600.0:
-            raise ValueError(f"the mesh is {x1 - x0:.6g} m long: not a ship's length in "
-                             f"metres (a mesh in millimetres needs --scale 0.001)")
         with progress("slicing the mesh", stations) as step:
             made = mesh_stations(m, stations, progress=step)
     except ValueError as exc:

@@ -28,6 +28,9 @@ from shapely.geometry import Polygon, box
 from shapely.geometry.polygon import orient
 
 MAX_FACES = 2_000_000
+LENGTH_RANGE_M = (1.0, 600.0)  # the mesh's largest extent, m, after scale
+OFFSETS_WARN = 0.005  # offsets holding 0.5 % less than the sections get a warning
+SYMMETRY_TOL = 0.01  # port and starboard halves may differ by this much of the largest section
 MAX_STATIONS = 1001
 DEFAULT_STATIONS = 41  # the first try; doubled (2n − 1) until VOLUME_TOL is met
 MAX_AUTO_STATIONS = 321
@@ -57,12 +60,22 @@ class MeshStations:
 def load_mesh(raw: bytes, file_type: str, scale: float = 1.0):
     """A closed trimesh.Trimesh from the bytes of an STL or OBJ file, scaled to metres.
     ValueError with the reason when it cannot be read or is not a closed surface."""
+    import warnings
+
     import trimesh
 
-    try:
-        mesh = trimesh.load_mesh(io.BytesIO(raw), file_type=file_type, process=True)
-    except Exception as exc:  # noqa: BLE001 - any reader failure is a bad file
-        raise ValueError(f"cannot read it as {file_type.upper()}: {exc}") from None
+    with warnings.catch_warnings(), np.errstate(all="ignore"):
+        warnings.simplefilter("ignore")
+        try:
+            mesh = trimesh.load_mesh(io.BytesIO(raw), file_type=file_type, process=True)
+        except Exception as exc:  # noqa: BLE001 - any reader failure is a bad file
+            raise ValueError(f"cannot read it as {file_type.upper()}: {exc}") from None
+        return _checked(mesh, scale)
+
+
+def _checked(mesh, scale: float):
+    import trimesh
+
     if not isinstance(mesh, trimesh.Trimesh) or len(mesh.faces) == 0:
         raise ValueError("no triangles found in it")
     if len(mesh.faces) > MAX_FACES:
@@ -72,6 +85,10 @@ def load_mesh(raw: bytes, file_type: str, scale: float = 1.0):
         raise ValueError("some vertex coordinates are not finite numbers")
     if scale != 1.0:
         mesh.apply_scale(scale)
+    size = float(np.max(np.ptp(mesh.vertices, axis=0)))
+    if not LENGTH_RANGE_M[0] <= size <= LENGTH_RANGE_M[1]:
+        raise ValueError(f"the mesh is {size:.6g} m long: not a ship's length in metres (a mesh "
+                         f"in millimetres needs --scale 0.001)")
     mesh.update_faces(mesh.nondegenerate_faces())
     _check_closed(mesh)
     if mesh.volume < 0:
@@ -241,6 +258,7 @@ def mesh_stations(mesh, n_stations: int | None = None,
         warnings.append(f"the sections at {n} stations integrate to {sec_volume:.3f} m³, "
                         f"{100 * miss:.2f} % off the mesh's volume {volume:.3f} m³: give more "
                         f"stations (--stations)")
+    _check_symmetric(xs, secs)
     stations: list[tuple[float, np.ndarray]] = []
     for x, sec in zip(xs, secs, strict=True):
         pts = half_outline(sec, float(x), warnings)
@@ -248,9 +266,26 @@ def mesh_stations(mesh, n_stations: int | None = None,
     _fill_empty(stations)
     _deck_jumps(stations, z1 - z0, warnings)
     written = np.array([2.0 * _half_area(p) for _, p in stations])
-    return MeshStations(stations, volume, sec_volume,
-                        float(simpson(written, x=np.array([s[0] for s in stations]))),
-                        (x0, x1, y0, y1, z0, z1), warnings)
+    off_volume = float(simpson(written, x=np.array([s[0] for s in stations])))
+    if abs(off_volume - sec_volume) > OFFSETS_WARN * sec_volume:
+        warnings.append(f"the offsets hold {off_volume:.3f} m³ where the sections hold "
+                        f"{sec_volume:.3f} m³ ({100 * (off_volume / sec_volume - 1):+.2f} %): "
+                        f"deck camber, a deckhouse or separate parts are left out")
+    return MeshStations(stations, volume, sec_volume, off_volume, (x0, x1, y0, y1, z0, z1),
+                        warnings)
+
+
+def _check_symmetric(xs: np.ndarray, secs: list) -> None:
+    """ValueError where a section's port and starboard halves differ by more than SYMMETRY_TOL
+    of the largest section (a whole hull must be symmetric; a half hull has no port part)."""
+    largest = max((s.area for s in secs), default=0.0)
+    for x, sec in zip(xs, secs, strict=True):
+        stbd = sec.intersection(box(0.0, -1e6, 1e6, 1e6)).area
+        port = sec.intersection(box(-1e6, -1e6, 0.0, 1e6)).area
+        if port > 0 and abs(port - stbd) > SYMMETRY_TOL * largest:
+            raise ValueError(f"the hull is not symmetric about the centreline (y = 0): at x = "
+                             f"{x:.3f} m the section has {stbd:.4f} m² to starboard and "
+                             f"{port:.4f} m² to port")
 
 
 def _deck_jumps(stations: list[tuple[float, np.ndarray]], height_m: float,
