@@ -143,3 +143,31 @@ def test_not_utf8_or_binary(tmp_path):
     path.write_bytes(b"\xff\xfe\x00garbage")
     done = CliRunner().invoke(main, ["import", "tank", str(path)])
     assert done.exit_code == 2 and "UTF-8" in done.output
+
+
+def test_trimmed_tables_round_trip(tmp_path):
+    """Tables at several trims (SPEC `trims`): a trim column, the rows of each trim together.
+    The per-trim values are the demo's scaled a little (invented for the round trip)."""
+    h = DEMO["hydrostatics"]
+    trims = [-1.0, 0.0, 1.5]
+    keys = ["displacement", "lcb", "lcf", "kmt", "mct", "tpc"]
+    block = {"density": 1.025, "trims": trims, "draft": h["draft"],
+             **{k: [[round(v * (1 + 0.01 * t), 4) for v in h[k]] for t in trims] for k in keys}}
+    rows = [[t, d, *(block[k][i][r] for k in keys)] for i, t in enumerate(trims)
+            for r, d in enumerate(h["draft"])]
+    got = imported(tmp_path, "hydrostatics", as_csv(["trim (m)", "draft", *keys], rows))
+    assert got == {"hydrostatics": block}
+
+    c = DEMO["cross_curves"]
+    kn = [[[round(v + 0.01 * t, 4) for v in row] for row in c["kn"]] for t in trims]
+    rows = [[t, d, *kn[i][r]] for i, t in enumerate(trims)
+            for r, d in enumerate(c["displacement"])]
+    header = ["trim", "displacement", *[f"{x:g}°" for x in c["heel"]]]
+    got = imported(tmp_path, "cross-curves", as_csv(header, rows), "--trim", "fixed")
+    assert got == {"cross_curves": {"trim": "fixed", "trims": trims, "heel": c["heel"],
+                                    "displacement": c["displacement"], "kn": kn}}
+    # a trim whose draughts differ from the first trim's: the line is named
+    bad = rows[: len(c["displacement"]) + 1]
+    bad[-1] = [trims[1], bad[-1][1] + 5.0, *bad[-1][2:]]
+    done = run_import(tmp_path, "cross-curves", as_csv(header, bad), "--trim", "free")
+    assert done.exit_code == 2 and "line " in done.output and "differ" in done.output

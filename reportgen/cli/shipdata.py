@@ -154,10 +154,11 @@ Examples:
 Header row of key names, a unit allowed in brackets: draft (m), displacement (t), ...
 Cross curves: the first header cell 'displacement', then the heels (deg); one row per
 displacement. Offsets: columns x, y, z, each station's rows together, keel to deck edge.
+Tables at several trims: a trim column (for cross curves the first), rows of a trim together.
 Exit status: 0 printed or written; 2 bad input (the line and column named).""")
 @click.argument("kind", type=click.Choice(["hydrostatics", "cross-curves", "tank", "offsets"]))
 @click.argument("csv_file", metavar="FILE.csv", type=click.Path(path_type=Path))
-@click.option("--trim", type=click.Choice(["free", "even_keel"]), default=None,
+@click.option("--trim", type=click.Choice(["free", "even_keel", "fixed"]), default=None,
               help="Cross curves: how the table was made (stated on every sheet).")
 @click.option("--density", type=click.FloatRange(0.99, 1.05), default=1.025,
               help="Hydrostatics and offsets: the water density of the table, t/m³.")

@@ -4,7 +4,10 @@
 A header row of key names; a unit may follow a name, in brackets or parentheses
 (`draft (m)`, `mct [t·m/cm]`), and must then be the unit SPEC.md gives that column. For cross
 curves the header holds the heels (deg) after a first cell naming the displacement column,
-and each row is a displacement (t) followed by its KN values (m). Offsets: columns x, y, z,
+and each row is a displacement (t) followed by its KN values (m). Tables at several trims
+(SPEC `trims`): a `trim` column (m, + by the stern; for cross curves the first column), the
+rows of each trim together, trims increasing, every trim with the same draughts or
+displacements. Offsets: columns x, y, z,
 one row per point, the rows of a station together, from the keel to the deck edge. Comma,
 semicolon or tab separated; with a semicolon or tab a decimal comma is read too. Every cell
 must be a finite number; every error names the line and the column.
@@ -29,6 +32,7 @@ UNITS = {  # accepted spellings of each column's unit; () for a pure number
     "mct": ("t·m/cm", "tm/cm", "t.m/cm", "t m/cm", "t-m/cm", "t*m/cm"),
     "cb": (), "sounding": _M, "volume": ("m³", "m3", "m^3"), "lcg": _M, "vcg": _M, "tcg": _M,
     "fsi": ("m⁴", "m4", "m^4"), "x": _M, "y": _M, "z": _M, "heel": ("deg", "°", "degrees"),
+    "trim": _M,
 }
 COLUMNS = {
     "hydrostatics": (("draft", "displacement", "lcb", "lcf", "kmt", "mct", "tpc"),
@@ -149,10 +153,56 @@ def columns_of(sheet: Sheet, kind: str) -> dict[str, tuple[list[float], list[int
     return out
 
 
+def by_trim(sheet: Sheet) -> list[tuple[float, Sheet]] | None:
+    """With a `trim` column (m, + by the stern): the rows of each trim as a sheet without that
+    column, trims in increasing order, the rows of a trim together; None without one."""
+    names = [name_and_unit(c, j)[0] for j, c in enumerate(sheet.header, start=1)]
+    if "trim" not in names:
+        return None
+    k = names.index("trim")
+    check_unit("trim", name_and_unit(sheet.header[k], k + 1)[1], k + 1)
+    header = sheet.header[:k] + sheet.header[k + 1:]
+    groups: list[tuple[float, Sheet]] = []
+    for line, cells in sheet.rows:
+        if len(cells) != len(sheet.header):
+            raise TableError(f"line {line}: {len(cells)} cells, the header has "
+                             f"{len(sheet.header)}")
+        t = cell_number(cells[k], line, k + 1, "trim", sheet.decimal_comma)
+        if not groups or t != groups[-1][0]:
+            if groups and t < groups[-1][0]:
+                raise TableError(f"line {line}, column {k + 1} (trim): {t:g} comes after "
+                                 f"{groups[-1][0]:g}; give the trims in increasing order, the "
+                                 f"rows of each together")
+            groups.append((t, Sheet(header, [], sheet.decimal_comma)))
+        groups[-1][1].rows.append((line, cells[:k] + cells[k + 1:]))
+    return groups
+
+
+def _same_rows(name: str, first: list[float], other: list[float], lines: list[int],
+               trim: float) -> None:
+    if other != first:
+        i = next((i for i, (a, b) in enumerate(zip(first, other, strict=False)) if a != b),
+                 min(len(first), len(other)) - 1)
+        raise TableError(f"line {lines[i]}: the {name}s at trim {trim:g} m differ from those at "
+                         f"the first trim; every trim needs the same {name}s")
+
+
 def hydrostatics_block(sheet: Sheet, density: float) -> str:
-    cols = columns_of(sheet, "hydrostatics")
+    groups = by_trim(sheet)
     lines = ["hydrostatics:", f"  density: {number(density)}"]
-    lines += [f"  {n}: {flow(v)}" for n, (v, _) in cols.items()]
+    if groups is None:
+        cols = columns_of(sheet, "hydrostatics")
+        lines += [f"  {n}: {flow(v)}" for n, (v, _) in cols.items()]
+        return "\n".join(lines) + "\n"
+    per = [(t, columns_of(g, "hydrostatics")) for t, g in groups]
+    first = per[0][1]["draft"][0]
+    for t, cols in per[1:]:
+        _same_rows("draft", first, cols["draft"][0], cols["draft"][1], t)
+    lines += [f"  trims: {flow([t for t, _ in per])}", f"  draft: {flow(first)}"]
+    for name in per[0][1]:
+        if name != "draft":
+            lines.append(f"  {name}:")
+            lines += [f"    - {flow(cols[name][0])}" for _, cols in per]
     return "\n".join(lines) + "\n"
 
 
@@ -196,7 +246,7 @@ def offsets_block(sheet: Sheet, density: float) -> str:
     return "\n".join(out) + "\n"
 
 
-def cross_curves_block(sheet: Sheet, trim: str) -> str:
+def _heels(sheet: Sheet) -> list[float]:
     name, unit = name_and_unit(sheet.header[0], 1)
     if name != "displacement":
         raise TableError(f"header, column 1: {sheet.header[0]!r}; the first column holds the "
@@ -215,8 +265,13 @@ def cross_curves_block(sheet: Sheet, trim: str) -> str:
     if not 60 <= heels[-1] <= 90:
         raise TableError(f"header: the heels must reach at least 60° and at most 90° "
                          f"(last: {heels[-1]:g})")
+    return heels
+
+
+def _kn_rows(sheet: Sheet, heels: list[float]) -> tuple[list[float], list[list[float]], list[int]]:
     disps: list[float] = []
     kn: list[list[float]] = []
+    lines: list[int] = []
     for line, cells in sheet.rows:
         if len(cells) != len(heels) + 1:
             raise TableError(f"line {line}: {len(cells)} cells, the header has "
@@ -226,11 +281,33 @@ def cross_curves_block(sheet: Sheet, trim: str) -> str:
             raise TableError(f"line {line}, column 1 (displacement): {d:g} must be positive "
                              f"and increase on the row before")
         disps.append(d)
+        lines.append(line)
         kn.append([cell_number(c, line, j, f"KN at {heels[j - 2]:g}°", sheet.decimal_comma)
                    for j, c in enumerate(cells[1:], start=2)])
-    lines = ["cross_curves:", f"  trim: {trim}", f"  heel: {flow(heels)}",
-             f"  displacement: {flow(disps)}", "  kn:"]
-    lines += [f"    - {flow(row)}" for row in kn]
+    return disps, kn, lines
+
+
+def cross_curves_block(sheet: Sheet, trim: str) -> str:
+    """Cross curves; with a first column `trim` (m), one table per trim (SPEC `trims`)."""
+    first_name = name_and_unit(sheet.header[0], 1)[0]
+    groups = by_trim(sheet) if first_name == "trim" else None
+    if groups is None:
+        if trim == "fixed":
+            raise TableError("--trim fixed needs the trims: a first column 'trim'")
+        heels = _heels(sheet)
+        disps, kn, _ = _kn_rows(sheet, heels)
+        lines = ["cross_curves:", f"  trim: {trim}", f"  heel: {flow(heels)}",
+                 f"  displacement: {flow(disps)}", "  kn:"]
+        lines += [f"    - {flow(row)}" for row in kn]
+        return "\n".join(lines) + "\n"
+    heels = _heels(groups[0][1])
+    tables = [(t, _kn_rows(g, heels)) for t, g in groups]
+    for t, (disps, _, lines_of) in tables[1:]:
+        _same_rows("displacement", tables[0][1][0], disps, lines_of, t)
+    lines = ["cross_curves:", f"  trim: {trim}", f"  trims: {flow([t for t, _ in tables])}",
+             f"  heel: {flow(heels)}", f"  displacement: {flow(tables[0][1][0])}", "  kn:"]
+    for _, (_, kn, _) in tables:
+        lines += [f"    - - {flow(kn[0])}"] + [f"      - {flow(row)}" for row in kn[1:]]
     return "\n".join(lines) + "\n"
 
 
