@@ -10,7 +10,7 @@ from typing import Any
 
 from reportgen.yamltext import number, text_value
 
-SCHEMA_LINE = "# yaml-language-server: $schema=reportgen-condition-1.schema.json"
+SCHEMA_FILE = "condition.schema.json"  # `reportgen schema condition`; docs/schema/ has a copy
 _CONTROL = re.compile(r"[\x00-\x1f\x7f-\x9f]")
 
 
@@ -31,12 +31,13 @@ def _tank_line(tank: Any) -> str:
             f"({_comment(tank.content)}, {tank.fs_role}); {size}")
 
 
-def condition_text(vessel: Any, vessel_ref: str) -> str:
+def condition_text(vessel: Any, vessel_ref: str, schema_ref: str = SCHEMA_FILE) -> str:
     """The text of a new condition file for `vessel`, naming it by `vessel_ref` (the path of
-    the vessel file relative to the condition file)."""
+    the vessel file relative to the condition file) and the JSON Schema for an editor by
+    `schema_ref` (likewise)."""
     ls = vessel.lightship
     lines = [
-        SCHEMA_LINE,
+        f"# yaml-language-server: $schema={schema_ref}",
         "format: reportgen/condition-1",
         f"vessel: {text_value(vessel_ref)}",
         "condition:",

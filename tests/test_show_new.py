@@ -12,6 +12,7 @@ from __future__ import annotations
 import json
 from pathlib import Path
 
+import jsonschema
 import pytest
 import yaml
 from click.testing import CliRunner
@@ -79,7 +80,12 @@ def test_new_writes_a_condition_check_accepts(tmp_path):
     assert done.exit_code == 0, done.output
     text = out.read_text()
     data = yaml.safe_load(text)
-    assert text.splitlines()[0].startswith("# yaml-language-server: $schema=")
+    first = text.splitlines()[0]
+    hint = first.removeprefix("# yaml-language-server: $schema=")
+    assert hint != first and (out.parent / hint).resolve() == ROOT / "docs/schema/condition.schema.json"
+    # The editor's schema (jsonschema, an independent validator) accepts the template.
+    schema = json.loads((ROOT / "docs/schema/condition.schema.json").read_text())
+    jsonschema.Draft202012Validator(schema).validate(data)
     assert (out.parent / data["vessel"]).resolve() == VESSEL.resolve()
     assert data["tanks"] == {t["id"]: {"percent": 0} for t in DATA["tanks"]}
     assert data["items"] == []

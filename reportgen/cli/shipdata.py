@@ -242,11 +242,16 @@ def new(vessel: Path, output: Path, force: bool) -> None:
     """A condition file to start from: every tank at zero, no items."""
     from reportgen.files import check_output, write_atomic
     from reportgen.inputs import load_vessel
-    from reportgen.newcondition import condition_text
+    from reportgen.newcondition import SCHEMA_FILE, condition_text
 
     model = load_vessel(vessel)
     check_output(output, force)
-    ref = Path(os.path.relpath(vessel.resolve(), output.resolve().parent)).as_posix()
-    write_atomic(output, condition_text(model, ref).encode("utf-8"), force=force)
+    here = output.resolve().parent
+    ref = Path(os.path.relpath(vessel.resolve(), here)).as_posix()
+    # The editor's schema: the repository's copy in docs/schema when reportgen runs from a
+    # checkout, else a file of that name beside the condition (`reportgen schema condition`).
+    docs = Path(__file__).resolve().parents[2] / "docs" / "schema" / SCHEMA_FILE
+    schema_ref = Path(os.path.relpath(docs, here)).as_posix() if docs.is_file() else SCHEMA_FILE
+    write_atomic(output, condition_text(model, ref, schema_ref).encode("utf-8"), force=force)
     click.echo(f"{output}: a condition for {model.vessel.name} with {len(model.tanks)} tanks "
                f"at zero and no items", err=True)
