@@ -161,3 +161,15 @@ def test_shaped_tank_rows_hold_circ_1229_by_interpolation():
         got_i = np.interp(h, table["sounding"], table["fsi"])
         assert got_v == pytest.approx(volume, rel=0.02)  # Circ.1229: volume 2 %
         assert got_i == pytest.approx(fsi, rel=0.02)  # Circ.1229: FSM 2 %
+
+
+def test_vessel_data_refuses_a_tank_without_its_table(made):
+    """Every route to the numbers (conditions, limits, packages) passes vessel_data."""
+    from reportgen.errors import InputError
+    from reportgen.inputs import load_vessel
+    from reportgen.vesseldata import make_vessel_data
+
+    base, _ = made
+    with pytest.raises(InputError, match="C1, W1 have a geometry but no table"):
+        make_vessel_data(load_vessel(base / "box-hull.yaml"))
+    assert make_vessel_data(load_vessel(base / "box.yaml")).tanks["C1"].capacity_m3 == 120.0
