@@ -91,6 +91,9 @@ def test_box_mesh_hydrostatics_are_the_box_formulas(tmp_path):
     np.testing.assert_allclose(h["displacement"], RHO * L * B * drafts, rtol=1e-6)
     np.testing.assert_allclose(h["kmt"], drafts / 2 + B**2 / (12 * drafts), atol=1e-4)
     np.testing.assert_allclose(h["lcb"], L / 2, atol=1e-4)
+    for t in drafts:  # KB = T/2
+        got = integrals_at(geom, Plane(float(t), 0.0, 0.0))
+        assert got.mz_m4 / got.volume_m3 == pytest.approx(t / 2, abs=1e-6)
 
 
 def test_wigley_mesh_hydrostatics_are_the_closed_forms(wigley):
@@ -104,6 +107,10 @@ def test_wigley_mesh_hydrostatics_are_the_closed_forms(wigley):
     assert h["displacement"][0] == pytest.approx(RHO * volume, rel=1e-3)
     assert h["kmt"][0] == pytest.approx(kb + bmt, abs=0.01)
     assert h["lcb"][0] == pytest.approx(L / 2, abs=0.01)
+    got = integrals_at(geom, Plane(T, 0.0, 0.0))
+    got_kb = got.mz_m4 / got.volume_m3
+    assert got_kb == pytest.approx(kb, abs=0.005)  # Circ.1229: VCB 1 % / 5 cm
+    assert h["kmt"][0] - got_kb == pytest.approx(bmt, rel=2e-3)  # BMt = I/V
 
 
 def test_offsets_hold_trimesh_volume_and_centre(wigley, tmp_path):

@@ -53,7 +53,7 @@ Exit status: 0 written; 2 bad input (nothing written).""")
 @click.argument("mesh", type=click.Path(path_type=Path))
 @click.option("-o", "--output", required=True, type=click.Path(path_type=Path),
               help="The YAML file to write (the hull: block).")
-@click.option("--stations", type=click.IntRange(3, 1001), default=None,
+@click.option("--stations", type=click.IntRange(3, 1001), default=None,  # mesh.MAX_STATIONS
               help="Number of stations, evenly spaced (default: enough to hold the mesh's "
                    "volume to 0.1 %).")
 @click.option("--scale", type=click.FloatRange(min=0, min_open=True), default=1.0,

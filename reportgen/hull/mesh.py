@@ -3,9 +3,9 @@
 Axes as in SPEC.md (x from AP forward, y to starboard, z from the moulded baseline up), all
 lengths in m (after `scale`), areas m², volumes m³.
 
-At each station the mesh is cut by the plane x = const (trimesh.intersections.mesh_plane; the end stations a
-hair inside the ends, END_NUDGE);
-the cut's segments are joined into rings and the section is their even-odd union (shapely).
+At each station the mesh is cut by the plane x = const (trimesh.intersections.mesh_plane; the
+end stations a hair inside the ends, END_NUDGE); the cut's segments are joined into rings
+(shapely.polygonize) and the section is their even-odd union, so a hollow stays a hollow.
 Its starboard half (y ≥ 0) gives the offsets from the keel (the lowest point on the
 centreline) round the outside to the deck edge: the run of the outline that goes inboard
 across the deck, nearly level (|dz| ≤ DECK_SLOPE·|dy|), is left out, so the written section
