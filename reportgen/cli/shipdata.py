@@ -255,3 +255,7 @@ def new(vessel: Path, output: Path, force: bool) -> None:
     write_atomic(output, condition_text(model, ref, schema_ref).encode("utf-8"), force=force)
     click.echo(f"{output}: a condition for {model.vessel.name} with {len(model.tanks)} tanks "
                f"at zero and no items", err=True)
+    untabled = [t.id for t in model.tanks if t.table is None]
+    if untabled:
+        click.echo(f"reportgen: note: tanks {', '.join(untabled)} have no table yet: make the "
+                   f"vessel's tables with 'reportgen tables' before checking", err=True)
