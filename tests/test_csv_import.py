@@ -118,7 +118,10 @@ def test_hydrostatics_errors(tmp_path):
 
 def test_cross_curve_errors(tmp_path):
     good = "displacement,0,30,60\n100,0,1,2\n200,0,1.1,2.1\n"
-    assert run_import(tmp_path, "cross-curves", good).exit_code == 2  # --trim is required
+    done = run_import(tmp_path, "cross-curves", good)  # without --trim: free, said so
+    assert done.exit_code == 0 and "trim: free    # assumed" in done.stdout
+    assert "made free to trim" in done.stderr
+    assert yaml.safe_load(done.stdout)["cross_curves"]["trim"] == "free"
     done = run_import(tmp_path, "cross-curves", good.replace("30,60", "30,45"), "--trim", "free")
     assert done.exit_code == 2 and "at least 60" in done.output
     done = run_import(tmp_path, "cross-curves", good.replace("1.1", "x"), "--trim", "free")

@@ -159,7 +159,8 @@ Exit status: 0 printed or written; 2 bad input (the line and column named).""")
 @click.argument("kind", type=click.Choice(["hydrostatics", "cross-curves", "tank", "offsets"]))
 @click.argument("csv_file", metavar="FILE.csv", type=click.Path(path_type=Path))
 @click.option("--trim", type=click.Choice(["free", "even_keel", "fixed"]), default=None,
-              help="Cross curves: how the table was made (stated on every sheet).")
+              help="Cross curves: how the table was made (stated on every sheet; default "
+                   "free, said in the block).")
 @click.option("--density", type=click.FloatRange(0.99, 1.05), default=1.025,
               help="Hydrostatics and offsets: the water density of the table, t/m³.")
 @click.option("-o", "--output", type=click.Path(path_type=Path), default=None,
@@ -180,6 +181,10 @@ def import_table(kind: str, csv_file: Path, trim: str | None, density: float,
     except TableError as exc:
         raise InputError(f"{csv_file}: {exc}") from None
     _validate_block(kind, text, csv_file)
+    if kind == "cross-curves" and trim is None:
+        click.echo("reportgen: note: cross curves taken as made free to trim (trim: free); "
+                   "give --trim even_keel or --trim fixed if the booklet's table is otherwise",
+                   err=True)
     if output is None:
         click.echo(text, nl=False)
     else:

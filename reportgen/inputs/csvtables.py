@@ -45,6 +45,10 @@ POSITIVE = ("displacement", "kmt", "mct", "tpc", "lwl", "cb")
 _HEADER = re.compile(r"^\s*([^\[\(]*?)\s*(?:[\[\(]\s*([^\]\)]*?)\s*[\]\)])?\s*$")
 
 
+ASSUMED_TRIM = ("# assumed: the CSV does not say how the table was made; give --trim "
+                "even_keel or fixed if the booklet says so")
+
+
 class TableError(ValueError):
     """A problem in the CSV file; the message names the line and column."""
 
@@ -320,9 +324,9 @@ def block(kind: str, text: str, *, density: float = 1.025, trim: str | None = No
         return tank_block(sheet)
     if kind == "offsets":
         return offsets_block(sheet, density)
-    if trim is None:
-        raise TableError("cross curves: say how the table was made with --trim free or "
-                         "--trim even_keel (it is stated on every sheet)")
+    if trim is None:  # SPEC's default basis, said in the block itself
+        return cross_curves_block(sheet, "free").replace(
+            "  trim: free\n", f"  trim: free    {ASSUMED_TRIM}\n", 1)
     return cross_curves_block(sheet, trim)
 
 
