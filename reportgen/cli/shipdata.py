@@ -19,15 +19,15 @@ _GENERATED = ("# Hull offsets made by", "# (SHA-256 ", "# the offsets (closed", 
 CSV_MAX_BYTES = 16 * 1024 * 1024
 
 
-def with_tank_tables(text: str, vessel, vessel_path: Path) -> str:
-    """`text` (the vessel file being written by `tables`) with the sounding tables of the
-    tanks given by geometry; unchanged when there are none."""
+def tank_tables_of(vessel, vessel_path: Path) -> dict | None:
+    """The sounding tables of the vessel's tanks given by geometry (None when there are none),
+    made before the hull's tables so that a bad tank box is reported at once."""
     from reportgen.hull.sections import hull_from_stations
-    from reportgen.hull.tankfile import tank_tables, tanks_block, text_with_tanks
+    from reportgen.hull.tankfile import tank_tables
 
     n = sum(t.geometry is not None for t in vessel.tanks)
     if not n:
-        return text
+        return None
     hull = hull_from_stations([(float(s.x), [list(p) for p in s.points])
                                for s in vessel.hull.stations])
     try:
@@ -36,7 +36,15 @@ def with_tank_tables(text: str, vessel, vessel_path: Path) -> str:
     except ValueError as exc:
         raise InputError(f"{vessel_path}: {exc}") from None
     click.echo(f"tank tables of {n} tank(s) made from their geometry", err=True)
-    return text_with_tanks(text, tanks_block(vessel, made))
+    return made
+
+
+def with_tank_tables(text: str, vessel, made: dict | None) -> str:
+    """`text` (the vessel file `tables` writes) with the tank tables `made` (tank_tables_of);
+    unchanged when there are none."""
+    from reportgen.hull.tankfile import tanks_block, text_with_tanks
+
+    return text if made is None else text_with_tanks(text, tanks_block(vessel, made))
 
 
 @main.command("hull-from-mesh", epilog="""\b
