@@ -232,3 +232,11 @@ def test_asymmetric_and_absurd_meshes_refused(tmp_path):
     assert "not symmetric" in refused(tmp_path, "lopsided.obj", lopsided.encode())
     absurd = "v 0 0 0\nv 1e300 0 0\nv 0 1e300 0\nv 0 0 1e300\n" + tet
     assert "not a ship's length" in refused(tmp_path, "absurd.obj", absurd.encode())
+
+
+def test_millimetre_mesh_with_scale_is_the_metre_mesh(tmp_path):
+    mesh = box_mesh()
+    mesh.apply_scale(1000.0)
+    _, got = offsets(tmp_path, mesh, "mm.stl", "--scale", "0.001", "--stations", "5")
+    _, want = offsets(tmp_path, box_mesh(), "m.stl", "--stations", "5")
+    assert got == want
