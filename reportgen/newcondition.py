@@ -56,6 +56,15 @@ def condition_text(vessel: Any, vessel_ref: str, schema_ref: str = SCHEMA_FILE) 
         lines += [_tank_line(t) for t in vessel.tanks]
     else:
         lines.append("tanks: {}                        # this vessel has no tanks")
+    holds = getattr(getattr(vessel, "grain", None), "compartments", None) or []
+    if holds:
+        lines.append("# Grain in bulk (International Grain Code), when carried: uncomment and fill in;")
+        lines.append("# a hold is filled (trimmed | untrimmed) or partly filled by volume (m³) or mass (t).")
+        lines.append("# grain:")
+        lines.append("#   stowage_factor: 1.30          # m³/t")
+        lines.append("#   compartments:")
+        lines += [f"#     {text_value(h.id)}: {{filled: trimmed}}    # {_comment(h.name)}: "
+                  f"{h.filled.volume:.1f} m³ filled" for h in holds]
     lines += [
         "# Items: cargo, stores, crew, deck cargo; masses t, centres m (lcg from AP, vcg above",
         "# base, tcg + starboard); deck cargo adds its windage with wind_area (m²) and wind_z.",

@@ -60,9 +60,10 @@ def render_show(s: dict[str, Any]) -> str:
         con.print(t)
     con.print(f"\nHolds ({len(s['holds'])})", markup=False)
     if s["holds"]:
-        t = _table(("Id", "left"), ("Name", "left"), ("Filled volume m³", "right"))
+        t = _table(("Id", "left"), ("Name", "left"), ("Filled volume m³", "right"),
+                   ("Grain VHM filled m⁴", "right"))
         for r in s["holds"]:
-            t.add_row(_t(r["id"]), _t(r["name"]), _n(r["volume_m3"], 1))
+            t.add_row(_t(r["id"]), _t(r["name"]), _n(r["volume_m3"], 1), _n(r["vhm_m4"], 1))
         con.print(t)
     con.print(f"\nOpenings ({len(s['openings'])})", markup=False)
     if s["openings"]:

@@ -40,13 +40,15 @@ def tank_rows(vessel: Any) -> list[dict[str, Any]]:
 
 
 def hold_rows(vessel: Any) -> list[dict[str, Any]]:
-    """Grain compartments (when the vessel file has `grain`): id, name, filled volume m³."""
+    """Grain compartments (when the vessel file has `grain`): id, name, filled volume m³ and
+    the volumetric heeling moment filled and trimmed, m⁴ (International Grain Code A 2.2)."""
     grain = getattr(vessel, "grain", None)
     out = []
     for c in getattr(grain, "compartments", None) or []:
         filled = getattr(c, "filled", None)
         out.append({"id": getattr(c, "id", None), "name": getattr(c, "name", None),
-                    "volume_m3": getattr(filled, "volume", None)})
+                    "volume_m3": getattr(filled, "volume", None),
+                    "vhm_m4": getattr(filled, "vhm", None)})
     return out
 
 

@@ -44,6 +44,9 @@ def test_show_json_lists_tanks_criteria_and_ranges():
     assert c["displacement"][1] == DATA["cross_curves"]["displacement"][-1]
     assert len(s["openings"]) == len(DATA["openings"])
     assert s["tables"]["hull"]["stations"] == len(DATA["hull"]["stations"])
+    holds = DATA.get("grain", {}).get("compartments", [])
+    assert [(h["id"], h["volume_m3"]) for h in s["holds"]] == [
+        (c["id"], c["filled"]["volume"]) for c in holds]
 
 
 def test_show_text_is_a_readable_table():
@@ -108,3 +111,23 @@ def test_new_never_replaces(tmp_path):
     copy.write_bytes(VESSEL.read_bytes())
     done = run("new", copy, "-o", copy, "--force")
     assert done.exit_code == 2 and copy.read_bytes() == VESSEL.read_bytes()
+
+
+def test_new_lists_the_holds_for_grain(tmp_path):
+    """With grain compartments in the vessel file the template carries a commented grain
+    block; uncommented as it stands it is a condition `check` evaluates."""
+    holds = DATA.get("grain", {}).get("compartments", [])
+    if not holds:
+        pytest.skip("the demo vessel has no grain compartments")
+    out = tmp_path / "grain.yaml"
+    assert run("new", VESSEL, "-o", out).exit_code == 0
+    lines = out.read_text().splitlines()
+    start = lines.index("# grain:")
+    block = [ln[2:] for ln in lines[start:start + 3 + len(holds)]]
+    text = "\n".join(lines[:start] + block + lines[start + 3 + len(holds):]) + "\n"
+    for c in holds:
+        assert f"{c['id']}: {{filled: trimmed}}" in text
+    out.write_text(text)
+    checked = run("check", out, "--json")
+    assert checked.exit_code in (0, 1), checked.output
+    assert json.loads(checked.stdout)["grain"] is not None
