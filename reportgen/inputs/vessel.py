@@ -13,6 +13,7 @@ from pydantic import AfterValidator, Field, model_validator
 from shapely.geometry import Polygon
 
 from reportgen.criteria.sets import SETS
+from reportgen.inputs.booklet import LimitingCurve
 from reportgen.inputs.fields import (
     Column,
     Density,
@@ -285,23 +286,6 @@ class HullOffsets(Model):
         if len(self.stations) < 3:
             raise ValueError("needs at least three stations")
         increasing([s.x for s in self.stations])
-        return self
-
-
-class LimitingCurve(Model):
-    """The approved booklet's limiting curve (criteria set booklet.limits): KG max (m, KG
-    corrected for free surface) or GM min (m, GM corrected) by displacement (t)."""
-
-    source: Text
-    displacement: Increasing  # t
-    kg: list[Positive] | None = None  # m, maximum KG corrected
-    gm: list[Num] | None = None  # m, minimum GM corrected
-
-    @model_validator(mode="after")
-    def _one_column(self) -> LimitingCurve:
-        if (self.kg is None) == (self.gm is None):
-            raise ValueError("give exactly one of kg (maximum KG) and gm (minimum GM)")
-        equal_lengths(self, ["displacement", "kg", "gm"])
         return self
 
 
