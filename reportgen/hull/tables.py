@@ -19,10 +19,15 @@ from reportgen.hull.hydrostatics import (
     HullGeometry,
     Plane,
     _axes,
-    hydrostatics_at,
     prepare_hull,
 )
 from reportgen.hull.sections import hull_from_stations
+from reportgen.hull.trimmed import (
+    check_block_coefficient,
+    check_stations,
+    hydrostatic_rows,
+    upright_at_trim,
+)
 
 N_DRAUGHTS = 41
 N_DISPLACEMENTS = 20
@@ -38,6 +43,9 @@ _DEC_ANGLE = 3
 _DEC_PER_CM = 3
 _DEC_COEFF = 4
 _DEC_DENSITY = 4
+_HYDRO_DECIMALS = (("displacement", _DEC_MASS), ("lcb", _DEC_LENGTH), ("lcf", _DEC_LENGTH),
+                   ("kmt", _DEC_LENGTH), ("mct", _DEC_PER_CM), ("tpc", _DEC_PER_CM),
+                   ("lwl", _DEC_LENGTH), ("cb", _DEC_COEFF))
 
 
 def _round(values: Sequence[float] | np.ndarray, decimals: int) -> list[float]:
@@ -70,25 +78,6 @@ def draught_range(geom: HullGeometry, vessel: Any, density: float) -> np.ndarray
             f"({float(p.depth):.3f} m)"
         )
     return np.round(np.linspace(t_lo, t_hi, N_DRAUGHTS), _DEC_LENGTH)
-
-
-def hydrostatic_table(geom: HullGeometry, drafts_m: np.ndarray, density: float
-                      ) -> dict[str, Any]:
-    """Even-keel upright hydrostatics at each draught, in the SPEC column layout."""
-    rows = [hydrostatics_at(geom, Plane(float(t), 0.0, 0.0), density) for t in drafts_m]
-    col = {k: [r[k] for r in rows] for k in rows[0]}
-    return {
-        "density": round(float(density), _DEC_DENSITY),
-        "draft": _round(drafts_m, _DEC_LENGTH),
-        "displacement": _round(col["displacement"], _DEC_MASS),
-        "lcb": _round(col["lcb"], _DEC_LENGTH),
-        "lcf": _round(col["lcf"], _DEC_LENGTH),
-        "kmt": _round(col["kmt"], _DEC_LENGTH),
-        "mct": _round(col["mct"], _DEC_PER_CM),
-        "tpc": _round(col["tpc"], _DEC_PER_CM),
-        "lwl": _round(col["lwl"], _DEC_LENGTH),
-        "cb": _round(col["cb"], _DEC_COEFF),
-    }
 
 
 def clearance_m(geom: HullGeometry, plane: Plane, points_xyz: np.ndarray) -> float:
@@ -174,6 +163,7 @@ def build_tables(
     *,
     even_keel: bool = False,
     heels_deg: Sequence[float] | None = None,
+    trims: Sequence[float] | None = None,
     progress: Callable[[int, int], None] | None = None,
 ) -> dict[str, Any]:
     """Hydrostatics, cross curves (KN), deck-edge and flooding angles from vessel.hull.
@@ -184,65 +174,100 @@ def build_tables(
     even_keel: cross curves at zero trim instead of free trim (free trim: at each
     displacement, xB is held at the even-keel upright LCB, so the ship trims as it heels).
     heels_deg: the cross-curve heels, deg (default 0 to 90 step 5; must start at 0).
+    trims: the trims (m, + by the stern) to make every table at (SPEC.md `trims`; see
+    reportgen.hull.trimmed); None: one even-keel table of each.
     progress(done, total): called as the work advances.
 
-    Hydrostatics: N_DRAUGHTS even-keel draughts (see draught_range). Cross curves:
-    N_DISPLACEMENTS displacements spanning the same range. Deck edge: the least heel at
-    which a deck-edge point (the last offset of a station, starboard) reaches the
+    Hydrostatics: N_DRAUGHTS draughts (see draught_range; at midships with trims). Cross
+    curves: N_DISPLACEMENTS displacements spanning the same range. Deck edge: the least heel
+    at which a deck-edge point (the last offset of a station, starboard) reaches the
     equilibrium waterplane. Flooding angle (only when openings exist): the least heel at
     which an opening reaches it; each opening is taken at |y| on the immersing (starboard)
     side, which is conservative for an opening given on the other side (it is treated as
     if it also had a twin on the immersing side).
+
+    Raises ValueError when the offsets cannot be integrated faithfully (too few or too
+    widely spaced stations, a block coefficient above 1; reportgen.hull.trimmed).
     """
     density = float(vessel.hull.density)
     geom = geometry_of(vessel)
     heels = [float(h) for h in (DEFAULT_HEELS_DEG if heels_deg is None else heels_deg)]
     if not heels or heels[0] != 0.0 or np.any(np.diff(heels) <= 0):
         raise ValueError("the cross-curve heels must start at 0 and increase")
+    if trims is not None and even_keel:
+        raise ValueError("--even-keel and --trims exclude each other: tables at several "
+                         "trims are made free to trim from each trim")
+    check_stations(geom, float(vessel.particulars.summer_draft))
 
     drafts = draught_range(geom, vessel, density)
+    at = [None] if trims is None else [float(t) for t in trims]
     n_disp = N_DISPLACEMENTS
-    total = 1 + n_disp
+    total = 1 + n_disp * len(at)
     done = 0
-    hydro = hydrostatic_table(geom, drafts, density)
+    cols: dict[str, list[list[float]]] = {}
+    for t in at:
+        for k, v in hydrostatic_rows(geom, drafts, t or 0.0, density).items():
+            cols.setdefault(k, []).append(v)
+    check_block_coefficient(cols["cb"], list(drafts), trims)
+    hydro: dict[str, Any] = {"density": round(density, _DEC_DENSITY)}
+    if trims is not None:
+        hydro["trims"] = _round(at, _DEC_LENGTH)
+    hydro["draft"] = _round(drafts, _DEC_LENGTH)
+    for key, dec in _HYDRO_DECIMALS:
+        cols[key] = [_round(row, dec) for row in cols[key]]
+        hydro[key] = cols[key][0] if trims is None else cols[key]
+    # cross curves over the displacements every trim's hydrostatic row covers
+    lo = max(row[0] for row in cols["displacement"])
+    hi = min(row[-1] for row in cols["displacement"])
     done += 1
     if progress is not None:
         progress(done, total)
 
-    disps = np.round(np.linspace(hydro["displacement"][0], hydro["displacement"][-1], n_disp),
-                     _DEC_MASS)
+    disps = np.round(np.linspace(lo, hi, n_disp), _DEC_MASS)
     deck = deck_edge_points(geom)
     vents = opening_points(getattr(vessel, "openings", None) or [])
-    kn_rows: list[list[float]] = []
-    deck_angles: list[float] = []
-    flood_angles: list[float] = []
-    for disp in disps:
-        vol = float(disp) / density
-        upright = equilibrium(geom, vol, 0.0)
-        lcg = None if even_keel else upright.lcb_m
-        states = heel_scan(geom, vol, lcg, heels, upright=upright)
-        kn_rows.append(_round([e.kn_m for e in states], _DEC_LENGTH))
-        deck_angles.append(immersion_angle(geom, deck, vol, lcg, states))
-        if len(vents):
-            flood_angles.append(immersion_angle(geom, vents, vol, lcg, states))
-        done += 1
-        if progress is not None:
-            progress(done, total)
+    kn_rows: list[list[list[float]]] = []
+    deck_angles: list[list[float]] = []
+    flood_angles: list[list[float]] = []
+    for t in at:
+        kn_t, deck_t, flood_t = [], [], []
+        for disp in disps:
+            vol = float(disp) / density
+            if t is None:
+                upright = equilibrium(geom, vol, 0.0)
+                lcg = None if even_keel else upright.lcb_m
+            else:  # the LCG that gives trim t upright (reportgen.hull.trimmed)
+                upright = upright_at_trim(geom, vol, t)
+                lcg = upright.lcb_m
+            states = heel_scan(geom, vol, lcg, heels, upright=upright)
+            kn_t.append(_round([e.kn_m for e in states], _DEC_LENGTH))
+            deck_t.append(immersion_angle(geom, deck, vol, lcg, states))
+            if len(vents):
+                flood_t.append(immersion_angle(geom, vents, vol, lcg, states))
+            done += 1
+            if progress is not None:
+                progress(done, total)
+        kn_rows.append(kn_t)
+        deck_angles.append(_round(deck_t, _DEC_ANGLE))
+        flood_angles.append(_round(flood_t, _DEC_ANGLE))
 
+    one = trims is None  # one table: flat rows, no trims key
+    trim_key = {} if one else {"trims": hydro["trims"]}
+    disp_list = _round(disps, _DEC_MASS)
     out: dict[str, Any] = {
         "hydrostatics": hydro,
         "cross_curves": {
-            "trim": "even_keel" if even_keel else "free",
+            "trim": "even_keel" if even_keel else "free", **trim_key,
             "heel": _round(heels, _DEC_HEEL),
-            "displacement": _round(disps, _DEC_MASS),
-            "kn": kn_rows,
+            "displacement": disp_list,
+            "kn": kn_rows[0] if one else kn_rows,
         },
-        "deck_edge": {"displacement": _round(disps, _DEC_MASS),
-                      "angle": _round(deck_angles, _DEC_ANGLE)},
+        "deck_edge": {**trim_key, "displacement": disp_list,
+                      "angle": deck_angles[0] if one else deck_angles},
     }
     if len(vents):
-        out["flooding_angle"] = {"displacement": _round(disps, _DEC_MASS),
-                                 "angle": _round(flood_angles, _DEC_ANGLE)}
+        out["flooding_angle"] = {**trim_key, "displacement": disp_list,
+                                 "angle": flood_angles[0] if one else flood_angles}
     return out
 
 
@@ -259,26 +284,45 @@ def _flow(values: Sequence[float], decimals: int) -> str:
     return "[" + ", ".join(_num(v, decimals) for v in values) + "]"
 
 
+def _column(key: str, values: Sequence, decimals: int, per_trim: bool, indent: str
+            ) -> list[str]:
+    """A column as one flow list, or with trims as a block list of one flow row per trim."""
+    if not per_trim:
+        return [f"{indent}{key}: {_flow(values, decimals)}"]
+    return [f"{indent}{key}:"] + [f"{indent}  - {_flow(row, decimals)}" for row in values]
+
+
 def format_block(name: str, block: dict[str, Any]) -> str:
     """The YAML text of one generated top-level block (ending in a newline)."""
     lines = [GENERATED_COMMENT, f"{name}:"]
     if name == "hydrostatics":
         lines.append(f"  density: {_num(block['density'], _DEC_DENSITY)}")
-        for key, dec in (("draft", _DEC_LENGTH), ("displacement", _DEC_MASS),
-                         ("lcb", _DEC_LENGTH), ("lcf", _DEC_LENGTH), ("kmt", _DEC_LENGTH),
-                         ("mct", _DEC_PER_CM), ("tpc", _DEC_PER_CM), ("lwl", _DEC_LENGTH),
-                         ("cb", _DEC_COEFF)):
+        trimmed = block.get("trims") is not None
+        if trimmed:
+            lines.append(f"  trims: {_flow(block['trims'], _DEC_LENGTH)}")
+        lines.append(f"  draft: {_flow(block['draft'], _DEC_LENGTH)}")
+        for key, dec in _HYDRO_DECIMALS:
             if block.get(key) is not None:
-                lines.append(f"  {key}: {_flow(block[key], dec)}")
+                lines.extend(_column(key, block[key], dec, trimmed, "  "))
     elif name == "cross_curves":
         lines.append(f"  trim: {block['trim']}")
+        if block.get("trims") is not None:
+            lines.append(f"  trims: {_flow(block['trims'], _DEC_LENGTH)}")
         lines.append(f"  heel: {_flow(block['heel'], _DEC_HEEL)}")
         lines.append(f"  displacement: {_flow(block['displacement'], _DEC_MASS)}")
         lines.append("  kn:")
-        lines.extend(f"    - {_flow(row, _DEC_LENGTH)}" for row in block["kn"])
+        if block.get("trims") is None:
+            lines.extend(f"    - {_flow(row, _DEC_LENGTH)}" for row in block["kn"])
+        else:
+            for t, table in zip(block["trims"], block["kn"], strict=True):
+                lines.append(f"    - # trim {_num(t, _DEC_LENGTH)} m")
+                lines.extend(f"      - {_flow(row, _DEC_LENGTH)}" for row in table)
     else:
+        trimmed = block.get("trims") is not None
+        if trimmed:
+            lines.append(f"  trims: {_flow(block['trims'], _DEC_LENGTH)}")
         lines.append(f"  displacement: {_flow(block['displacement'], _DEC_MASS)}")
-        lines.append(f"  angle: {_flow(block['angle'], _DEC_ANGLE)}")
+        lines.extend(_column("angle", block["angle"], _DEC_ANGLE, trimmed, "  "))
     return "\n".join(lines) + "\n"
 
 

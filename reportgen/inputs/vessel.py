@@ -164,7 +164,7 @@ class CrossCurves(Model):
         return self
 
 
-Angle = Annotated[float, Field(gt=0, le=90)]
+Angle = Annotated[float, Field(ge=0, le=90)]  # 0: immersed already upright
 
 
 class AngleTable(Model):
