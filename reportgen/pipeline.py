@@ -14,14 +14,17 @@ from reportgen.results import Results
 from reportgen.vesseldata import VesselData, vessel_data
 
 
-def evaluate(case: Case, data: VesselData | None = None) -> Results:
+def evaluate(case: Case, data: VesselData | None = None, method: str | None = None
+             ) -> Results:
     """Evaluate a case. `data` (the vessel's arrays) may be passed when evaluating many
-    conditions of one vessel; it must have been made from `case.vessel`.
+    conditions of one vessel; it must have been made from `case.vessel`. `method` (tables |
+    hull) overrides the vessel's calculation.method (check --compare).
 
     An InputError found while evaluating (a displacement beyond the tables, a windage profile
     that does not reach above the waterline, ...) names the condition and vessel files."""
     try:
-        up = stages.upright(case, data if data is not None else vessel_data(case.vessel))
+        up = stages.upright(case, data if data is not None else vessel_data(case.vessel),
+                            method)
         fsc, kg_fluid = stages.kg_fluid_of(up)
         return assemble.results(up, stages.at_kg(up, kg_fluid), fsc)
     except InputError as exc:

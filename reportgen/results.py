@@ -247,7 +247,7 @@ class Assumptions(Section):
     wind_pressure: F
     z_method: str
     roll_angle_source: str | None
-    cb_source: str  # table | computed
+    cb_source: str  # table | computed | hull
     list_side: str | None
     gz_beyond_flooding: Literal["exclude", "include"]
     fsc_method: str

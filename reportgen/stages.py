@@ -18,6 +18,7 @@ from reportgen import angles as angle_rules
 from reportgen.criteria import core, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
+from reportgen.errors import InputError
 from reportgen.floating import Floating, floating_on_tables
 from reportgen.inputs import Case
 from reportgen.loading import Loading, condition_loading
@@ -114,22 +115,40 @@ def _hull_angle(case: Case, vd: VesselData, loading: Loading):
     return angle
 
 
-def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating) -> angle_rules.Angles:
+def _on_hull(case: Case, vd: VesselData, loading: Loading):
+    """The condition computed on the hull offsets (calculation.method: hull)."""
+    from reportgen.hull.direct import on_hull
+    from reportgen.hull.trimmed import check_stations
+
+    try:
+        check_stations(vd.hull, case.vessel.particulars.summer_draft)
+        return on_hull(vd.hull, loading.totals.displacement,
+                       case.condition.condition.water_density, loading.totals.lcg)
+    except ValueError as exc:
+        raise InputError(str(exc)) from None
+
+
+def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating,
+            finder=None) -> angle_rules.Angles:
+    """θf and the deck edge; with `finder` (the hull route's) both come from the hull."""
     v = case.vessel
     p = v.particulars
     needs_hull = not (angle_rules.is_multi_trim(vd.deck_edge)
                       and (angle_rules.is_multi_trim(vd.flooding) or not v.openings))
-    finder = _hull_angle(case, vd, loading) if needs_hull else None
+    on_hull = finder is not None
+    if not on_hull:
+        finder = _hull_angle(case, vd, loading) if needs_hull else None
     s = angle_rules.Situation(fl.displacement_table_t, fl.trim, fl.draughts.mid, finder)
     deck_points = None
     if vd.hull is not None and finder is not None:
         from reportgen.hull.tables import deck_edge_points
 
         deck_points = deck_edge_points(vd.hull)
-    deck, w1 = angle_rules.deck_edge_angle(vd.deck_edge, s, deck_points, p.depth, p.breadth,
-                                           p.length_bp)
+    deck, w1 = angle_rules.deck_edge_angle(None if on_hull else vd.deck_edge, s, deck_points,
+                                           p.depth, p.breadth, p.length_bp)
     openings = [angle_rules.Opening(o.name, o.x, o.y, o.z) for o in v.openings]
-    flood, w2 = angle_rules.flooding_angle(vd.flooding, s, openings, p.length_bp)
+    flood, w2 = angle_rules.flooding_angle(None if on_hull else vd.flooding, s, openings,
+                                           p.length_bp)
     return angle_rules.Angles(deck, flood, tuple(w1 + w2))
 
 
@@ -138,7 +157,7 @@ def _roll_hull(case: Case, fl: Floating, loading: Loading) -> tuple[rolling.Hull
     lwl = fl.lwl if fl.lwl is not None else p.length_bp
     d = fl.draughts.mid
     if fl.cb is not None:
-        cb, source = fl.cb, "table"
+        cb, source = fl.cb, "hull" if fl.method == "hull" else "table"
     else:
         rho = case.condition.condition.water_density
         cb = rolling.block_coefficient(loading.totals.displacement, rho, lwl, p.breadth, d)
@@ -147,18 +166,25 @@ def _roll_hull(case: Case, fl: Floating, loading: Loading) -> tuple[rolling.Hull
 
 
 def _load_line(case: Case, vd: VesselData, fl: Floating) -> tuple[LoadLine | None, list[str]]:
-    """The load line from the hydrostatic table's even-keel row (trim 0) in salt water."""
+    """The load line from the hydrostatic table's even-keel row (trim 0) in salt water, or
+    from the hull on an even keel with the hull route."""
     h = vd.hydro
-    if h is None:
-        return None, []
-    k = 0
-    if h.trims is not None:
-        k = int(np.argmin(np.abs(h.trims)))
     p = case.vessel.particulars
-    disp_t, tpc_t = summer_row(h.draft[k], h.displacement[k], h.tpc[k], p.summer_draft)
-    scale = SALT_WATER_T_M3 / h.density
+    if fl.method == "hull":
+        from reportgen.hull.direct import summer_on_hull
+
+        disp_s, tpc_s = summer_on_hull(vd.hull, p.summer_draft, SALT_WATER_T_M3)
+    elif h is None:
+        return None, []
+    else:
+        k = 0
+        if h.trims is not None:
+            k = int(np.argmin(np.abs(h.trims)))
+        disp_t, tpc_t = summer_row(h.draft[k], h.displacement[k], h.tpc[k], p.summer_draft)
+        scale = SALT_WATER_T_M3 / h.density
+        disp_s, tpc_s = disp_t * scale, tpc_t * scale
     rho = case.condition.condition.water_density
-    ll = load_line(p.summer_draft, disp_t * scale, tpc_t * scale, rho, fl.draughts.mid, fl.tpc)
+    ll = load_line(p.summer_draft, disp_s, tpc_s, rho, fl.draughts.mid, fl.tpc)
     if not ll.overloaded:
         return ll, []
     over_mm = round(fl.draughts.mid * 1000.0) - round(ll.permissible_draft * 1000.0)
@@ -169,21 +195,28 @@ def _load_line(case: Case, vd: VesselData, fl: Floating) -> tuple[LoadLine | Non
     return ll, [text]
 
 
-def upright(case: Case, vd: VesselData) -> Upright:
-    """Loading, floating position, KN, angles and wind of a condition (no KG needed)."""
+def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
+    """Loading, floating position, KN, angles and wind of a condition (no KG needed), by the
+    vessel's calculation.method or by `method` (tables | hull) when given."""
     v, c = case.vessel, case.condition
+    method = method or v.calculation.method
     sets = case.criteria_sets
     warnings: list[str] = []
     if v.particulars.length_bp < MIN_LENGTH_M:
         warnings.append(f"The IS Code 2008 criteria apply to ships of {MIN_LENGTH_M:g} m in "
                         f"length and over; this ship is {v.particulars.length_bp:g} m.")
     loading = condition_loading(v, c, vd.tanks)
-    fl = _floating(case, vd, loading)
+    finder = None
+    if method == "hull":
+        hull = _on_hull(case, vd, loading)
+        fl, kn, heel_max, finder = hull.floating, hull.kn, hull.heel_max_deg, hull.immersion
+    else:
+        fl = _floating(case, vd, loading)
+        kn, heel_max, kn_warnings = _kn(case, vd, fl)
+        warnings += kn_warnings
     ll, ll_warnings = _load_line(case, vd, fl)
     warnings += ll_warnings
-    kn, heel_max, kn_warnings = _kn(case, vd, fl)
-    warnings += kn_warnings
-    ang = _angles(case, vd, loading, fl)
+    ang = _angles(case, vd, loading, fl, finder)
     warnings += ang.warnings
     wind = roll_hull = None
     cb_source = "computed"
