@@ -34,3 +34,25 @@ def evaluate(case: Case, data: VesselData | None = None, method: str | None = No
 def evaluate_path(condition_path: str | Path) -> Results:
     """Read a condition file and its vessel, and evaluate."""
     return evaluate(load_case(condition_path))
+
+
+def evaluate_compared(condition_path: str | Path) -> Results:
+    """The condition by the vessel's own method, with the `comparison` of the tables against
+    the hull (reportgen.compare); the vessel needs both tables and hull offsets."""
+    from reportgen.compare import comparison
+
+    case = load_case(condition_path)
+    v = case.vessel
+    if not v.has_tables or v.hull is None:
+        missing = "hull offsets (hull:)" if v.hull is None else \
+            "hydrostatics and cross_curves"
+        raise InputError(f"{case.condition_name} (vessel {case.vessel_name}): check --compare "
+                         f"evaluates by the tables and on the hull, and the vessel file has no "
+                         f"{missing}")
+    data = vessel_data(v)
+    by_tables = evaluate(case, data, "tables")
+    by_hull = evaluate(case, data, "hull")
+    own = by_hull if v.calculation.method == "hull" else by_tables
+    doc = own.to_dict()
+    doc["comparison"] = comparison(by_tables, by_hull)
+    return Results.model_validate(doc)

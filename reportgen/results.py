@@ -16,7 +16,7 @@ from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_valid
 
 RESULTS_FORMAT = "reportgen/results-1"
 DECIMALS = 6  # every float in the document is rounded to this many decimals
-OPTIONAL_SECTIONS = ("weather", "load_line")  # left out of the JSON when None
+OPTIONAL_SECTIONS = ("weather", "load_line", "comparison")  # left out of the JSON when None
 
 
 def clean(value: Any) -> Any:
@@ -255,6 +255,20 @@ class Assumptions(Section):
     criteria_chosen: bool  # chosen by the condition among those the vessel permits
 
 
+class ComparisonEntry(Section):
+    """One quantity of `check --compare` (SPEC.md; reportgen.compare)."""
+
+    quantity: str
+    label: str
+    unit: str
+    tables: OptF
+    hull: OptF
+    difference: OptF  # tables − hull
+    tolerance: OptF  # MSC.1/Circ.1229; None where the circular gives none
+    within: bool | None
+    basis: str
+
+
 class Results(Section):
     format: Literal["reportgen/results-1"] = RESULTS_FORMAT
     software: Software
@@ -272,6 +286,7 @@ class Results(Section):
     passed: bool
     warnings: list[str] = Field(default_factory=list)
     assumptions: Assumptions
+    comparison: list[ComparisonEntry] | None = None  # only with check --compare
 
     @model_validator(mode="before")
     @classmethod
