@@ -200,6 +200,7 @@ class Weather(Section):
     kg_over_d_minus_1: F
     theta_lw2: OptF
     theta_start: OptF
+    areas_missing: list[str] = Field(default_factory=list)  # no_theta0 | no_lw2 | no_roll
 
 
 class LoadLine(Section):
