@@ -29,6 +29,16 @@ for c in conditions/*.yaml; do
   printf '   %-40s %s\n' "$name" "$verdict"
 done
 
+echo "== The tables against direct calculation on the hull (MSC.1/Circ.1229 tolerances)"
+for c in conditions/*.yaml; do
+  name=$(basename "$c" .yaml)
+  $RG check "$c" --compare > "out/$name.compare.txt"; rc=$?
+  if [[ $rc -eq 2 ]] || grep -q "BEYOND TOLERANCE" "out/$name.compare.txt"; then
+    echo "   $name: the tables and the hull differ beyond tolerance (out/$name.compare.txt)"; exit 1
+  fi
+  printf '   %-40s every quantity within tolerance\n' "$name"
+done
+
 echo "== Demo identities (self-signed, invented names, not for real use)"
 $RG keygen --name "Invented Design Office, stability section" -o out/ids/design-office --force > /dev/null || exit 1
 $RG keygen --name "A. N. Other, chief officer (invented)" -o out/ids/prepared --force > /dev/null || exit 1
