@@ -176,6 +176,7 @@ def test_a_block_coefficient_above_one_is_refused():
     (["--trims", "0,a"], "comma-separated"),
     (["--trims", "1,0"], "strictly increasing"),
     (["--trims", "0,1", "--even-keel"], "exclude each other"),
+    (["--trims=-50,50"], "beyond 10% of Lpp"),
 ])
 def test_tables_trims_misuse(tmp_path, args, message):
     src = tmp_path / "hull.yaml"
