@@ -126,7 +126,10 @@ def _on_hull(case: Case, vd: VesselData, loading: Loading):
         return on_hull(vd.hull, loading.totals.displacement,
                        case.condition.condition.water_density, loading.totals.lcg)
     except ValueError as exc:
-        raise InputError(str(exc)) from None
+        tail = ("; the LCG lies too far forward or aft of the hull's centre of buoyancy for "
+                "this displacement: check the masses and their lcg"
+                if str(exc).startswith("no free-trim equilibrium") else "")
+        raise InputError(f"{exc}{tail}") from None
 
 
 def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating,
