@@ -61,6 +61,9 @@ def test_table_route_with_trims_against_the_hull_route(both_routes, name):
     for h in range(0, 91, 5):
         assert gt[float(h)] == pytest.approx(gh[float(h)], abs=0.01), h
     assert tables.angles.flooding == pytest.approx(hull.angles.flooding, abs=0.5)
+    # the table names the governing opening (the hull route finds it on the hull)
+    assert tables.angles.flooding_opening == hull.angles.flooding_opening
+    assert tables.angles.flooding_opening_xyz == hull.angles.flooding_opening_xyz
     assert tables.hydrostatics.kmt == pytest.approx(hull.hydrostatics.kmt, abs=0.01)
     assert tables.hydrostatics.trim == pytest.approx(hull.hydrostatics.trim, abs=0.02)
 
@@ -185,3 +188,11 @@ def test_tables_trims_misuse(tmp_path, args, message):
     out = tmp_path / "out.yaml"
     r = CliRunner().invoke(main, ["tables", str(src), "-o", str(out), *args])
     assert r.exit_code == 2 and message in r.output and not out.exists()
+
+
+def test_a_flooding_table_naming_an_unknown_opening_is_refused():
+    from reportgen.inputs import parse_vessel
+
+    text = SHIP.read_text().replace('"Engine room air intake (S)"', '"Funnel top"', 1)
+    with pytest.raises(InputError, match="Funnel top"):
+        parse_vessel(text.encode(), "v.yaml")

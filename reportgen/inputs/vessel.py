@@ -172,10 +172,13 @@ class AngleTable(Model):
     trims: Trims | None = None  # m, + by the stern
     displacement: Increasing  # t
     angle: list[Angle] | list[list[Angle]]  # deg: angle[i], or angle[k][i] with trims
+    # optional (flooding angle): the governing opening's name at each entry, as `angle`
+    opening: list[Text] | list[list[Text]] | None = None
 
     @model_validator(mode="after")
     def _rows(self) -> AngleTable:
         _per_trim(self, "angle", self.trims, len(self.displacement))
+        _per_trim(self, "opening", self.trims, len(self.displacement))
         return self
 
 
@@ -323,6 +326,12 @@ class Vessel(Model):
                              "offsets, and this file has none; give hull offsets (hull:) or the "
                              "booklet's flooding_angle table (no approximation of θf is safe "
                              "enough to print)")
+        named = getattr(self.flooding_angle, "opening", None) or []
+        unknown = {n for row in named for n in (row if isinstance(row, list) else [row])} - {
+            o.name for o in self.openings}
+        if unknown:
+            raise ValueError(f"flooding_angle.opening names {min(unknown)!r}, which is not "
+                             f"one of the openings")
         ids = [t.id for t in self.tanks]
         dup = sorted({i for i in ids if ids.count(i) > 1})
         if dup:
