@@ -27,7 +27,6 @@ from reportgen.inputs.fields import (
     equal_lengths,
     increasing,
 )
-from reportgen.inputs.tablecheck import table_problems
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -346,9 +345,6 @@ class Vessel(Model):
                                  f"tanks of this vessel that name each other")
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
-        problems = table_problems(self)
-        if problems:
-            raise ValueError("implausible tables: " + "; ".join(problems))
         return self
 
     @property
