@@ -202,6 +202,15 @@ def _load_line(case: Case, vd: VesselData, fl: Floating) -> tuple[LoadLine | Non
     return ll, [text]
 
 
+def _scan_heels(method: str, v) -> list[float] | None:
+    """The heels KN is known at: the hull route's scan, or the cross curves' heels."""
+    if method == "hull":
+        from reportgen.hull.direct import HEELS_DEG
+
+        return list(HEELS_DEG)
+    return v.cross_curves.heel if v.cross_curves else None
+
+
 def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
     """Loading, floating position, KN, angles and wind of a condition (no KG needed), by the
     vessel's calculation.method or by `method` (tables | hull) when given."""
@@ -244,7 +253,7 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
     cargo = grain_cargo(v, c)
     if cargo is not None:
         warnings += grain_rules.cargo_warnings(
-            "grain.2008" in sets, v.cross_curves.heel if v.cross_curves else None,
+            "grain.2008" in sets, _scan_heels(method, v),
             has_list(loading.totals.tcg))
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
                    tuple(warnings), cargo)

@@ -33,7 +33,9 @@ from reportgen.hull.hydrostatics import HullGeometry, Plane, hydrostatics_at
 from reportgen.hull.tables import heel_scan, immersion_angle
 from reportgen.stability import odd_spline
 
-HEELS_DEG = tuple(float(h) for h in range(0, 91, 5))  # the scan, as the cross curves' heels
+# The scan: the cross curves' heels every 5°, and 12° (the Grain Code's notes to figure A 7
+# ask for GZ at 12° and 40°).
+HEELS_DEG = tuple(sorted({float(h) for h in range(0, 91, 5)} | {12.0}))
 
 
 @dataclass(frozen=True)
