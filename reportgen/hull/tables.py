@@ -30,6 +30,7 @@ from reportgen.hull.tabletext import (  # noqa: F401  (the file text, re-exporte
     _HYDRO_DECIMALS,
     BLOCKS,
     GENERATED_COMMENT,
+    _block_spans,
     format_block,
     vessel_text_with_tables,
 )
@@ -74,6 +75,17 @@ def draught_range(geom: HullGeometry, vessel: Any, density: float) -> np.ndarray
             f"({float(p.depth):.3f} m)"
         )
     return np.round(np.linspace(t_lo, t_hi, N_DRAUGHTS), _DEC_LENGTH)
+
+
+def hydrostatic_table(geom: HullGeometry, drafts_m: np.ndarray, density: float
+                      ) -> dict[str, Any]:
+    """Even-keel upright hydrostatics at each draught, in the SPEC column layout (rounded as
+    the file writes them)."""
+    rows = hydrostatic_rows(geom, drafts_m, 0.0, density)
+    out: dict[str, Any] = {"density": round(float(density), _DEC_DENSITY),
+                           "draft": _round(drafts_m, _DEC_LENGTH)}
+    out.update({key: _round(rows[key], dec) for key, dec in _HYDRO_DECIMALS})
+    return out
 
 
 def clearance_m(geom: HullGeometry, plane: Plane, points_xyz: np.ndarray) -> float:
