@@ -10,7 +10,7 @@ mkdir -p out
 hull=$(ls conditions/vessels/*-hull.yaml | head -n 1)
 ship=${hull%-hull.yaml}.yaml
 echo "== Tables of the demo ship from its offsets ($hull)"
-$RG tables "$hull" -o "out/$(basename "$ship")" --trims=-1,0,1,2,3,4 --force || exit 1
+$RG tables "$hull" -o "out/$(basename "$ship")" --trims=-3,-2,-1,0,1,2,3,4 --force || exit 1
 if cmp -s "out/$(basename "$ship")" "$ship"; then
   echo "   the tables reproduce the committed $ship byte for byte"
 else

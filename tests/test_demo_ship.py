@@ -28,7 +28,7 @@ HULL_FILE = CONDITIONS / "vessels" / "linnet-demo-hull.yaml"
 SHIP_FILE = CONDITIONS / "vessels" / "linnet-demo.yaml"
 DEMO_CONDITIONS = sorted(CONDITIONS.glob("*.yaml"))
 FAILING = "fails-on-purpose-high-deck-cargo.yaml"
-DEMO_TRIMS = [-1.0, 0.0, 1.0, 2.0, 3.0, 4.0]  # as `--trims` in scripts/demo.sh
+DEMO_TRIMS = [-3.0, -2.0, -1.0, 0.0, 1.0, 2.0, 3.0, 4.0]  # as `--trims` in scripts/demo.sh
 
 
 def _generator() -> ModuleType:

@@ -58,7 +58,7 @@ def test_a_mass_outside_the_ship_is_refused(work, item, words):
 
 def _on_hull(work: Path) -> None:
     """The copied vessel computed on its hull offsets: the floating position is then the real
-    one at any trim (the demo's tables stop at trims −1 to 4 m and refuse beyond, first)."""
+    one at any trim (the demo's tables stop at trims −3 to 4 m and refuse beyond, first)."""
     v = work / "vessels" / DEMO_VESSEL.name
     text = v.read_text()
     assert "calculation: {method: tables" in text

@@ -1,7 +1,7 @@
 """Tables at several trims against the hull, `check --compare`, and the refusals and warnings of
 SPEC.md "Angles at the condition's trim".
 
-- The demo ship's table route (tables at trims −1 to 4 m made by `reportgen tables --trims`)
+- The demo ship's table route (tables at trims −3 to 4 m made by `reportgen tables --trims`)
   against direct calculation on its hull offsets, on every demo condition: GZ within 1 cm at
   every 5° (MSC.1/Circ.1229 allows 5 cm on cross curves; the issue asks 1 cm), θf within 0.5°,
   KMt within 1 cm (Circ.1229: 1 % / 5 cm).
@@ -53,7 +53,7 @@ def both_routes():
 def test_table_route_with_trims_against_the_hull_route(both_routes, name):
     tables, hull = both_routes[name]
     assert tables.assumptions.method == "tables" and hull.assumptions.method == "hull"
-    assert tables.assumptions.hydrostatics_trims == [-1.0, 0.0, 1.0, 2.0, 3.0, 4.0]
+    assert tables.assumptions.hydrostatics_trims == [-3.0, -2.0, -1.0, 0.0, 1.0, 2.0, 3.0, 4.0]
     assert tables.angles.flooding_source == "table_trims"
     assert hull.angles.flooding_source == "hull" and hull.angles.deck_edge_source == "hull"
     gt = dict(zip(tables.gz.heel, tables.gz.gz, strict=True))
