@@ -16,7 +16,7 @@ from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_valid
 
 RESULTS_FORMAT = "reportgen/results-1"
 DECIMALS = 6  # every float in the document is rounded to this many decimals
-OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits")  # left out of the JSON when None
+OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison")  # left out when None
 
 
 def clean(value: Any) -> Any:
@@ -200,6 +200,7 @@ class Weather(Section):
     kg_over_d_minus_1: F
     theta_lw2: OptF
     theta_start: OptF
+    areas_missing: list[str] = Field(default_factory=list)  # no_theta0 | no_lw2 | no_roll
 
 
 class LoadLine(Section):
@@ -289,12 +290,26 @@ class Assumptions(Section):
     wind_pressure: F
     z_method: str
     roll_angle_source: str | None
-    cb_source: str  # table | computed
+    cb_source: str  # table | computed | hull
     list_side: str | None
     gz_beyond_flooding: Literal["exclude", "include"]
     fsc_method: str
     criteria_sets: list[CriteriaSet]
     criteria_chosen: bool  # chosen by the condition among those the vessel permits
+
+
+class ComparisonEntry(Section):
+    """One quantity of `check --compare` (SPEC.md; reportgen.compare)."""
+
+    quantity: str
+    label: str
+    unit: str
+    tables: OptF
+    hull: OptF
+    difference: OptF  # tables − hull
+    tolerance: OptF  # MSC.1/Circ.1229; None where the circular gives none
+    within: bool | None
+    basis: str
 
 
 class Results(Section):
@@ -316,6 +331,7 @@ class Results(Section):
     passed: bool
     warnings: list[str] = Field(default_factory=list)
     assumptions: Assumptions
+    comparison: list[ComparisonEntry] | None = None  # only with check --compare
 
     @model_validator(mode="before")
     @classmethod
