@@ -14,9 +14,11 @@ from typing import Any, Literal
 
 from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_validator
 
+from reportgen.results_special import Icing, Passengers, Timber
+
 RESULTS_FORMAT = "reportgen/results-1"
 DECIMALS = 6  # every float in the document is rounded to this many decimals
-OPTIONAL_SECTIONS = ("weather", "load_line")  # left out of the JSON when None
+OPTIONAL_SECTIONS = ("weather", "load_line", "timber", "passengers", "icing")  # left out of the JSON when None
 
 
 def clean(value: Any) -> Any:
@@ -89,7 +91,7 @@ class VesselInfo(Section):
 
 
 class Line(Section):
-    kind: Literal["lightship", "tank", "item"]
+    kind: Literal["lightship", "tank", "item", "allowance"]
     id: str | None
     name: str
     content: str | None
@@ -268,6 +270,9 @@ class Results(Section):
     angles: Angles
     weather: Weather | None = None
     load_line: LoadLine | None = None
+    timber: Timber | None = None
+    passengers: Passengers | None = None
+    icing: Icing | None = None
     criteria: list[Criterion]
     passed: bool
     warnings: list[str] = Field(default_factory=list)

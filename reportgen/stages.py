@@ -15,7 +15,8 @@ import numpy as np
 from scipy.interpolate import PPoly
 
 from reportgen import angles as angle_rules
-from reportgen.criteria import core, rolling
+from reportgen import extras as allowance_stage
+from reportgen.criteria import core, passenger, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
 from reportgen.floating import Floating, floating_on_tables
@@ -38,6 +39,7 @@ from reportgen.vesseldata import VesselData
 
 MIN_LENGTH_M = 24.0  # IS Code 2008 Part A 2.3 and SPEC.md: ships of 24 m in length and over
 SINGLE_TRIM_TOLERANCE = angle_rules.SINGLE_TRIM_TOLERANCE
+NO_EXTRAS = allowance_stage.Extras()
 
 
 @dataclass(frozen=True)
@@ -56,6 +58,7 @@ class Upright:
     cb_source: str
     load_line: LoadLine | None
     warnings: tuple[str, ...]
+    extras: allowance_stage.Extras = NO_EXTRAS  # timber, passengers, ice
 
 
 @dataclass(frozen=True)
@@ -178,7 +181,17 @@ def upright(case: Case, vd: VesselData) -> Upright:
         warnings.append(f"The IS Code 2008 criteria apply to ships of {MIN_LENGTH_M:g} m in "
                         f"length and over; this ship is {v.particulars.length_bp:g} m.")
     loading = condition_loading(v, c, vd.tanks)
+    timber, timber_lines = allowance_stage.timber_lines(case)
+    pax, pax_lines = allowance_stage.passenger_lines(case)
+    loading = allowance_stage.with_lines(loading, timber_lines + pax_lines)
     fl = _floating(case, vd, loading)
+    icing = allowance_stage.icing_of(case, vd.profile, fl.draughts.mid, fl.trim)
+    if icing is not None:  # ice at the waterline without it, then float again (Part B 6)
+        loading = allowance_stage.with_lines(loading, allowance_stage.ice_lines(icing))
+        fl = _floating(case, vd, loading)
+        icing = allowance_stage.iced_windage(case, vd.profile, icing, fl.draughts.mid, fl.trim)
+    extras = allowance_stage.Extras(timber, pax, icing)
+    warnings += allowance_stage.extras_warnings(sets, extras)
     ll, ll_warnings = _load_line(case, vd, fl)
     warnings += ll_warnings
     kn, heel_max, kn_warnings = _kn(case, vd, fl)
@@ -193,7 +206,7 @@ def upright(case: Case, vd: VesselData) -> Upright:
                               loading.totals.displacement, v.calculation.wind_lever)
         roll_hull, cb_source = _roll_hull(case, fl, loading)
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
-                   tuple(warnings))
+                   tuple(warnings), extras)
 
 
 def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
@@ -234,10 +247,25 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
         if a.theta_lw2 is not None and flooding < a.theta_lw2:
             warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below the first "
                             f"intercept of lw2 with GZ ({a.theta_lw2:.1f}°): area b is zero.")
-    state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx)
+    pax = None
+    if up.extras.passengers is not None and up.case.vessel.particulars.service_speed:
+        pax = _passenger_heel(up, kg_fluid_m, side_curve)
+    state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx,
+                  pax)
     checks = core.run(up.sets, state)
     return AtKG(kg_fluid_m, gm, curve, side_curve, heel, state,
                 vanishing_angle(side_curve, gz_max_deg), wx, checks, tuple(warnings))
+
+
+def _passenger_heel(up: Upright, kg_fluid_m: float,
+                    side_curve: GZCurve) -> passenger.PassengerHeel:
+    """The crowding and turning heels of Part A 3.1 on the curve towards the list's side."""
+    p, fl = up.case.vessel.particulars, up.floating
+    pax = up.extras.passengers
+    lwl = fl.lwl if fl.lwl is not None else p.length_bp
+    return passenger.passenger_heel(side_curve, pax.crowd.moment_tm,
+                                    up.loading.totals.displacement, p.service_speed, lwl,
+                                    fl.draughts.mid, kg_fluid_m)
 
 
 def kg_fluid_of(up: Upright) -> tuple[float, float]:

@@ -14,6 +14,7 @@ from reportgen.criteria.sets import SETS
 from reportgen.errors import InputError
 
 if TYPE_CHECKING:
+    from reportgen.criteria.passenger import PassengerHeel
     from reportgen.criteria.weather import Weather
     from reportgen.stability import GZCurve
 
@@ -58,7 +59,8 @@ class State:
     the curve the criteria may credit (θf when GZ beyond flooding is excluded, else the end of
     the table); gz_max_deg: the angle of the greatest GZ on that credited range; gm_fluid_m:
     initial GM corrected for free surface; flooding_deg, deck_edge_deg: the angles at the
-    condition's state; weather: the 2.3 quantities, None when no selected set needs them.
+    condition's state; weather: the 2.3 quantities, None when no selected set needs them;
+    passengers: likewise the crowding and turning heels of Part A 3.1.
     """
 
     curve: GZCurve
@@ -68,6 +70,7 @@ class State:
     flooding_deg: float
     deck_edge_deg: float
     weather: Weather | None = None
+    passengers: PassengerHeel | None = None  # the heels of Part A 3.1, when a set needs them
 
 
 def needs(set_ids: list[str]) -> frozenset[str]:

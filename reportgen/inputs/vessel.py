@@ -27,6 +27,7 @@ from reportgen.inputs.fields import (
     equal_lengths,
     increasing,
 )
+from reportgen.inputs.special import VesselIcing, VesselPassengers
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -307,6 +308,8 @@ class Vessel(Model):
         default_factory=list)
     calculation: Calculation = Calculation()
     hull: HullOffsets | None = None
+    passengers: VesselPassengers | None = None  # IS Code 2008 Part A 3.1
+    icing: VesselIcing | None = None  # IS Code 2008 Part B chapter 6
     notes: Any = None
 
     @model_validator(mode="after")
