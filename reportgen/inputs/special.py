@@ -74,3 +74,32 @@ def check_special(cond: Condition, vessel: Vessel, sets: list[str]) -> list[tupl
             out.append((("criteria",), (f"{needs} the vessel's particulars.service_speed "
                                        "(knots) for the turning moment of Part A 3.1")))
     return out
+
+
+def vessel_problems(vessel: Vessel) -> list[str]:
+    """Passenger decks and icing areas that lie outside the ship (SPEC.md: physically impossible
+    positions are refused): x outside −0.05·Lpp … 1.05·Lpp, |y| > B/2, z below the base or above
+    the top of the windage profile."""
+    p = vessel.particulars
+    top = max(z for _, z in vessel.windage.profile)
+    lo_x, hi_x = -0.05 * p.length_bp, 1.05 * p.length_bp
+    out = []
+    if vessel.passengers is not None:
+        for i, d in enumerate(vessel.passengers.decks):
+            key = f"passengers.decks[{i}] ({d.name})"
+            if not 0.0 <= d.z <= top:
+                out.append(f"{key}: z {d.z:g} m is outside the ship (0 to the top of the "
+                           f"windage profile, {top:g} m)")
+            if d.y_crowded > 0.5 * p.breadth:
+                out.append(f"{key}: y_crowded {d.y_crowded:g} m is beyond the side "
+                           f"(B/2 = {0.5 * p.breadth:g} m)")
+            if d.lcg is not None and not lo_x <= d.lcg <= hi_x:
+                out.append(f"{key}: lcg {d.lcg:g} m is outside the ship")
+    if vessel.icing is not None:
+        ice = vessel.icing
+        if not 0.0 <= ice.deck_vcg <= top:
+            out.append(f"icing.deck_vcg: {ice.deck_vcg:g} m is outside the ship (0 to "
+                       f"{top:g} m)")
+        if not lo_x <= ice.deck_lcg <= hi_x:
+            out.append(f"icing.deck_lcg: {ice.deck_lcg:g} m is outside the ship")
+    return out

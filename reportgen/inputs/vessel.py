@@ -27,7 +27,7 @@ from reportgen.inputs.fields import (
     equal_lengths,
     increasing,
 )
-from reportgen.inputs.special import VesselIcing, VesselPassengers
+from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -339,6 +339,9 @@ class Vessel(Model):
                                  f"tanks of this vessel that name each other")
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
+        problems = vessel_problems(self)
+        if problems:
+            raise ValueError(problems[0])
         return self
 
     @property
