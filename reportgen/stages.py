@@ -16,6 +16,7 @@ from scipy.interpolate import PPoly
 
 from reportgen import angles as angle_rules
 from reportgen import extras as allowance_stage
+from reportgen import plausible
 from reportgen.criteria import core, passenger, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
@@ -184,11 +185,15 @@ def upright(case: Case, vd: VesselData) -> Upright:
     timber, timber_lines = allowance_stage.timber_lines(case)
     pax, pax_lines = allowance_stage.passenger_lines(case)
     loading = allowance_stage.with_lines(loading, timber_lines + pax_lines)
+    p = v.particulars
+    plausible.check_positions(loading.lines, p.length_bp, p.breadth, p.depth)
     fl = _floating(case, vd, loading)
+    plausible.check_draughts(fl.draughts, p.depth)
     icing = allowance_stage.icing_of(case, vd.profile, fl.draughts.mid, fl.trim)
     if icing is not None:  # ice at the waterline without it, then float again (Part B 6)
         loading = allowance_stage.with_lines(loading, allowance_stage.ice_lines(icing))
         fl = _floating(case, vd, loading)
+        plausible.check_draughts(fl.draughts, p.depth)
         icing = allowance_stage.iced_windage(case, vd.profile, icing, fl.draughts.mid, fl.trim)
     extras = allowance_stage.Extras(timber, pax, icing)
     warnings += allowance_stage.extras_warnings(sets, extras)
@@ -205,6 +210,12 @@ def upright(case: Case, vd: VesselData) -> Upright:
         wind = weather23.wind(vd.profile, items, fl.draughts.mid, fl.trim, v.particulars.length_bp,
                               loading.totals.displacement, v.calculation.wind_lever)
         roll_hull, cb_source = _roll_hull(case, fl, loading)
+        bare = plausible.unwinded_deck_items(loading.lines, vd.profile, p.depth,
+                                             {it.name for it in c.items if it.wind_area})
+        warnings += [f"Item {name!r} lies above the deck and outside the lateral windage "
+                     f"profile, but gives no wind_area: its windage is not in the weather "
+                     f"criterion (IS Code 2008 Part A 2.3); give wind_area and wind_z."
+                     for name in bare]
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
                    tuple(warnings), extras)
 

@@ -28,6 +28,7 @@ from reportgen.inputs.fields import (
     increasing,
 )
 from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
+from reportgen.inputs.tablecheck import table_problems
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -339,6 +340,9 @@ class Vessel(Model):
                                  f"tanks of this vessel that name each other")
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
+        problems = table_problems(self)
+        if problems:
+            raise ValueError("implausible tables: " + "; ".join(problems))
         problems = vessel_problems(self)
         if problems:
             raise ValueError(problems[0])
