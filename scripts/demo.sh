@@ -82,6 +82,6 @@ for c in out/work/*.yaml; do
   vessel="out/work/$(sed -n 's/^vessel: *//p' "$c")"  # the vessel file the condition names
   $RG verify "out/$name.signed.pdf" "${trust[@]}" --vessel "$vessel" > "out/$name.verify.txt" \
     || { echo "   out/$name.signed.pdf: VERIFICATION FAILED (see out/$name.verify.txt)"; exit 1; }
-  sed 's/^/   /' "out/$name.verify.txt" | head -n 1
+  echo "   out/$name.signed.pdf: $(tail -n 1 "out/$name.verify.txt")"
 done
 echo "   (full reports: out/*.verify.txt)"
