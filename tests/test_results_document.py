@@ -47,7 +47,14 @@ SPEC_SETS = {  # SPEC.md: the ids of each criteria set
     "is2008.weather": ["weather_heel", "weather_area"],
     "is2008.timber": ["timber_area_0_40", "timber_gz_max", "timber_gm0"],
     "is2008.passenger": ["passenger_crowding_heel", "passenger_turning_heel"],
+    "grain.2008": ["grain_heel", "grain_residual_area", "grain_gm0"],
 }
+SPEC_GRAIN_CRITERIA = {  # SPEC.md "Cargo and ship-type criteria", grain.2008 (Grain Code A 7)
+    "grain_heel": (None, "deg"), "grain_residual_area": (0.075, "m·rad"),
+    "grain_gm0": (0.30, "m"),
+}
+SPEC_GRAIN_KEYS = ["stowage_factor", "vhm", "heeling_moment", "lambda0", "lambda40", "heel",
+                   "residual_area", "residual_to", "allowable_moment"]
 
 
 def _json(path: Path) -> tuple[int, dict]:
@@ -87,11 +94,15 @@ def test_document_has_every_key_of_spec(documents, path):
     # 2.2 and 2.3, and 3.1 and 3.3 where a condition chooses them).
     by_id = {c["id"]: c for c in doc["criteria"]}
     sets = [s["id"] for s in doc["assumptions"]["criteria_sets"]]
-    assert set(by_id) == {cid for sid in sets for cid in SPEC_SETS[sid]}
-    for cid, c in by_id.items():
-        required, unit = SPEC_CRITERIA[cid]
+    grain = "grain.2008" in sets
+    expected = {cid: SPEC_CRITERIA[cid] if cid in SPEC_CRITERIA else SPEC_GRAIN_CRITERIA[cid]
+                for sid in sets for cid in SPEC_SETS[sid]}
+    assert set(by_id) == set(expected)
+    for cid, (required, unit) in expected.items():
+        c = by_id[cid]
         assert c["unit"] == unit and isinstance(c["passed"], bool) and c["title"]
-        assert c["reference"].startswith("IS Code 2008")
+        assert c["reference"].startswith("IS Code 2008" if cid in SPEC_CRITERIA
+                                         else "International Grain Code (MSC.23(59)), A 7.1")
         if required is not None:
             assert c["required"] == pytest.approx(required)
     # weather_heel: required = min(16 deg, 0.8 x deck edge angle) (IS Code 2008 2.3.1.2).
@@ -101,6 +112,8 @@ def test_document_has_every_key_of_spec(documents, path):
     assert by_id["weather_area"]["required"] == doc["weather"]["area_a"]
     assert by_id["weather_area"]["attained"] == doc["weather"]["area_b"]
     assert doc["weather"]["wind_pressure"] == 504
+    if grain:  # SPEC.md: the results' grain keys
+        assert all(key in doc["grain"] for key in SPEC_GRAIN_KEYS)
     # passed is the conjunction of the criteria; the exit status follows it (SPEC.md).
     assert doc["passed"] == all(c["passed"] for c in doc["criteria"])
     assert code == (0 if doc["passed"] else 1)

@@ -8,14 +8,12 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from importlib import import_module
-from typing import TYPE_CHECKING, Literal
+from typing import TYPE_CHECKING, Any, Literal
 
 from reportgen.criteria.sets import SETS
 from reportgen.errors import InputError
 
 if TYPE_CHECKING:
-    from reportgen.criteria.passenger import PassengerHeel
-    from reportgen.criteria.weather import Weather
     from reportgen.stability import GZCurve
 
 
@@ -60,7 +58,8 @@ class State:
     the table); gz_max_deg: the angle of the greatest GZ on that credited range; gm_fluid_m:
     initial GM corrected for free surface; flooding_deg, deck_edge_deg: the angles at the
     condition's state; weather: the 2.3 quantities, None when no selected set needs them;
-    passengers: likewise the crowding and turning heels of Part A 3.1.
+    passengers: likewise the crowding and turning heels of Part A 3.1;
+    grain: the Grain Code A 7 quantities, None without grain on board.
     """
 
     curve: GZCurve
@@ -69,8 +68,9 @@ class State:
     gm_fluid_m: float
     flooding_deg: float
     deck_edge_deg: float
-    weather: Weather | None = None
-    passengers: PassengerHeel | None = None  # the heels of Part A 3.1, when a set needs them
+    weather: Any = None  # reportgen.criteria.weather.Weather, when the set needs it
+    grain: Any = None  # reportgen.grain.GrainStability, with grain on board
+    passengers: Any = None  # criteria.passenger.PassengerHeel, when computed (Part A 3.1)
 
 
 def needs(set_ids: list[str]) -> frozenset[str]:

@@ -33,4 +33,8 @@ SETS: dict[str, SetInfo] = {
         "IMO 2008 IS Code (MSC.267(85)), Part A, 3.1: passenger ships (crowding of passengers "
         "to one side, turning)",
         frozenset({"passengers"})),
+    "grain.2008": SetInfo(
+        "reportgen.criteria.grain",
+        "International Grain Code (MSC.23(59)), A 7: intact stability of ships carrying grain "
+        "in bulk, with the grain assumed to shift"),
 }

@@ -20,6 +20,7 @@ from reportgen.inputs.fields import (
     Text,
     WaterDensity,
 )
+from reportgen.inputs.grain import ConditionGrain
 from reportgen.inputs.special import ConditionPassengers
 from reportgen.inputs.vessel import known_sets
 
@@ -118,4 +119,5 @@ class Condition(Model):
     passengers: ConditionPassengers | None = None  # IS Code 2008 Part A 3.1
     icing: Literal["full", "half", "none"] = "none"  # IS Code 2008 Part B chapter 6
     signatories: Signatories | None = None
+    grain: ConditionGrain | None = None  # grain in bulk (SPEC grain.2008)
     notes: Any = None

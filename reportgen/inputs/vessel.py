@@ -27,6 +27,7 @@ from reportgen.inputs.fields import (
     equal_lengths,
     increasing,
 )
+from reportgen.inputs.grain import VesselGrain
 from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
 from reportgen.inputs.tablecheck import table_problems
 
@@ -311,6 +312,7 @@ class Vessel(Model):
     hull: HullOffsets | None = None
     passengers: VesselPassengers | None = None  # IS Code 2008 Part A 3.1
     icing: VesselIcing | None = None  # IS Code 2008 Part B chapter 6
+    grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
     notes: Any = None
 
     @model_validator(mode="after")

@@ -40,6 +40,7 @@ from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
 from reportgen.report.figure_heeling import heeling_figure_svg
 from reportgen.report.figures import gz_figure_svg, weather_figure_svg
+from reportgen.report.grainfigure import grain_figure_svg
 from reportgen.results import Results
 from reportgen.stability import curve_towards_side
 
@@ -192,6 +193,8 @@ def sheet_html(case: Any, results: Results) -> str:
         heeling_figure=(_svg_data_uri(heeling_figure_svg(results, figure_labels))
                         if results.passengers is not None
                         and results.passengers.crowding_arm is not None else None),
+        grain_figure=(_svg_data_uri(grain_figure_svg(results, figure_labels))
+                      if results.grain is not None else None),
         roles=ROLES,
         approval=approval_of(case),
     )
