@@ -18,6 +18,16 @@ for hull in conditions/vessels/*-hull.yaml; do
   fi
 done
 
+echo "== Setting up a ship from a mesh (conditions/setup-example: the README's walk-through)"
+ex=conditions/setup-example
+$RG hull-from-mesh $ex/tern-hull.obj --vessel $ex/tern-head.yaml -o out/tern-hull.yaml --force \
+    2>/dev/null || exit 1
+$RG tables out/tern-hull.yaml -o out/tern.yaml --force 2>/dev/null || exit 1
+$RG show out/tern.yaml > out/tern-show.txt || exit 1
+$RG new out/tern.yaml -o out/tern-new-condition.yaml --force 2>/dev/null || exit 1
+$RG check out/tern-new-condition.yaml > out/tern-new-condition.txt; [[ $? -le 1 ]] || exit 1
+echo "   out/tern.yaml (offsets, tables, tank tables), out/tern-show.txt, out/tern-new-condition.yaml"
+
 echo "== Check of each demo condition"
 for c in conditions/*.yaml; do
   name=$(basename "$c" .yaml)

@@ -223,6 +223,23 @@ def default_role(content: str) -> Literal["fixed", "consumable"]:
     return "fixed" if content.strip().lower() in ("ballast", "cargo") else "consumable"
 
 
+def _extent(values: list[float]) -> list[float]:
+    if len(values) != 2 or not values[0] < values[1]:
+        raise ValueError("give [from, to] with from < to (m)")
+    return values
+
+
+Extent = Annotated[list[Num], AfterValidator(_extent)]
+
+
+class TankGeometry(Model):
+    """A tank as a box (m, SPEC axes) clipped by the hull: `reportgen tables` makes its table."""
+
+    x: Extent  # m from AP
+    y: Extent  # m from the centreline, + starboard
+    z: Extent  # m above base
+
+
 class Tank(Model):
     id: Text
     name: Text
@@ -230,8 +247,15 @@ class Tank(Model):
     role: Literal["fixed", "consumable"] | None = None  # default by content (default_role)
     pair: Text | None = None  # id of its transverse twin (Part B 3.1.4), given on both
     density: Density  # t/m³
-    table: TankTable
+    geometry: TankGeometry | None = None  # the box its table is made from (`tables`)
+    table: TankTable | None = None  # required unless geometry is given
     ullage_reference: Positive | None = None  # m above the sounding zero
+
+    @model_validator(mode="after")
+    def _table_or_geometry(self) -> Tank:
+        if self.table is None and self.geometry is None:
+            raise ValueError("give the tank's table, or its geometry for `reportgen tables`")
+        return self
 
     @property
     def fs_role(self) -> Literal["fixed", "consumable"]:
@@ -328,6 +352,9 @@ class Vessel(Model):
                              "offsets, and this file has none; give hull offsets (hull:) or the "
                              "booklet's flooding_angle table (no approximation of θf is safe "
                              "enough to print)")
+        if self.hull is None and any(t.table is None for t in self.tanks):
+            raise ValueError("tanks: a tank given by geometry alone needs hull offsets to make "
+                             "its table from")
         ids = [t.id for t in self.tanks]
         dup = sorted({i for i in ids if ids.count(i) > 1})
         if dup:
