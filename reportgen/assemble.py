@@ -5,6 +5,7 @@ from __future__ import annotations
 from dataclasses import asdict
 
 from reportgen import NAME, __version__
+from reportgen.assemble_extras import icing_section, passengers_section, timber_section
 from reportgen.criteria.core import Check
 from reportgen.criteria.sets import SETS
 from reportgen.criteria.weather import WIND_PRESSURE_N_M2, Weather
@@ -165,6 +166,9 @@ def results(up: Upright, k: AtKG, fsc: float, limits: dict | None = None) -> Res
         "angles": angles_section(up, k),
         "weather": weather_section(k.weather),
         "load_line": load_line_section(up),
+        "timber": timber_section(up.extras),
+        "passengers": passengers_section(up.extras, k.state.passengers),
+        "icing": icing_section(up.extras),
         "grain": grain_section(up, k),
         "limits": limits,
         "criteria": [criterion(c) for c in k.checks],

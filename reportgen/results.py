@@ -14,9 +14,12 @@ from typing import Any, Literal
 
 from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_validator
 
+from reportgen.results_special import Icing, Passengers, Timber
+
 RESULTS_FORMAT = "reportgen/results-1"
 DECIMALS = 6  # every float in the document is rounded to this many decimals
-OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison")  # left out when None
+OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison", "timber",
+                     "passengers", "icing")  # left out of the JSON when None
 
 
 def clean(value: Any) -> Any:
@@ -89,7 +92,7 @@ class VesselInfo(Section):
 
 
 class Line(Section):
-    kind: Literal["lightship", "tank", "item", "grain"]
+    kind: Literal["lightship", "tank", "item", "grain", "allowance"]
     id: str | None
     name: str
     content: str | None
@@ -327,6 +330,9 @@ class Results(Section):
     load_line: LoadLine | None = None
     grain: Grain | None = None
     limits: Limits | None = None
+    timber: Timber | None = None
+    passengers: Passengers | None = None
+    icing: Icing | None = None
     criteria: list[Criterion]
     passed: bool
     warnings: list[str] = Field(default_factory=list)

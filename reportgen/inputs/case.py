@@ -13,6 +13,7 @@ from reportgen.files import read_input
 from reportgen.inputs import yamlread
 from reportgen.inputs.condition import Condition
 from reportgen.inputs.grain import check_grain
+from reportgen.inputs.special import check_special
 from reportgen.inputs.tablecheck import table_problems
 from reportgen.inputs.vessel import Vessel
 
@@ -105,6 +106,15 @@ def _check_criteria(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> N
                              f"permitted_criteria: {', '.join(allowed)})")
 
 
+def _check_special(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> None:
+    sets = list(cond.criteria) if cond.criteria is not None else list(vessel.criteria)
+    problems = check_special(cond, vessel, sets)
+    if problems:
+        path, text = problems[0]
+        where = yamlread.where(path, yamlread.key_lines(raw))
+        raise InputError(f"{name}: {where}: {text}")
+
+
 def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_name: str,
                     approval: bytes | None = None, cond_label: str | None = None,
                     vessel_label: str | None = None, cond_data: object = None) -> Case:
@@ -126,6 +136,7 @@ def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_n
                          f"table; make the tables first with 'reportgen tables'")
     _check_fillings(cond, vessel, cond_label, cond_raw)
     _check_criteria(cond, vessel, cond_label, cond_raw)
+    _check_special(cond, vessel, cond_label, cond_raw)
     check_grain(cond, vessel, cond_label, cond_raw)
     return Case(cond, vessel, cond_raw, vessel_raw, cond_name, vessel_name, approval)
 

@@ -29,6 +29,8 @@ from reportgen.inputs.fields import (
     increasing,
 )
 from reportgen.inputs.grain import VesselGrain
+from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
+from reportgen.inputs.tablecheck import table_problems
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -338,6 +340,8 @@ class Vessel(Model):
     limiting_kg: LimitingCurve | None = None  # the booklet's curve (criteria set booklet.limits)
     limiting_gm: LimitingCurve | None = None  # the same as a minimum GM curve (gm:)
     hull: HullOffsets | None = None
+    passengers: VesselPassengers | None = None  # IS Code 2008 Part A 3.1
+    icing: VesselIcing | None = None  # IS Code 2008 Part B chapter 6
     grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
     notes: Any = None
 
@@ -378,6 +382,12 @@ class Vessel(Model):
                                  f"tanks of this vessel that name each other")
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
+        problems = table_problems(self)
+        if problems:
+            raise ValueError("implausible tables: " + "; ".join(problems))
+        problems = vessel_problems(self)
+        if problems:
+            raise ValueError(problems[0])
         return self
 
     def _booklet_curve(self) -> None:

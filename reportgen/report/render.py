@@ -38,6 +38,7 @@ from reportgen.docinfo import RESULTS_NAME, ROLES, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
+from reportgen.report.figure_heeling import heeling_figure_svg
 from reportgen.report.figures import gz_figure_svg, weather_figure_svg
 from reportgen.report.grainfigure import grain_figure_svg
 from reportgen.results import Results
@@ -189,6 +190,9 @@ def sheet_html(case: Any, results: Results) -> str:
         gz_figure=_svg_data_uri(gz_figure_svg(results, figure_labels)),
         weather_figure=(_svg_data_uri(weather_figure_svg(results, figure_labels))
                         if results.weather is not None else None),
+        heeling_figure=(_svg_data_uri(heeling_figure_svg(results, figure_labels))
+                        if results.passengers is not None
+                        and results.passengers.crowding_arm is not None else None),
         grain_figure=(_svg_data_uri(grain_figure_svg(results, figure_labels))
                       if results.grain is not None else None),
         roles=ROLES,
