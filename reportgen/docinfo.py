@@ -12,3 +12,7 @@ DOCNO_LENGTH = 12  # hex digits of inputs_sha256 that make the document number
 def document_number(inputs_sha256: str) -> str:
     """The document number: the first DOCNO_LENGTH hex digits of the inputs' SHA-256."""
     return inputs_sha256[:DOCNO_LENGTH]
+
+PACKAGE_NAME = "package.json"  # the embedded data document of a calculation package
+PACKAGE_FORMAT = "reportgen/package-1"
+PACKAGE_TITLE_PREFIX = "Stability calculation package "  # the package's PDF title

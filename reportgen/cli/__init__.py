@@ -65,4 +65,4 @@ def main() -> None:
 
 
 # The commands register themselves on `main` when their modules are imported.
-from reportgen.cli import calc, setup, signing  # noqa: F401
+from reportgen.cli import calc, package, setup, signing  # noqa: F401
