@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # The demo: the demo ship's tables, a check of every demo condition, the vessel data approved
 # by a demo design office, a sheet for each condition, the sheets signed (prepared, checked)
-# with demo identities and verified with the approval checked. Everything goes to out/.
+# with demo identities and verified with the approval checked, and the package of every
+# condition, signed and verified the same way. Everything goes to out/.
 set -uo pipefail
 cd "$(dirname "$0")/.."
 RG=.venv/bin/reportgen
@@ -69,6 +70,20 @@ for c in out/work/*.yaml; do
   echo "   out/$name.signed.pdf"
 done
 
+echo "== Package of every demo condition (one document), signed (prepared, then checked)"
+pkg=out/$(basename "$ship" .yaml)-package
+rm -f "$pkg.pdf" "$pkg.prepared.pdf" "$pkg.signed.pdf"
+$RG package out/work/*.yaml -o "$pkg.pdf" --title "Loading conditions of the demo ship (invented)" \
+    2>/dev/null; rc=$?
+# status 1: written, a condition fails a criterion (the fails-* condition, on purpose)
+[[ $rc -le 1 ]] || { echo "   package failed (exit status $rc)"; exit 1; }
+$RG sign "$pkg.pdf" --role prepared --key out/ids/prepared/key.pem \
+    --cert out/ids/prepared/cert.pem -o "$pkg.prepared.pdf" 2>/dev/null || exit 1
+$RG sign "$pkg.prepared.pdf" --role checked --key out/ids/checked/key.pem \
+    --cert out/ids/checked/cert.pem -o "$pkg.signed.pdf" 2>/dev/null || exit 1
+rm -f "$pkg.prepared.pdf"
+echo "   $pkg.signed.pdf"
+
 echo "== Verified: signatures trusted, pages and results recomputed, vessel data approved"
 trust=(--trust out/ids/prepared/cert.pem --trust out/ids/checked/cert.pem
        --vessel "$vessel" --vessel-trust out/ids/design-office/cert.pem)
@@ -77,5 +92,7 @@ for c in out/work/*.yaml; do
   $RG verify "out/$name.signed.pdf" "${trust[@]}" > "out/$name.verify.txt" \
     || { echo "   out/$name.signed.pdf: VERIFICATION FAILED (see out/$name.verify.txt)"; exit 1; }
 done
+$RG verify "$pkg.signed.pdf" "${trust[@]}" > "$pkg.verify.txt" \
+  || { echo "   $pkg.signed.pdf: VERIFICATION FAILED (see $pkg.verify.txt)"; exit 1; }
 $RG verify out/*.signed.pdf "${trust[@]}" | sed 's/^/   /'
 echo "   (full reports: out/*.verify.txt)"
