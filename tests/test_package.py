@@ -74,6 +74,12 @@ def test_embedded_files_are_the_inputs_byte_for_byte(package):
     assert doc["inputs_sha256"] == expected.hexdigest()
     assert doc["vessel"]["sha256"] == hashlib.sha256(VESSEL.read_bytes()).hexdigest()
     assert _reader(package["unsigned"]).metadata.title.endswith(expected.hexdigest()[:12])
+    # the document validates against its JSON Schema (draft 2020-12, the jsonschema library)
+    import jsonschema
+
+    from reportgen.schema import json_schema
+
+    jsonschema.validate(doc, json_schema("package"))
 
 
 def test_each_embedded_result_equals_check_json_of_its_condition(package):
