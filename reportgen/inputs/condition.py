@@ -20,6 +20,7 @@ from reportgen.inputs.fields import (
     Text,
     WaterDensity,
 )
+from reportgen.inputs.grain import ConditionGrain
 from reportgen.inputs.vessel import known_sets
 
 CONDITION_FORMAT = "reportgen/condition-1"
@@ -113,4 +114,5 @@ class Condition(Model):
     criteria: Annotated[list[str], AfterValidator(_chosen_sets)] | None = None
     weather: Weather | None = None
     signatories: Signatories | None = None
+    grain: ConditionGrain | None = None  # grain in bulk (SPEC grain.2008)
     notes: Any = None

@@ -27,6 +27,7 @@ from reportgen.inputs.fields import (
     equal_lengths,
     increasing,
 )
+from reportgen.inputs.grain import VesselGrain
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -307,6 +308,7 @@ class Vessel(Model):
         default_factory=list)
     calculation: Calculation = Calculation()
     hull: HullOffsets | None = None
+    grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
     notes: Any = None
 
     @model_validator(mode="after")
