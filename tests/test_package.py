@@ -28,7 +28,7 @@ from reportgen.cli import main
 from reportgen.signing import sign_document, verify_document
 
 CONDITIONS = [ROOT / "conditions" / "ballast-departure.yaml",
-              ROOT / "conditions" / "full-load-departure.yaml"]
+              ROOT / "conditions" / "grain-departure.yaml"]  # a grain section too
 VESSEL = ROOT / "conditions" / "vessels" / "linnet-demo.yaml"
 
 

@@ -29,6 +29,7 @@ from pathlib import Path
 from typing import Any
 
 import weasyprint
+from markupsafe import Markup
 
 from reportgen import __version__, provenance
 from reportgen.docinfo import PACKAGE_FORMAT, PACKAGE_NAME, ROLES, document_number
@@ -236,10 +237,13 @@ def sheet_pages(pages: dict[str, int], count: int) -> list[dict]:
 def package_html(pkg: Package, contexts: list[dict], pages: dict[str, int] | None) -> str:
     """The package as HTML text; ``pages`` from a first layout (None: not known yet)."""
     env = sheet.template_environment()
+    part = env.get_template("sheet_condition.html.j2")
+    parts = [Markup(part.render(**ctx)) for ctx in contexts]  # autoescaped by the template
     return env.get_template("package.html.j2").render(
         p=pkg, docno=document_number(pkg.inputs_sha256), created=package_date(pkg),
-        members=[dict(ctx, file=m.file, row=summary_row(m), number=i)
-                 for i, (m, ctx) in enumerate(zip(pkg.members, contexts, strict=True), 1)],
+        members=[dict(ctx, file=m.file, row=summary_row(m), number=i, part=part)
+                 for i, (m, ctx, part) in enumerate(zip(pkg.members, contexts, parts,
+                                                        strict=True), 1)],
         pages=pages or {}, roles=ROLES,
         signatories=common_signatories([m.results for m in pkg.members]),
         approval=contexts[0]["approval"], ax=vessel_appendix(pkg.members[0].case.vessel))
