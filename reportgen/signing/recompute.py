@@ -149,7 +149,8 @@ def register(kind: Kind) -> None:
     KINDS[kind.name] = kind
 
 
-KIND_MODULES = ("reportgen.signing.packagekind",)  # each registers its Kind when imported
+KIND_MODULES = ("reportgen.signing.limitskind",  # each registers its Kind when imported
+                "reportgen.signing.packagekind")
 
 
 def kind_of(files: Mapping[str, bytes]) -> list[Kind]:
