@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # The demo: the demo ship's tables, a check of every demo condition, the vessel data approved
 # by a demo design office, a sheet for each condition, the sheets signed (prepared, checked)
-# with demo identities and verified with the approval checked. Everything goes to out/.
+# with demo identities and verified with the approval checked, and the package of every
+# condition, signed and verified the same way. Everything goes to out/.
 set -uo pipefail
 cd "$(dirname "$0")/.."
 RG=.venv/bin/reportgen
@@ -22,6 +23,7 @@ for hull in conditions/vessels/*-hull.yaml; do
     echo "   WARNING: the tables differ from the committed $ship"; exit 1
   fi
 done
+ship=conditions/vessels/linnet-demo.yaml  # the demo cargo ship: its package and limits below
 
 echo "== Setting up a ship from a mesh (conditions/setup-example: the README's walk-through)"
 ex=conditions/setup-example
@@ -99,6 +101,21 @@ for c in out/work/*.yaml; do
   echo "   out/$name.signed.pdf"
 done
 
+echo "== Package of every condition of the demo cargo ship (one document), signed (prepared, then checked)"
+pkg=out/$(basename "$ship" .yaml)-package
+rm -f "$pkg.pdf" "$pkg.prepared.pdf" "$pkg.signed.pdf"
+mapfile -t cargo < <(grep -l "^vessel: vessels/$(basename "$ship")" out/work/*.yaml)
+$RG package "${cargo[@]}" -o "$pkg.pdf" --title "Loading conditions of the demo ship (invented)" \
+    2>/dev/null; rc=$?
+# status 1: written, a condition fails a criterion (the fails-* condition, on purpose)
+[[ $rc -le 1 ]] || { echo "   package failed (exit status $rc)"; exit 1; }
+$RG sign "$pkg.pdf" --role prepared --key out/ids/prepared/key.pem \
+    --cert out/ids/prepared/cert.pem -o "$pkg.prepared.pdf" 2>/dev/null || exit 1
+$RG sign "$pkg.prepared.pdf" --role checked --key out/ids/checked/key.pem \
+    --cert out/ids/checked/cert.pem -o "$pkg.signed.pdf" 2>/dev/null || exit 1
+rm -f "$pkg.prepared.pdf"
+echo "   $pkg.signed.pdf"
+
 echo "== Verified: signatures trusted, pages and results recomputed, vessel data approved"
 trust=(--trust out/ids/prepared/cert.pem --trust out/ids/checked/cert.pem
        --vessel-trust out/ids/design-office/cert.pem)
@@ -109,6 +126,10 @@ for c in out/work/*.yaml; do
     || { echo "   out/$name.signed.pdf: VERIFICATION FAILED (see out/$name.verify.txt)"; exit 1; }
   echo "   out/$name.signed.pdf: $(tail -n 1 "out/$name.verify.txt")"
 done
+$RG verify "$pkg.signed.pdf" "${trust[@]}" --vessel "out/work/vessels/$(basename "$ship")" \
+  > "$pkg.verify.txt" \
+  || { echo "   $pkg.signed.pdf: VERIFICATION FAILED (see $pkg.verify.txt)"; exit 1; }
+echo "   $pkg.signed.pdf: $(tail -n 1 "$pkg.verify.txt")"
 echo "   (full reports: out/*.verify.txt)"
 
 echo "== KG margin of each demo condition (from its check summary)"
