@@ -124,7 +124,7 @@ def vessel_text() -> str:
         "  density: 1.025",
         "  stations:",
     ]
-    for x in np.round(np.arange(21) * LPP / 20.0, 4):
+    for x in np.round(np.arange(41) * LPP / 40.0, 4):
         lines += [f"    - x: {_f(float(x), 4)}",
                   f"      points: {_pairs(station_points(float(x)), 3)}"]
     lines += [

@@ -214,6 +214,17 @@ def _scan_heels(method: str, v) -> list[float] | None:
     return v.cross_curves.heel if v.cross_curves else None
 
 
+def _float(method: str, case: Case, vd: VesselData, loading: Loading):
+    """(floating position, KN curve, largest heel of the KN curve, the immersion finder on the
+    hull or None, warnings) of a loading, by the tables or on the hull."""
+    if method == "hull":
+        hull = _on_hull(case, vd, loading)
+        return hull.floating, hull.kn, hull.heel_max_deg, hull.immersion, []
+    fl = _floating(case, vd, loading)
+    kn, heel_max, kn_warnings = _kn(case, vd, fl)
+    return fl, kn, heel_max, None, kn_warnings
+
+
 def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
     """Loading, floating position, KN, angles and wind of a condition (no KG needed), by the
     vessel's calculation.method or by `method` (tables | hull) when given."""
@@ -230,21 +241,15 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
     loading = allowance_stage.with_lines(loading, timber_lines + pax_lines)
     p = v.particulars
     plausible.check_positions(loading.lines, p.length_bp, p.breadth, p.depth)
-    finder = None
-    if method == "hull":
-        hull = _on_hull(case, vd, loading)
-        fl, kn, heel_max, finder = hull.floating, hull.kn, hull.heel_max_deg, hull.immersion
-    else:
-        fl = _floating(case, vd, loading)
-        kn, heel_max, kn_warnings = _kn(case, vd, fl)
-        warnings += kn_warnings
+    fl, kn, heel_max, finder, kn_warnings = _float(method, case, vd, loading)
     plausible.check_draughts(fl.draughts, p.depth)
     icing = allowance_stage.icing_of(case, vd.profile, fl.draughts.mid, fl.trim)
     if icing is not None:  # ice at the waterline without it, then float again (Part B 6)
         loading = allowance_stage.with_lines(loading, allowance_stage.ice_lines(icing))
-        fl = _floating(case, vd, loading)
+        fl, kn, heel_max, finder, kn_warnings = _float(method, case, vd, loading)
         plausible.check_draughts(fl.draughts, p.depth)
         icing = allowance_stage.iced_windage(case, vd.profile, icing, fl.draughts.mid, fl.trim)
+    warnings += kn_warnings
     extras = allowance_stage.Extras(timber, pax, icing)
     warnings += allowance_stage.extras_warnings(sets, extras)
     ll, ll_warnings = _load_line(case, vd, fl)
