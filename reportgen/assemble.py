@@ -5,6 +5,7 @@ from __future__ import annotations
 from dataclasses import asdict
 
 from reportgen import NAME, __version__
+from reportgen import draughts as marks_rules
 from reportgen.criteria.core import Check
 from reportgen.criteria.sets import SETS
 from reportgen.criteria.weather import WIND_PRESSURE_N_M2, Weather
@@ -144,6 +145,9 @@ def results(up: Upright, k: AtKG, fsc: float) -> Results:
         "angles": angles_section(up, k),
         "weather": weather_section(k.weather),
         "load_line": load_line_section(up),
+        "draught_marks": None if up.at_marks is None else marks_rules.marks_section(
+            up.case.vessel.draught_marks.model_dump(), up.at_marks),
+        "observed": None if up.survey is None else marks_rules.observed_section(up.survey),
         "criteria": [criterion(c) for c in k.checks],
         "passed": all(c.passed for c in k.checks),
         "warnings": list(up.warnings) + list(k.warnings),

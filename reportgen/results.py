@@ -16,7 +16,7 @@ from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_valid
 
 RESULTS_FORMAT = "reportgen/results-1"
 DECIMALS = 6  # every float in the document is rounded to this many decimals
-OPTIONAL_SECTIONS = ("weather", "load_line")  # left out of the JSON when None
+OPTIONAL_SECTIONS = ("weather", "load_line", "draught_marks", "observed")  # left out of the JSON when None
 
 
 def clean(value: Any) -> Any:
@@ -210,6 +210,67 @@ class LoadLine(Section):
     deadweight_to_marks: F  # t still available to the permissible draught (negative: over)
 
 
+class MarkDraught(Section):
+    x: F  # m from AP, of the mark
+    draft: F  # m, extreme (moulded + keel thickness), on the centreline
+
+
+class DraughtMarks(Section):
+    aft: MarkDraught
+    mid: MarkDraught
+    fore: MarkDraught
+
+
+class MarkReading(Section):
+    x: F  # m from AP
+    port: F  # m, extreme, as read
+    starboard: F  # m
+    mean: F  # m, extreme, mean of port and starboard
+    moulded: F  # m, mean − keel thickness
+    correction: F  # m, added: to the perpendicular (to midships for the midships mark)
+    calculated: F  # m, extreme draught at the mark of the condition as calculated
+
+
+class Difference(Section):
+    t: F  # observed − calculated displacement, t
+    percent: F  # % of the calculated displacement
+
+
+class Observed(Section):
+    """The draughts read alongside worked to a displacement (reportgen.draughts)."""
+
+    aft: MarkReading
+    mid: MarkReading
+    fore: MarkReading
+    keel_thickness: F  # m
+    marks_span: F  # m between the aft and forward marks
+    trim_at_marks: F  # m, apparent
+    draft_aft: F  # m, moulded, at the AP
+    draft_mid: F  # m, moulded, at midships
+    draft_fore: F  # m, moulded, at the FP
+    trim: F  # m, + by the stern
+    list: F  # deg, + to starboard
+    hog: F  # m, + hog, − sag
+    quarter_mean: F  # m, (F + 6·M + A)/8
+    table_density: F  # t/m³
+    density: F  # t/m³, alongside
+    displacement_table: F  # t, even-keel table at the quarter mean
+    lcf: F  # m from AP
+    tpc: F  # t/cm, table density
+    mct_plus: F  # t·m/cm
+    mct_minus: F  # t·m/cm
+    mct_span: F  # m
+    first_trim_correction: F  # t
+    second_trim_correction: F  # t
+    displacement_trim_corrected: F  # t, table density
+    density_correction: F  # t
+    displacement: F  # t, observed
+    calculated: F  # t, the loading's displacement
+    difference: Difference
+    tolerance: F  # %
+    within: bool
+
+
 class Criterion(Section):
     id: str
     title: str
@@ -268,6 +329,8 @@ class Results(Section):
     angles: Angles
     weather: Weather | None = None
     load_line: LoadLine | None = None
+    draught_marks: DraughtMarks | None = None
+    observed: Observed | None = None
     criteria: list[Criterion]
     passed: bool
     warnings: list[str] = Field(default_factory=list)

@@ -15,9 +15,11 @@ import numpy as np
 from scipy.interpolate import PPoly
 
 from reportgen import angles as angle_rules
+from reportgen import draughts as marks_rules
 from reportgen.criteria import core, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
+from reportgen.errors import InputError
 from reportgen.floating import Floating, floating_on_tables
 from reportgen.inputs import Case
 from reportgen.loading import Loading, condition_loading
@@ -56,6 +58,8 @@ class Upright:
     cb_source: str
     load_line: LoadLine | None
     warnings: tuple[str, ...]
+    at_marks: dict[str, float] | None = None  # extreme draught at each mark, m
+    survey: marks_rules.Survey | None = None  # the draughts read alongside, worked
 
 
 @dataclass(frozen=True)
@@ -169,6 +173,27 @@ def _load_line(case: Case, vd: VesselData, fl: Floating) -> tuple[LoadLine | Non
     return ll, [text]
 
 
+def _marks(case: Case, vd: VesselData, loading: Loading, fl: Floating):
+    """(extreme draughts at the marks, the survey of the draughts read) or Nones."""
+    v, obs = case.vessel, case.condition.observed
+    if v.draught_marks is None:
+        return None, None
+    p = v.particulars
+    x = v.draught_marks.model_dump()
+    at = marks_rules.draughts_at_marks(x, fl.draughts.mid, fl.trim, p.length_bp,
+                                       p.keel_thickness)
+    if obs is None:
+        return at, None
+    if vd.hydro is None:
+        raise InputError("observed: the displacement at the draughts read comes from the "
+                         "hydrostatic table, and the vessel file has none (make it with "
+                         "reportgen tables)")
+    readings = {k: (getattr(obs, k).port, getattr(obs, k).starboard) for k in x}
+    return at, marks_rules.survey(readings, x, at, marks_rules.even_keel(vd.hydro), p.length_bp,
+                                  p.breadth, p.depth, p.keel_thickness, obs.density,
+                                  loading.totals.displacement, obs.tolerance)
+
+
 def upright(case: Case, vd: VesselData) -> Upright:
     """Loading, floating position, KN, angles and wind of a condition (no KG needed)."""
     v, c = case.vessel, case.condition
@@ -192,8 +217,11 @@ def upright(case: Case, vd: VesselData) -> Upright:
         wind = weather23.wind(vd.profile, items, fl.draughts.mid, fl.trim, v.particulars.length_bp,
                               loading.totals.displacement, v.calculation.wind_lever)
         roll_hull, cb_source = _roll_hull(case, fl, loading)
+    at_marks, survey = _marks(case, vd, loading, fl)
+    if survey is not None and not survey.within:
+        warnings.append(marks_rules.survey_warning(survey))
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
-                   tuple(warnings))
+                   tuple(warnings), at_marks=at_marks, survey=survey)
 
 
 def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:

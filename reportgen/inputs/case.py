@@ -98,6 +98,13 @@ def _check_criteria(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> N
                              f"permitted_criteria: {', '.join(allowed)})")
 
 
+def _check_observed(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> None:
+    if cond.observed is not None and vessel.draught_marks is None:
+        where = yamlread.where(("observed",), yamlread.key_lines(raw))
+        raise InputError(f"{name}: {where}: draughts read at the marks need the positions of "
+                         f"the marks, and the vessel file has no draught_marks")
+
+
 def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_name: str,
                     approval: bytes | None = None, cond_label: str | None = None,
                     vessel_label: str | None = None, cond_data: object = None) -> Case:
@@ -115,6 +122,7 @@ def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_n
                          f"calculation.method: hull")
     _check_fillings(cond, vessel, cond_label, cond_raw)
     _check_criteria(cond, vessel, cond_label, cond_raw)
+    _check_observed(cond, vessel, cond_label, cond_raw)
     return Case(cond, vessel, cond_raw, vessel_raw, cond_name, vessel_name, approval)
 
 

@@ -91,6 +91,21 @@ class Weather(Model):
         return self
 
 
+class Reading(Model):
+    port: Positive  # extreme draught read at the mark on the port side, m
+    starboard: Positive  # m
+
+
+class Observed(Model):
+    """The draughts read at the marks (extreme, m) and the water alongside (SPEC.md)."""
+
+    aft: Reading
+    mid: Reading
+    fore: Reading
+    density: WaterDensity  # t/m³, of the water alongside
+    tolerance: Annotated[float, Field(gt=0, le=5)] = 0.5  # % of displacement
+
+
 class Signatories(Model):
     prepared_by: Text | None = None
     checked_by: Text | None = None
@@ -113,4 +128,5 @@ class Condition(Model):
     criteria: Annotated[list[str], AfterValidator(_chosen_sets)] | None = None
     weather: Weather | None = None
     signatories: Signatories | None = None
+    observed: Observed | None = None  # draughts read alongside (needs the vessel's marks)
     notes: Any = None

@@ -263,6 +263,20 @@ class HullOffsets(Model):
         return self
 
 
+class DraughtMarks(Model):
+    """x of the draught marks, m from AP (SPEC.md); they read extreme draughts."""
+
+    aft: Num
+    mid: Num
+    fore: Num
+
+    @model_validator(mode="after")
+    def _order(self) -> DraughtMarks:
+        if not self.aft < self.mid < self.fore:
+            raise ValueError("the marks must lie aft < mid < fore (x from AP, m)")
+        return self
+
+
 class Calculation(Model):
     method: Literal["tables", "hull"] = "tables"
     wind_lever: Literal["half_draft", "underwater_centre"] = "half_draft"
@@ -307,6 +321,7 @@ class Vessel(Model):
         default_factory=list)
     calculation: Calculation = Calculation()
     hull: HullOffsets | None = None
+    draught_marks: DraughtMarks | None = None  # x of the marks, m from AP
     notes: Any = None
 
     @model_validator(mode="after")
@@ -322,6 +337,10 @@ class Vessel(Model):
                              "offsets, and this file has none; give hull offsets (hull:) or the "
                              "booklet's flooding_angle table (no approximation of θf is safe "
                              "enough to print)")
+        marks, lpp = self.draught_marks, self.particulars.length_bp
+        if marks is not None and not (-0.05 * lpp <= marks.aft and marks.fore <= 1.05 * lpp):
+            raise ValueError(f"draught_marks: the marks must lie on the ship, x from "
+                             f"{-0.05 * lpp:g} to {1.05 * lpp:g} m (−0.05·Lpp to 1.05·Lpp)")
         ids = [t.id for t in self.tanks]
         dup = sorted({i for i in ids if ids.count(i) > 1})
         if dup:
