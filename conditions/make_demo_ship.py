@@ -69,6 +69,7 @@ ER_AFT, ER_FORE = 5.0, 18.0  # engine room bulkheads
 HOLD_1 = (18.0, 53.0)  # hold bulkheads, x from AP
 HOLD_2 = (53.0, 90.5)
 COLLISION_BHD = 90.5
+DRAUGHT_MARKS = {"aft": 2.5, "mid": 48.5, "fore": 95.0}  # x of the marks, m from AP
 
 
 # --- hull form ------------------------------------------------------------------------------
@@ -359,6 +360,8 @@ def vessel_text() -> str:
         "criteria: [is2008.general, is2008.weather]",
         "calculation: {method: tables, wind_lever: half_draft, full_percent: 98.0, "
         + "gz_beyond_flooding: exclude}",
+        "draught_marks: {" + ", ".join(f"{k}: {_f(v, 2)}" for k, v in DRAUGHT_MARKS.items())
+        + "}",
         "hull:",
         "  density: 1.025",
         "  stations:",

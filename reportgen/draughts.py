@@ -58,8 +58,8 @@ def draughts_at_marks(marks_x_m: dict[str, float], draft_mid_m: float, trim_m: f
 @dataclass(frozen=True)
 class MarkReading:
     """One mark: x (m from AP), the readings (extreme, m), their mean, the mean made moulded,
-    the correction to its perpendicular (to midships for the midships mark, m, added), and the
-    calculated condition's extreme draught at the mark (m)."""
+    the correction to its perpendicular (to midships for the midships mark, m, added), the
+    calculated condition's extreme draught at the mark (m) and mean − calculated (m)."""
 
     x: float
     port: float
@@ -68,6 +68,7 @@ class MarkReading:
     moulded: float
     correction: float
     calculated: float
+    difference: float
 
 
 def mark_corrections(mean_m: dict[str, float], marks_x_m: dict[str, float],
@@ -176,9 +177,10 @@ class Survey:
     displacement_table: float  # t, even keel at the quarter mean, table density
     lcf: float  # m from AP, at the quarter mean
     tpc: float  # t/cm, at the quarter mean, table density
-    mct_plus: float  # t·m/cm, at the upper draught of the span
-    mct_minus: float  # t·m/cm, at the lower draught
-    mct_span: float  # m between them (1.0 unless the table ends closer)
+    mct_plus: float  # t·m/cm, at mct_plus_draft
+    mct_minus: float  # t·m/cm, at mct_minus_draft
+    mct_plus_draft: float  # m: QM + 0.5 (or the table's end)
+    mct_minus_draft: float  # m: QM − 0.5 (or the table's end)
     first_trim_correction: float  # t
     second_trim_correction: float  # t
     displacement_trim_corrected: float  # t, table density
@@ -235,13 +237,14 @@ def survey(readings_m: dict[str, tuple[float, float]], marks_x_m: dict[str, floa
     diff = observed - calculated_t
     pct = 100.0 * diff / calculated_t
     marks = {k: MarkReading(marks_x_m[k], readings_m[k][0], readings_m[k][1], mean[k],
-                            moulded[k], corr[k], calculated_at_marks_m[k]) for k in MARKS}
+                            moulded[k], corr[k], calculated_at_marks_m[k],
+                            mean[k] - calculated_at_marks_m[k]) for k in MARKS}
     return Survey(
         marks["aft"], marks["mid"], marks["fore"], keel_m, span, trim_marks,
         at["aft"], at["mid"], at["fore"], trim,
         list_deg(readings_m["mid"][0], readings_m["mid"][1], breadth_m),
         hog_m(at["aft"], at["mid"], at["fore"]), qm, table.density, density, disp, lcf, tpc,
-        mct_plus, mct_minus, hi - lo, ftc, stc, corrected, dens, observed, calculated_t, diff,
+        mct_plus, mct_minus, hi, lo, ftc, stc, corrected, dens, observed, calculated_t, diff,
         pct, tolerance_percent, abs(pct) <= tolerance_percent)
 
 

@@ -229,6 +229,7 @@ class MarkReading(Section):
     moulded: F  # m, mean − keel thickness
     correction: F  # m, added: to the perpendicular (to midships for the midships mark)
     calculated: F  # m, extreme draught at the mark of the condition as calculated
+    difference: F  # m, mean − calculated
 
 
 class Difference(Section):
@@ -257,9 +258,10 @@ class Observed(Section):
     displacement_table: F  # t, even-keel table at the quarter mean
     lcf: F  # m from AP
     tpc: F  # t/cm, table density
-    mct_plus: F  # t·m/cm
-    mct_minus: F  # t·m/cm
-    mct_span: F  # m
+    mct_plus: F  # t·m/cm, at mct_plus_draft
+    mct_minus: F  # t·m/cm, at mct_minus_draft
+    mct_plus_draft: F  # m, quarter mean + 0.5 (or the table's end)
+    mct_minus_draft: F  # m, quarter mean − 0.5 (or the table's end)
     first_trim_correction: F  # t
     second_trim_correction: F  # t
     displacement_trim_corrected: F  # t, table density
