@@ -28,6 +28,10 @@ performance of draught surveys of coal cargoes" (ECE/ENERGY/19, 1992), step by s
 8. the second trim correction, STC = 50·t²·(MCT₊ − MCT₋)/Lpp (t), MCT₊ and MCT₋ read 0.5 m
    above and below the quarter mean (Nemoto's correction for the shift of the LCF with trim);
 9. the density correction, Δ·(ρ_alongside/ρ_table − 1).
+A hydrostatic table given at several trims (SPEC.md `trims`, draughts at midships) is read
+directly at the quarter mean and the trim of step 3 instead of steps 6 to 8 (linear in draught,
+then in trim, as reportgen.floating reads it): the trim corrections are the even-keel table's
+approximations of that reading, so they are not applied (basis `trimmed_table`).
 The difference observed − calculated (t, and % of the calculated displacement) is compared
 with the tolerance (default 0.5 %, SPEC.md).
 """
@@ -124,35 +128,18 @@ def density_correction_t(displacement_t: float, density: float, table_density: f
     return displacement_t * (density / table_density - 1.0)
 
 
-@dataclass(frozen=True)
-class EvenKeelTable:
-    """The even-keel columns of a hydrostatic table (table density): draft m, displacement
-    t, lcf m from AP, tpc t/cm, mct t·m/cm."""
-
-    density: float
-    draft: np.ndarray
-    displacement: np.ndarray
-    lcf: np.ndarray
-    tpc: np.ndarray
-    mct: np.ndarray
-
-
-def even_keel(table: HydroTable) -> EvenKeelTable:
-    """The even-keel table: the table itself, or a table with `trims` read at trim 0 (linear
-    between the two trims around it). InputError when trim 0 lies outside its trims."""
-    cols = ("displacement", "lcf", "tpc", "mct")
-    if table.trims is None:
-        return EvenKeelTable(table.density, table.draft[0],
-                             *(getattr(table, c)[0] for c in cols))
+def table_at_trim(table: HydroTable, draft_mid_m: float, trim_m: float) -> float:
+    """Displacement (t, table density) of a table with `trims` at the midships draught and
+    trim (m), linear in draught then in trim. InputError outside the table's trims."""
     trims = table.trims
-    if not trims[0] <= 0.0 <= trims[-1]:
-        raise InputError(f"observed: the draught survey reads the even-keel hydrostatic table, "
-                         f"and the table's trims {trims[0]:g} to {trims[-1]:g} m do not include "
-                         f"trim 0")
-    k = int(np.clip(np.searchsorted(trims, 0.0) - 1, 0, len(trims) - 2))
-    w = (0.0 - trims[k]) / (trims[k + 1] - trims[k])
-    return EvenKeelTable(table.density, table.draft[0], *(
-        (1.0 - w) * getattr(table, c)[k] + w * getattr(table, c)[k + 1] for c in cols))
+    if not trims[0] - 1e-9 <= trim_m <= trims[-1] + 1e-9:
+        raise InputError(f"observed: the trim read, {trim_m:+.3f} m, is outside the hydrostatic "
+                         f"table's trims {trims[0]:g} to {trims[-1]:g} m; the table is not "
+                         f"extrapolated")
+    _in_table(draft_mid_m, table.draft[0], "quarter mean draught")
+    rows = [float(np.interp(draft_mid_m, table.draft[0], table.displacement[k]))
+            for k in range(len(trims))]
+    return float(np.interp(trim_m, trims, rows))
 
 
 @dataclass(frozen=True)
@@ -174,13 +161,14 @@ class Survey:
     quarter_mean: float  # m, moulded
     table_density: float  # t/m³
     density: float  # t/m³, alongside
-    displacement_table: float  # t, even keel at the quarter mean, table density
-    lcf: float  # m from AP, at the quarter mean
-    tpc: float  # t/cm, at the quarter mean, table density
-    mct_plus: float  # t·m/cm, at mct_plus_draft
-    mct_minus: float  # t·m/cm, at mct_minus_draft
-    mct_plus_draft: float  # m: QM + 0.5 (or the table's end)
-    mct_minus_draft: float  # m: QM − 0.5 (or the table's end)
+    basis: str  # even_keel (UN/ECE steps 6 to 8) | trimmed_table (read at the trim)
+    displacement_table: float  # t, at the quarter mean (even keel, or at the trim read)
+    lcf: float | None  # m from AP, at the quarter mean (even_keel only, as the four below)
+    tpc: float | None  # t/cm, at the quarter mean, table density
+    mct_plus: float | None  # t·m/cm, at mct_plus_draft
+    mct_minus: float | None  # t·m/cm, at mct_minus_draft
+    mct_plus_draft: float | None  # m: QM + 0.5 (or the table's end)
+    mct_minus_draft: float | None  # m: QM − 0.5 (or the table's end)
     first_trim_correction: float  # t
     second_trim_correction: float  # t
     displacement_trim_corrected: float  # t, table density
@@ -202,14 +190,21 @@ def _in_table(value_m: float, draft: np.ndarray, what: str) -> None:
 
 
 def survey(readings_m: dict[str, tuple[float, float]], marks_x_m: dict[str, float],
-           calculated_at_marks_m: dict[str, float], table: EvenKeelTable, lpp_m: float,
+           calculated_at_marks_m: dict[str, float], table: HydroTable, lpp_m: float,
            breadth_m: float, depth_m: float, keel_m: float, density: float,
            calculated_t: float, tolerance_percent: float) -> Survey:
     """The displacement from the readings {mark: (port, starboard)} (extreme, m) at the marks
     (x m from AP), by the steps of the module docstring.
 
-    InputError for draughts that cannot be: a moulded draught at a perpendicular below zero
-    or above the depth (SPEC.md), or a quarter mean outside the table."""
+    InputError for draughts that cannot be: a reading below the keel thickness, a moulded
+    draught at a perpendicular below zero or above the depth (SPEC.md), or a quarter mean (or
+    trim, for a table at trims) outside the table."""
+    for k, pair in readings_m.items():
+        for side, value in zip(("port", "starboard"), pair, strict=True):
+            if value < keel_m:
+                raise InputError(f"observed.{k}.{side}: {value:g} m is less than the keel "
+                                 f"thickness {keel_m:g} m: the marks read extreme draughts, "
+                                 f"from the underside of the keel")
     mean = {k: 0.5 * (p + s) for k, (p, s) in readings_m.items()}
     trim_marks, span, corr = mark_corrections(mean, marks_x_m, lpp_m)
     moulded = {k: mean[k] - keel_m for k in MARKS}
@@ -220,17 +215,24 @@ def survey(readings_m: dict[str, tuple[float, float]], marks_x_m: dict[str, floa
                              f"at the {word}, outside 0 to the depth {depth_m:g} m: check "
                              f"the readings and the vessel's draught_marks")
     qm = quarter_mean_m(at["aft"], at["mid"], at["fore"])
-    _in_table(qm, table.draft, "quarter mean draught")
     trim = at["aft"] - at["fore"]
-    disp = float(np.interp(qm, table.draft, table.displacement))
-    lcf = float(np.interp(qm, table.draft, table.lcf))
-    tpc = float(np.interp(qm, table.draft, table.tpc))
-    lo = max(qm - MCT_HALF_SPAN_M, float(table.draft[0]))
-    hi = min(qm + MCT_HALF_SPAN_M, float(table.draft[-1]))
-    mct_plus = float(np.interp(hi, table.draft, table.mct))
-    mct_minus = float(np.interp(lo, table.draft, table.mct))
-    ftc = first_trim_correction_t(trim, lcf, tpc, lpp_m)
-    stc = second_trim_correction_t(trim, mct_plus, mct_minus, hi - lo, lpp_m)
+    lcf = tpc = mct_plus = mct_minus = hi = lo = None
+    if table.trims is None:
+        basis = "even_keel"
+        draft = table.draft[0]
+        _in_table(qm, draft, "quarter mean draught")
+        disp, lcf, tpc = (float(np.interp(qm, draft, getattr(table, c)[0]))
+                          for c in ("displacement", "lcf", "tpc"))
+        lo = max(qm - MCT_HALF_SPAN_M, float(draft[0]))
+        hi = min(qm + MCT_HALF_SPAN_M, float(draft[-1]))
+        mct_plus = float(np.interp(hi, draft, table.mct[0]))
+        mct_minus = float(np.interp(lo, draft, table.mct[0]))
+        ftc = first_trim_correction_t(trim, lcf, tpc, lpp_m)
+        stc = second_trim_correction_t(trim, mct_plus, mct_minus, hi - lo, lpp_m)
+    else:
+        basis = "trimmed_table"
+        disp = table_at_trim(table, qm, trim)
+        ftc = stc = 0.0
     corrected = disp + ftc + stc
     dens = density_correction_t(corrected, density, table.density)
     observed = corrected + dens
@@ -243,7 +245,8 @@ def survey(readings_m: dict[str, tuple[float, float]], marks_x_m: dict[str, floa
         marks["aft"], marks["mid"], marks["fore"], keel_m, span, trim_marks,
         at["aft"], at["mid"], at["fore"], trim,
         list_deg(readings_m["mid"][0], readings_m["mid"][1], breadth_m),
-        hog_m(at["aft"], at["mid"], at["fore"]), qm, table.density, density, disp, lcf, tpc,
+        hog_m(at["aft"], at["mid"], at["fore"]), qm, table.density, density, basis, disp, lcf,
+        tpc,
         mct_plus, mct_minus, hi, lo, ftc, stc, corrected, dens, observed, calculated_t, diff,
         pct, tolerance_percent, abs(pct) <= tolerance_percent)
 

@@ -255,13 +255,14 @@ class Observed(Section):
     quarter_mean: F  # m, (F + 6·M + A)/8
     table_density: F  # t/m³
     density: F  # t/m³, alongside
-    displacement_table: F  # t, even-keel table at the quarter mean
-    lcf: F  # m from AP
-    tpc: F  # t/cm, table density
-    mct_plus: F  # t·m/cm, at mct_plus_draft
-    mct_minus: F  # t·m/cm, at mct_minus_draft
-    mct_plus_draft: F  # m, quarter mean + 0.5 (or the table's end)
-    mct_minus_draft: F  # m, quarter mean − 0.5 (or the table's end)
+    basis: Literal["even_keel", "trimmed_table"]  # how the table was read
+    displacement_table: F  # t, the table at the quarter mean (even keel, or at the trim)
+    lcf: OptF  # m from AP; this and the five below: even_keel only
+    tpc: OptF  # t/cm, table density
+    mct_plus: OptF  # t·m/cm, at mct_plus_draft
+    mct_minus: OptF  # t·m/cm, at mct_minus_draft
+    mct_plus_draft: OptF  # m, quarter mean + 0.5 (or the table's end)
+    mct_minus_draft: OptF  # m, quarter mean − 0.5 (or the table's end)
     first_trim_correction: F  # t
     second_trim_correction: F  # t
     displacement_trim_corrected: F  # t, table density

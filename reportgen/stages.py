@@ -189,7 +189,7 @@ def _marks(case: Case, vd: VesselData, loading: Loading, fl: Floating):
                          "hydrostatic table, and the vessel file has none (make it with "
                          "reportgen tables)")
     readings = {k: (getattr(obs, k).port, getattr(obs, k).starboard) for k in x}
-    return at, marks_rules.survey(readings, x, at, marks_rules.even_keel(vd.hydro), p.length_bp,
+    return at, marks_rules.survey(readings, x, at, vd.hydro, p.length_bp,
                                   p.breadth, p.depth, p.keel_thickness, obs.density,
                                   loading.totals.displacement, obs.tolerance)
 

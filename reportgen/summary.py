@@ -61,20 +61,23 @@ def _observed_lines(r: Results) -> list[str]:
     o = r.observed
     if o is None:
         return lines
+    if o.basis == "even_keel":
+        table = (f"Δ at the quarter mean {o.displacement_table:.1f} t   first trim correction "
+                 f"{o.first_trim_correction:+.1f} t   second {o.second_trim_correction:+.1f} t")
+    else:
+        table = f"Δ of the table at the quarter mean and the trim read {o.displacement_table:.1f} t"
+    verdict = f"within {o.tolerance:g} %" if o.within else f"BEYOND {o.tolerance:g} %"
     lines += [
         "\nDraughts read alongside (draught survey, UN/ECE code steps)",
-        f"  Read (mean of port and starboard): aft {o.aft.mean:.3f} m   midships "
-        f"{o.mid.mean:.3f} m   fore {o.fore.mean:.3f} m",
-        f"  At the perpendiculars (moulded): aft {o.draft_aft:.3f} m   midships "
-        f"{o.draft_mid:.3f} m   fore {o.draft_fore:.3f} m",
-        f"  Trim {o.trim:+.3f} m   List {o.list:+.2f}°   Hog (+)/sag (−) {o.hog:+.3f} m   "
-        f"Quarter mean {o.quarter_mean:.3f} m",
-        f"  Δ at the quarter mean {o.displacement_table:.1f} t   first trim correction "
-        f"{o.first_trim_correction:+.1f} t   second {o.second_trim_correction:+.1f} t   "
-        f"density {o.density_correction:+.1f} t",
-        f"  Δ from the draughts {o.displacement:.1f} t   from the loading {o.calculated:.1f} t"
-        f"   difference {o.difference.t:+.1f} t ({o.difference.percent:+.2f} %): "
-        + (f"within {o.tolerance:g} %" if o.within else f"BEYOND {o.tolerance:g} %"),
+        (f"  Read (mean of port and starboard): aft {o.aft.mean:.3f} m   midships "
+         f"{o.mid.mean:.3f} m   fore {o.fore.mean:.3f} m"),
+        (f"  At the perpendiculars (moulded): aft {o.draft_aft:.3f} m   midships "
+         f"{o.draft_mid:.3f} m   fore {o.draft_fore:.3f} m"),
+        (f"  Trim {o.trim:+.3f} m   List {o.list:+.2f}°   Hog (+)/sag (−) {o.hog:+.3f} m   "
+         f"Quarter mean {o.quarter_mean:.3f} m"),
+        f"  {table}   density {o.density_correction:+.1f} t",
+        (f"  Δ from the draughts {o.displacement:.1f} t   from the loading {o.calculated:.1f} t"
+         f"   difference {o.difference.t:+.1f} t ({o.difference.percent:+.2f} %): {verdict}"),
     ]
     return lines
 

@@ -133,9 +133,12 @@ def test_trim_corrections_by_hand():
     midships), MCT 150 at 4.5 m and 160 at 5.5 m; trim 2.0 m by the stern.
     FTC = 2.0·2.0·20·100/100 = 80 t (LCF towards the deeper stern: +);
     STC = 50·2.0²·(160 − 150)/100 = 20 t."""
-    draft = np.array([4.0, 4.5, 5.0, 5.5, 6.0])
-    table = dr.EvenKeelTable(1.025, draft, 2000.0 * draft, np.full(5, 48.0), np.full(5, 20.0),
-                             np.array([145.0, 150.0, 155.0, 160.0, 165.0]))
+    from reportgen.floating import HydroTable
+    draft = np.array([[4.0, 4.5, 5.0, 5.5, 6.0]])
+    table = HydroTable(1.025, None, draft, displacement=2000.0 * draft, lcb=draft,
+                       lcf=np.full((1, 5), 48.0), kmt=draft,
+                       mct=np.array([[145.0, 150.0, 155.0, 160.0, 165.0]]),
+                       tpc=np.full((1, 5), 20.0), lwl=None, cb=None)
     assert dr.first_trim_correction_t(2.0, 48.0, 20.0, 100.0) == pytest.approx(80.0)
     assert dr.first_trim_correction_t(-2.0, 48.0, 20.0, 100.0) == pytest.approx(-80.0)
     assert dr.second_trim_correction_t(2.0, 160.0, 150.0, 1.0, 100.0) == pytest.approx(20.0)
@@ -167,19 +170,33 @@ def test_loading_two_percent_light_is_warned(tmp_path):
     assert not d["observed"]["within"]
 
 
-def test_even_keel_row_of_a_trimmed_table():
-    """A table at trims −1 and +2 m read at trim 0 by linear interpolation in trim (the draught
-    survey uses the even-keel table)."""
-    from reportgen.floating import HydroTable
-    draft = np.array([[4.0, 6.0]] * 2)
-    t = HydroTable(1.025, np.array([-1.0, 2.0]), draft,
-                   displacement=np.array([[100.0, 200.0], [130.0, 230.0]]), lcb=draft,
-                   lcf=draft, kmt=draft, mct=np.array([[50.0, 60.0], [80.0, 90.0]]),
-                   tpc=np.array([[10.0, 12.0], [13.0, 15.0]]), lwl=None, cb=None)
-    ek = dr.even_keel(t)
-    assert ek.displacement.tolist() == pytest.approx([110.0, 210.0])
-    assert ek.tpc.tolist() == pytest.approx([11.0, 13.0])
-    assert ek.mct.tolist() == pytest.approx([60.0, 70.0])
+def test_box_on_a_table_at_trims(tmp_path):
+    """A box barge whose hydrostatic table is given at trims −1, 0.5 and 2.5 m (SPEC.md
+    `trims`, draughts at midships): Δ = ρ·L·B·T_mid at every trim and LCB = L/2 − t·L/(12·T)
+    (analytic: the moment of the wedge of the straight waterline), so the table read at the
+    quarter mean and the trim read gives the box's displacement; no trim corrections are
+    applied (basis trimmed_table)."""
+    v = _vessel()
+    h = v["hydrostatics"]
+    trims = [-1.0, 0.5, 2.5]
+    v["hydrostatics"] = {"density": RHO, "trims": trims, "draft": h["draft"],
+                         **{k: [h[k]] * len(trims) for k in
+                            ("displacement", "lcf", "kmt", "mct", "tpc")},
+                         "lcb": [[L / 2 - t * L / (12 * d) for d in h["draft"]] for t in trims]}
+    v["cross_curves"] = {**v["cross_curves"], "trims": trims,
+                         "kn": [v["cross_curves"]["kn"]] * len(trims)}
+    aft, fore = 7.9, 6.3
+    true_disp = RHO * L * B * 0.5 * (aft + fore)
+    obs = {**_readings(aft, fore, hog=0.03), "density": 1.010}
+    c = condition_dict(items=[{"name": "Cargo", "mass": true_disp - 1000.0, "lcg": 48.5,
+                               "vcg": 5.0}], observed=obs)
+    o = evaluate_path(write_case(tmp_path, c, v)).to_dict()["observed"]
+    assert o["basis"] == "trimmed_table"
+    qm = 0.5 * (aft + fore) - 0.75 * 0.03  # (F + 6·(mean − hog) + A)/8 by hand
+    assert o["quarter_mean"] == pytest.approx(qm, abs=1e-6)
+    assert o["displacement"] == pytest.approx(1.010 * L * B * qm, rel=1e-6)
+    assert o["first_trim_correction"] == 0.0 and o["second_trim_correction"] == 0.0
+    assert o["lcf"] is None
 
 
 def _cli(tmp_path, observed, vessel=None):
@@ -198,6 +215,8 @@ def _cli(tmp_path, observed, vessel=None):
     ({**_readings(7.0, 7.0), "density": RHO, "tolerance": 0}, None, "tolerance"),
     ({**_readings(13.0, 13.0), "density": RHO}, None, "quarter mean"),
     ({**_readings(15.0, 1.0), "density": RHO}, None, "aft perpendicular"),
+    ({**_readings(7.0, 7.0), "mid": {"port": 0.01, "starboard": 13.99}, "density": RHO}, None,
+     "less than the keel"),
     ({**_readings(7.0, 7.0), "density": RHO}, "marks reversed", "aft < mid < fore"),
 ])
 def test_bad_observed_input_exits_2(tmp_path, observed, vessel, words):
