@@ -26,7 +26,8 @@ performance of draught surveys of coal cargoes" (ECE/ENERGY/19, 1992), step by s
 7. the first trim correction, FTC = 100·TPC·t·(Lpp/2 − LCF)/Lpp (t), moving the draught from
    midships to the centre of flotation (positive when the LCF lies towards the deeper end);
 8. the second trim correction, STC = 50·t²·(MCT₊ − MCT₋)/Lpp (t), MCT₊ and MCT₋ read 0.5 m
-   above and below the quarter mean (Nemoto's correction for the shift of the LCF with trim);
+   above and below the quarter mean (known as Nemoto's correction, for the shift of the LCF with trim; the name recalled
+   from memory);
 9. the density correction, Δ·(ρ_alongside/ρ_table − 1).
 A hydrostatic table given at several trims (SPEC.md `trims`, draughts at midships) is read
 directly at the quarter mean and the trim of step 3 instead of steps 6 to 8 (linear in draught,
@@ -48,7 +49,6 @@ from reportgen.floating import HydroTable, waterline_height
 
 MARKS = ("aft", "mid", "fore")
 MCT_HALF_SPAN_M = 0.5  # MCT read 50 cm above and below the quarter mean (UN/ECE code)
-DEFAULT_TOLERANCE_PERCENT = 0.5  # SPEC.md
 
 
 def draughts_at_marks(marks_x_m: dict[str, float], draft_mid_m: float, trim_m: float,
