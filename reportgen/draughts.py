@@ -153,7 +153,7 @@ class Survey:
     marks_span: float  # m between the aft and forward marks
     trim_at_marks: float  # m, apparent (aft mark − forward mark)
     draft_aft: float  # m, moulded, at the AP
-    draft_mid: float  # m, moulded, at midships
+    draft_mean: float  # m, moulded, at midships (SPEC: draft_mean is at midships)
     draft_fore: float  # m, moulded, at the FP
     trim: float  # m, + by the stern
     list: float  # deg, + to starboard
@@ -256,12 +256,13 @@ def survey_warning(s: Survey) -> str | None:
     if s.within:
         return None
     more = "more" if s.difference_t > 0 else "less"
-    return (f"The draughts read alongside give a displacement of {s.displacement:.1f} t, "
-            f"{abs(s.difference_t):.1f} t ({abs(s.difference_percent):.2f} %) {more} than the "
-            f"loading's {s.calculated:.1f} t, beyond the tolerance of {s.tolerance:g} %: the "
-            f"loading does not account for everything on board (a weight not declared, "
-            f"ballast or a tank sounding not as stated). This calculation is not valid for "
-            f"the ship as she floats until the difference is found.")
+    return (f"The observed draughts (read alongside) give a displacement of "
+            f"{s.displacement:.1f} t and the loading adds up to {s.calculated:.1f} t: a "
+            f"difference of {s.difference_t:+.1f} t ({s.difference_percent:+.2f} %), "
+            f"{abs(s.difference_t):.1f} t {more} on board than declared, beyond the tolerance "
+            f"of {s.tolerance:g} %. The loading does not account for everything on board (a "
+            f"weight not declared, ballast or a tank sounding not as stated); this calculation "
+            f"is not valid for the ship as she floats until the difference is found.")
 
 
 def marks_section(marks_x_m: dict[str, float], at_marks_m: dict[str, float]) -> dict:

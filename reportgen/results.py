@@ -247,7 +247,7 @@ class Observed(Section):
     marks_span: F  # m between the aft and forward marks
     trim_at_marks: F  # m, apparent
     draft_aft: F  # m, moulded, at the AP
-    draft_mid: F  # m, moulded, at midships
+    draft_mean: F  # m, moulded, at midships (as hydrostatics.draft_mean)
     draft_fore: F  # m, moulded, at the FP
     trim: F  # m, + by the stern
     list: F  # deg, + to starboard

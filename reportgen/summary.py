@@ -72,7 +72,7 @@ def _observed_lines(r: Results) -> list[str]:
         (f"  Read (mean of port and starboard): aft {o.aft.mean:.3f} m   midships "
          f"{o.mid.mean:.3f} m   fore {o.fore.mean:.3f} m"),
         (f"  At the perpendiculars (moulded): aft {o.draft_aft:.3f} m   midships "
-         f"{o.draft_mid:.3f} m   fore {o.draft_fore:.3f} m"),
+         f"{o.draft_mean:.3f} m   fore {o.draft_fore:.3f} m"),
         (f"  Trim {o.trim:+.3f} m   List {o.list:+.2f}°   Hog (+)/sag (−) {o.hog:+.3f} m   "
          f"Quarter mean {o.quarter_mean:.3f} m"),
         f"  {table}   density {o.density_correction:+.1f} t",

@@ -87,7 +87,7 @@ def test_box_trimmed_and_listed(tmp_path):
     assert o["displacement"] == pytest.approx(true_disp, rel=1e-3)
     assert o["draft_aft"] == pytest.approx(aft, abs=1e-6)
     assert o["draft_fore"] == pytest.approx(fore, abs=1e-6)
-    assert o["draft_mid"] == pytest.approx(7.0, abs=1e-6)
+    assert o["draft_mean"] == pytest.approx(7.0, abs=1e-6)
     assert o["trim"] == pytest.approx(1.6, abs=1e-6)
     assert o["list"] == pytest.approx(2.0, abs=1e-6)
     assert o["hog"] == pytest.approx(0.0, abs=1e-6)
@@ -96,7 +96,7 @@ def test_box_trimmed_and_listed(tmp_path):
     assert o["aft"]["correction"] == pytest.approx(trim_marks * 3.0 / 94.0, abs=1e-9)
     assert o["fore"]["correction"] == pytest.approx(-trim_marks * 3.0 / 94.0, abs=1e-9)
     assert o["within"] and o["difference"]["t"] == pytest.approx(0.0, abs=0.1)
-    assert not [w for w in d["warnings"] if "draughts read alongside" in w]
+    assert not [w for w in d["warnings"] if "observed draughts" in w]
 
 
 def test_hogged_box_by_the_quarter_mean(tmp_path):
@@ -162,7 +162,7 @@ def test_loading_two_percent_light_is_warned(tmp_path):
     assert not o["within"]
     assert o["difference"]["t"] == pytest.approx(0.02 * true_disp, rel=1e-3)
     assert o["difference"]["percent"] == pytest.approx(100 * 0.02 / 0.98, abs=0.01)
-    warned = [w for w in d["warnings"] if "draughts read alongside" in w]
+    warned = [w for w in d["warnings"] if "observed draughts" in w]
     assert len(warned) == 1 and "does not account for everything on board" in warned[0]
     # 0.3 % light stays within the default tolerance, and a tolerance of 0.2 % catches it
     assert _run(tmp_path, 0.997 * true_disp, obs, lcg=48.0)["observed"]["within"]
@@ -237,3 +237,26 @@ def test_observed_in_the_condition_schema():
     props = Condition.model_json_schema()["$defs"]["Observed"]["properties"]
     assert set(props) == {"aft", "mid", "fore", "density", "tolerance"}
     assert yaml.safe_dump(props)  # plain data
+
+
+def test_sheet_and_summary_show_the_survey(tmp_path):
+    """Issue 16: the sheet shows the readings, each correction and the result so that a
+    surveyor can re-do it by hand; the summary shows the marks and the difference. Checked on
+    the hogged box of the hand-worked case above (QM 6.955 m, Δ 11406.2 t)."""
+    from reportgen.inputs import load_case
+    from reportgen.pipeline import evaluate
+    from reportgen.report.render import sheet_html
+    from reportgen.summary import render_summary
+
+    obs = {**_readings(7.60, 6.40, hog=0.06), "density": 1.025}
+    c = condition_dict(items=[{"name": "Cargo", "mass": 0.98 * 11406.2 - 1000.0, "lcg": 50.0,
+                               "vcg": 5.0}], observed=obs)
+    case = load_case(write_case(tmp_path, c, _vessel()))
+    r = evaluate(case)
+    html = sheet_html(case, r)
+    for text in ("2a. Draughts read alongside", "Forward marks, x 97.00 m", "6.955",
+                 "11406.2", "(F + 6·M + A)/8", "First trim correction",
+                 "Second trim correction", "Density correction", "exceeds the tolerance"):
+        assert text in html, text
+    summary = render_summary(r)
+    assert "At the marks (extreme)" in summary and "BEYOND 0.5 %" in summary
