@@ -251,10 +251,21 @@ def survey(readings_m: dict[str, tuple[float, float]], marks_x_m: dict[str, floa
         pct, tolerance_percent, abs(pct) <= tolerance_percent)
 
 
-def survey_warning(s: Survey) -> str | None:
-    """The warning beside the verdict when the difference exceeds the tolerance."""
-    if s.within:
-        return None
+def survey_warnings(s: Survey, water_density: float) -> list[str]:
+    """The warnings beside the verdict: the difference beyond the tolerance; water alongside
+    of another density than the condition's (t/m³), which the calculated draughts are for."""
+    out = []
+    if round(water_density, 4) != round(s.density, 4):
+        out.append(f"The water alongside ({s.density:.4f} t/m³) is not the condition's water "
+                   f"({water_density:.4f} t/m³): the displacements compare, but the calculated "
+                   f"draughts at the marks are for the condition's water, not for the water "
+                   f"the readings were taken in.")
+    if not s.within:
+        out.append(_difference_warning(s))
+    return out
+
+
+def _difference_warning(s: Survey) -> str:
     more = "more" if s.difference_t > 0 else "less"
     return (f"The observed draughts (read alongside) give a displacement of "
             f"{s.displacement:.1f} t and the loading adds up to {s.calculated:.1f} t: a "

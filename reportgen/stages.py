@@ -218,8 +218,8 @@ def upright(case: Case, vd: VesselData) -> Upright:
                               loading.totals.displacement, v.calculation.wind_lever)
         roll_hull, cb_source = _roll_hull(case, fl, loading)
     at_marks, survey = _marks(case, vd, loading, fl)
-    if survey is not None and not survey.within:
-        warnings.append(marks_rules.survey_warning(survey))
+    if survey is not None:
+        warnings += marks_rules.survey_warnings(survey, c.condition.water_density)
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
                    tuple(warnings), at_marks=at_marks, survey=survey)
 

@@ -125,6 +125,11 @@ def test_density_correction_by_hand(tmp_path):
     o = d["observed"]
     assert o["density_correction"] == pytest.approx(-166.92, abs=0.02)
     assert o["displacement"] == pytest.approx(11239.28, abs=0.02)
+    assert not [w for w in d["warnings"] if "water alongside" in w]
+    # the condition computed in salt water while the readings were taken in dock water
+    d = _run(tmp_path, 11239.3, obs, rho=1.025)
+    assert d["observed"]["displacement"] == pytest.approx(11239.28, abs=0.02)
+    assert [w for w in d["warnings"] if "water alongside (1.0100 t/m³)" in w]
 
 
 def test_trim_corrections_by_hand():
