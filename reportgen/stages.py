@@ -16,6 +16,7 @@ from scipy.interpolate import PPoly
 
 from reportgen import angles as angle_rules
 from reportgen import draughts as marks_rules
+from reportgen import plausible
 from reportgen.criteria import core, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
@@ -203,7 +204,10 @@ def upright(case: Case, vd: VesselData) -> Upright:
         warnings.append(f"The IS Code 2008 criteria apply to ships of {MIN_LENGTH_M:g} m in "
                         f"length and over; this ship is {v.particulars.length_bp:g} m.")
     loading = condition_loading(v, c, vd.tanks)
+    p = v.particulars
+    plausible.check_positions(loading.lines, p.length_bp, p.breadth, p.depth)
     fl = _floating(case, vd, loading)
+    plausible.check_draughts(fl.draughts, p.depth)
     ll, ll_warnings = _load_line(case, vd, fl)
     warnings += ll_warnings
     kn, heel_max, kn_warnings = _kn(case, vd, fl)
@@ -217,6 +221,12 @@ def upright(case: Case, vd: VesselData) -> Upright:
         wind = weather23.wind(vd.profile, items, fl.draughts.mid, fl.trim, v.particulars.length_bp,
                               loading.totals.displacement, v.calculation.wind_lever)
         roll_hull, cb_source = _roll_hull(case, fl, loading)
+        bare = plausible.unwinded_deck_items(loading.lines, vd.profile, p.depth,
+                                             {it.name for it in c.items if it.wind_area})
+        warnings += [f"Item {name!r} lies above the deck and outside the lateral windage "
+                     f"profile, but gives no wind_area: its windage is not in the weather "
+                     f"criterion (IS Code 2008 Part A 2.3); give wind_area and wind_z."
+                     for name in bare]
     at_marks, survey = _marks(case, vd, loading, fl)
     if survey is not None:
         warnings += marks_rules.survey_warnings(survey, c.condition.water_density)

@@ -116,6 +116,12 @@ def render_summary(r: Results) -> str:
     trim_word = "by the stern" if hy.trim > 0 else ("by the head" if hy.trim < 0 else "")
     con.print(f"  Trim {abs(hy.trim):.3f} m {trim_word}".rstrip()
               + f"   Heel {_heel_text(hy.heel)}")
+    if r.load_line is not None:
+        ll = r.load_line
+        con.print(f"  Load line: summer draught {ll.summer_draft:.3f} m   FWA {ll.fwa * 1000:.0f} mm"
+                  f"   DWA {ll.dwa * 1000:.0f} mm   permissible midships draught "
+                  f"{ll.permissible_draft:.3f} m   deadweight to the marks "
+                  f"{ll.deadweight_to_marks:.1f} t")
     con.print(f"  KMt {hy.kmt:.3f} m   KG {hy.kg_solid:.3f} m   FSC {hy.fsc:.3f} m   "
               f"KG corrected {hy.kg_fluid:.3f} m")
     con.print(f"  GM {hy.gm_solid:.3f} m   GM corrected {hy.gm_fluid:.3f} m")

@@ -59,10 +59,10 @@ def read_passphrase(path: Path | None) -> bytes | None:
 
 
 @click.group(cls=_Group, context_settings={"help_option_names": ["-h", "--help"]})
-@click.version_option(__version__, prog_name="reportgen")
+@click.version_option(__version__, "-V", "--version", prog_name="reportgen")
 def main() -> None:
     """Intact stability calculation sheets to the IMO 2008 IS Code."""
 
 
 # The commands register themselves on `main` when their modules are imported.
-from reportgen.cli import calc, setup, signing  # noqa: F401
+from reportgen.cli import calc, formats, setup, signing  # noqa: F401

@@ -8,13 +8,12 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from importlib import import_module
-from typing import TYPE_CHECKING, Literal
+from typing import TYPE_CHECKING, Any, Literal
 
 from reportgen.criteria.sets import SETS
 from reportgen.errors import InputError
 
 if TYPE_CHECKING:
-    from reportgen.criteria.weather import Weather
     from reportgen.stability import GZCurve
 
 
@@ -67,7 +66,7 @@ class State:
     gm_fluid_m: float
     flooding_deg: float
     deck_edge_deg: float
-    weather: Weather | None = None
+    weather: Any = None  # reportgen.criteria.weather.Weather, when the set needs it
 
 
 def needs(set_ids: list[str]) -> frozenset[str]:

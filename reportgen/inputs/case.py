@@ -12,12 +12,18 @@ from reportgen.errors import InputError
 from reportgen.files import read_input
 from reportgen.inputs import yamlread
 from reportgen.inputs.condition import Condition
+from reportgen.inputs.tablecheck import table_problems
 from reportgen.inputs.vessel import Vessel
 
 
 def parse_vessel(raw: bytes, name: str) -> Vessel:
-    """The vessel model from the bytes of a vessel data file; `name` is used in messages."""
-    return yamlread.validate(Vessel, yamlread.parse(raw, name), name, raw)
+    """The vessel model from the bytes of a vessel data file; `name` is used in messages.
+    Tables that cannot belong to the ship (reportgen.inputs.tablecheck) are refused."""
+    vessel = yamlread.validate(Vessel, yamlread.parse(raw, name), name, raw)
+    problems = table_problems(vessel)
+    if problems:
+        raise InputError(f"{name}: implausible tables: " + "; ".join(problems))
+    return vessel
 
 
 def load_vessel(path: str | Path) -> Vessel:

@@ -54,6 +54,7 @@ DECIMALS = {
     "mass": 1,  # t
     "coord": 3,  # m, LCG/VCG/TCG/LCB/LCF/KG/KM
     "draft": 3,  # m
+    "mm": 0,  # mm, load line allowances
     "lever": 3,  # m, GZ, GM, lw
     "lever4": 4,  # m, the small wind levers
     "fsm": 1,  # t·m

@@ -1,0 +1,86 @@
+"""Plausibility of a condition: what cannot be a ship afloat is refused before it is assessed,
+and what the criteria would silently miss is named (SPEC.md "Conventions").
+
+Refused (InputError, exit status 2), each naming the line, key or value:
+- a mass whose centre lies outside the ship: LCG more than OVERHANG_FRACTION·Lpp beyond a
+  perpendicular, |TCG| more than B/2 off the centreline, VCG below the base line or more than
+  B above the deck (our bound: the centre of a cargo stack on deck is well below this);
+- a draught at a perpendicular below zero (the keel out of the water) or above the moulded
+  depth (the deck edge under water upright: not an intact condition the Code assesses).
+
+Warned (beside the verdict): an item whose centre is above the deck and outside the vessel's
+lateral windage profile, with no windage of its own given, while the weather criterion is
+selected: its wind area is missing from IS Code 2008 Part A 2.3.
+
+Units: m throughout (x from the AP, y + to starboard, z above base).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+from shapely.geometry import Point, Polygon
+
+from reportgen.errors import InputError
+from reportgen.floating import Draughts
+from reportgen.loading import Line
+
+# Our bound for the overhangs beyond the perpendiculars (stern and bow overhangs of sea-going
+# ships are a few per cent of Lpp: a fact of common practice); a centre further out is refused.
+OVERHANG_FRACTION = 0.15
+
+
+def position_problems(lines: Sequence[Line], length_bp_m: float, breadth_m: float,
+                      depth_m: float) -> list[str]:
+    """Lines whose centre of mass lies outside the ship (module docstring); massless lines
+    are not looked at."""
+    x_lo, x_hi = -OVERHANG_FRACTION * length_bp_m, (1.0 + OVERHANG_FRACTION) * length_bp_m
+    z_hi = depth_m + breadth_m
+    problems = []
+    for ln in lines:
+        if ln.mass <= 0.0:
+            continue
+        label = f"{ln.kind} {ln.id or ln.name!r}"
+        if not x_lo <= ln.lcg <= x_hi:
+            problems.append(f"{label}: lcg {ln.lcg:g} m is outside the ship (from {x_lo:g} to "
+                            f"{x_hi:g} m, Lpp {length_bp_m:g} m with overhangs of "
+                            f"{OVERHANG_FRACTION:.0%} of Lpp)")
+        if abs(ln.tcg) > breadth_m / 2.0:
+            problems.append(f"{label}: tcg {ln.tcg:g} m is outside the ship's breadth "
+                            f"({breadth_m / 2.0:g} m each side of the centreline)")
+        if not 0.0 <= ln.vcg <= z_hi:
+            problems.append(f"{label}: vcg {ln.vcg:g} m is outside 0 to {z_hi:g} m (from the "
+                            f"base line to a breadth above the deck)")
+    return problems
+
+
+def check_positions(lines: Sequence[Line], length_bp_m: float, breadth_m: float,
+                    depth_m: float) -> None:
+    """InputError naming every mass placed outside the ship."""
+    problems = position_problems(lines, length_bp_m, breadth_m, depth_m)
+    if problems:
+        raise InputError("a mass lies outside the ship: " + "; ".join(problems))
+
+
+def check_draughts(d: Draughts, depth_m: float) -> None:
+    """InputError when a draught at a perpendicular is below zero or above the moulded depth:
+    no intact ship floats so (the condition's masses or positions are wrong)."""
+    for where, value in (("aft perpendicular", d.aft), ("forward perpendicular", d.fore)):
+        if value < 0.0:
+            raise InputError(f"the draught at the {where} would be {value:.2f} m, below zero "
+                             f"(the keel out of the water): this condition cannot float so; "
+                             f"check the masses and their lcg")
+        if value > depth_m:
+            raise InputError(f"the draught at the {where} would be {value:.2f} m, above the "
+                             f"moulded depth {depth_m:g} m (the deck under water upright): "
+                             f"not an intact condition; check the masses and their lcg")
+
+
+def unwinded_deck_items(lines: Sequence[Line], windage_profile: Polygon, depth_m: float,
+                        items_with_wind: set[str]) -> list[str]:
+    """Names of items whose centre is above the deck and outside the lateral windage profile,
+    with no wind area of their own (`items_with_wind`: names of items that give one)."""
+    return [ln.name for ln in lines
+            if ln.kind == "item" and ln.mass > 0.0 and ln.vcg > depth_m
+            and ln.name not in items_with_wind
+            and not windage_profile.covers(Point(ln.lcg, ln.vcg))]

@@ -1,0 +1,113 @@
+"""Impossible conditions and tables are refused, and deck cargo without windage is named
+(SPEC.md "Conventions"; each case one an adversarial review found printed as PASS).
+
+The bounds are physical facts: a centre of mass lies inside the ship; a ship afloat upright
+has its keel under water and its deck edge above it at both perpendiculars; a hull holds no
+more water than its bounding box (block coefficient ≤ 1, definition of CB); KN is a distance
+inside the hull's section.
+"""
+
+from __future__ import annotations
+
+import shutil
+from pathlib import Path
+
+import numpy as np
+import pytest
+import yaml
+from click.testing import CliRunner
+from conftest import PASSING, ROOT
+
+from reportgen.cli import main
+from reportgen.errors import InputError
+from reportgen.inputs import parse_vessel
+from reportgen.inputs.tablecheck import table_problems
+
+DEMO_VESSEL = ROOT / "conditions" / "vessels" / "linnet-demo.yaml"
+ITEM_LINE = "  - {name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0}"
+
+
+@pytest.fixture()
+def work(tmp_path) -> Path:
+    (tmp_path / "vessels").mkdir()
+    shutil.copy(DEMO_VESSEL, tmp_path / "vessels")
+    shutil.copy(PASSING, tmp_path / "c.yaml")
+    assert ITEM_LINE in (tmp_path / "c.yaml").read_text()
+    return tmp_path
+
+
+def _check(work: Path, old: str, new: str):
+    text = (work / "c.yaml").read_text().replace(old, new)
+    (work / "x.yaml").write_text(text)
+    done = CliRunner().invoke(main, ["check", str(work / "x.yaml")])
+    assert "Traceback" not in done.output
+    return done
+
+
+@pytest.mark.parametrize("item, words", [
+    ("{name: Stores and provisions, mass: 20.0, lcg: 135.5, vcg: 11.0}", "lcg 135.5 m is outside"),
+    ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 116.0}", "vcg 116 m is outside"),
+    ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: -1.0}", "vcg -1 m is outside"),
+    ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0, tcg: 30.0}",
+     "tcg 30 m is outside"),
+])
+def test_a_mass_outside_the_ship_is_refused(work, item, words):
+    done = _check(work, ITEM_LINE, "  - " + item)
+    assert done.exit_code == 2 and words in done.output and "Stores and provisions" in done.output
+
+
+def test_a_condition_that_cannot_float_is_refused(work):
+    # 3000 t at x = 95 m on a 97 m ship: the trim puts the keel aft out of the water.
+    done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Big, mass: 3000.0, lcg: 95.0, "
+                                              "vcg: 5.0}")
+    assert done.exit_code == 2 and "below zero" in done.output
+
+
+def test_a_condition_with_the_deck_under_water_is_refused(work):
+    done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Big, mass: 3000.0, lcg: 85.0, "
+                                              "vcg: 5.0}")
+    assert done.exit_code == 2 and "above the moulded depth" in done.output
+
+
+def test_deck_cargo_without_windage_is_named_beside_the_verdict(work):
+    done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Deck pipes, mass: 100.0, lcg: 60.0, "
+                                              "vcg: 11.0}")
+    assert done.exit_code in (0, 1)
+    verdict_at = done.output.index("Result:")
+    warning_at = done.output.index("'Deck pipes' lies above the deck")
+    assert warning_at > verdict_at and warning_at < done.output.index("Loading")
+    # with its own wind area the warning goes
+    done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Deck pipes, mass: 100.0, lcg: 60.0, "
+                                              "vcg: 11.0, wind_area: 40.0, wind_z: 11.0}")
+    assert "Deck pipes" not in done.output
+
+
+def _vessel_problem(edit) -> str:
+    """The message of reading the demo vessel file after `edit(data)` (parsed, so the test
+    does not depend on how the file lays out its rows)."""
+    data = yaml.safe_load(DEMO_VESSEL.read_text())
+    edit(data)
+    with pytest.raises(InputError) as caught:
+        parse_vessel(yaml.safe_dump(data).encode(), "edited.yaml")
+    return str(caught.value)
+
+
+def test_kn_beyond_the_hull_is_refused():
+    def edit(data):
+        kn = np.asarray(data["cross_curves"]["kn"], dtype=float)
+        kn[..., 0, 1] += 100.0  # 100 m of KN at 5° on a ship 15.6 m broad
+        data["cross_curves"]["kn"] = kn.tolist()
+
+    assert "cross_curves.kn row 1" in _vessel_problem(edit)
+
+
+def test_displacement_above_a_block_coefficient_of_one_is_refused():
+    def edit(data):  # CB 0.637 at the lightest row of the demo ship: × 1.6 gives CB 1.02
+        h = data["hydrostatics"]
+        h["displacement"] = (np.asarray(h["displacement"], dtype=float) * 1.6).tolist()
+
+    assert "block coefficient above 1" in _vessel_problem(edit)
+
+
+def test_the_demo_vessel_file_is_plausible():
+    assert table_problems(parse_vessel(DEMO_VESSEL.read_bytes(), "demo")) == []
