@@ -179,6 +179,7 @@ class Survey:
     difference_percent: float  # % of the calculated displacement
     tolerance: float  # %
     within: bool
+    density_stated: bool = True  # False: the condition's water taken as the water alongside
 
 
 def _in_table(value_m: float, draft: np.ndarray, what: str) -> None:

@@ -272,6 +272,7 @@ class Observed(Section):
     difference: Difference
     tolerance: F  # %
     within: bool
+    density_stated: bool  # False: not given; the condition's water taken as the water alongside
 
 
 class Criterion(Section):

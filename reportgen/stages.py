@@ -9,7 +9,7 @@ arrays and plain values.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 from scipy.interpolate import PPoly
@@ -190,9 +190,11 @@ def _marks(case: Case, vd: VesselData, loading: Loading, fl: Floating):
                          "hydrostatic table, and the vessel file has none (make it with "
                          "reportgen tables)")
     readings = {k: (getattr(obs, k).port, getattr(obs, k).starboard) for k in x}
-    return at, marks_rules.survey(readings, x, at, vd.hydro, p.length_bp,
-                                  p.breadth, p.depth, p.keel_thickness, obs.density,
-                                  loading.totals.displacement, obs.tolerance)
+    stated = obs.density is not None
+    rho = obs.density if stated else case.condition.condition.water_density
+    s = marks_rules.survey(readings, x, at, vd.hydro, p.length_bp, p.breadth, p.depth,
+                           p.keel_thickness, rho, loading.totals.displacement, obs.tolerance)
+    return at, s if stated else replace(s, density_stated=False)
 
 
 def upright(case: Case, vd: VesselData) -> Upright:

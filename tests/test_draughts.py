@@ -130,6 +130,10 @@ def test_density_correction_by_hand(tmp_path):
     d = _run(tmp_path, 11239.3, obs, rho=1.025)
     assert d["observed"]["displacement"] == pytest.approx(11239.28, abs=0.02)
     assert [w for w in d["warnings"] if "water alongside (1.0100 t/m³)" in w]
+    # not stated: the condition's water is taken, and the results say so
+    d = _run(tmp_path, 11239.3, {k: v for k, v in obs.items() if k != "density"}, rho=1.010)
+    assert d["observed"]["displacement"] == pytest.approx(11239.28, abs=0.02)
+    assert d["observed"]["density_stated"] is False
 
 
 def test_trim_corrections_by_hand():
@@ -216,7 +220,6 @@ def _cli(tmp_path, observed, vessel=None):
     ({**_readings(7.0, 7.0), "density": RHO}, "no marks", "no draught_marks"),
     ({"aft": {"port": 7.0}, "mid": {"port": 7.0, "starboard": 7.0},
       "fore": {"port": 7.0, "starboard": 7.0}, "density": RHO}, None, "starboard"),
-    ({**_readings(7.0, 7.0)}, None, "density"),
     ({**_readings(7.0, 7.0), "density": RHO, "tolerance": 0}, None, "tolerance"),
     ({**_readings(13.0, 13.0), "density": RHO}, None, "quarter mean"),
     ({**_readings(15.0, 1.0), "density": RHO}, None, "aft perpendicular"),

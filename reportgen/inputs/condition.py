@@ -102,7 +102,8 @@ class Observed(Model):
     aft: Reading
     mid: Reading
     fore: Reading
-    density: WaterDensity  # t/m³, of the water alongside
+    density: WaterDensity | None = None  # t/m³, of the water alongside (default: the
+    # condition's water_density)
     tolerance: Annotated[float, Field(gt=0, le=5)] = 0.5  # % of displacement
 
 
