@@ -268,3 +268,16 @@ def test_sheet_and_summary_show_the_survey(tmp_path):
         assert text in html, text
     summary = render_summary(r)
     assert "At the marks (extreme)" in summary and "BEYOND 0.5 %" in summary
+
+
+def test_demo_readings_tell_their_story():
+    """The demo (issue 16): the full-load departure's readings agree with its loading; the
+    ballast arrival's readings show about 85 t (invented) that its loading does not declare."""
+    from conftest import ROOT
+
+    agree = evaluate_path(ROOT / "conditions" / "full-load-departure.yaml").observed
+    assert agree.within and abs(agree.difference.percent) < 0.25
+    short = evaluate_path(ROOT / "conditions" / "ballast-arrival.yaml")
+    assert not short.observed.within
+    assert 60.0 < short.observed.difference.t < 110.0
+    assert any("observed draughts" in w for w in short.warnings)
