@@ -36,12 +36,16 @@ def main(argv: list[str]) -> int:
     print(f"reading the files: {best_load * 1e3:.2f} ms (load_case, best of 5)")
 
     # 1000 conditions in one process, cycling through the cases.
-    n = 1000
+    # (fewer when one takes over 20 ms, so that the benchmark ends; the figure is then
+    # extrapolated to 1000 and says so)
+    n = 1000 if best < 20e-3 else 20
+    scale = 1000 / n
     t0 = time.perf_counter()
     for i in range(n):
         evaluate(cases[i % len(cases)])
-    total = time.perf_counter() - t0
-    print(f"{n} conditions: {total:.2f} s ({total / n * 1e3:.2f} ms each)")
+    total = (time.perf_counter() - t0) * scale
+    said = "" if n == 1000 else f" (extrapolated from {n})"
+    print(f"1000 conditions: {total:.2f} s ({total:.2f} ms each){said}")
 
     # The same with the vessel's tables made once (pipeline.evaluate(case, tables)).
     tables = {id(c.vessel): vessel_data(c.vessel) for c in cases}
@@ -49,8 +53,8 @@ def main(argv: list[str]) -> int:
     for i in range(n):
         c = cases[i % len(cases)]
         evaluate(c, tables[id(c.vessel)])
-    shared = time.perf_counter() - t0
-    print(f"{n} conditions, tables shared: {shared:.2f} s ({shared / n * 1e3:.2f} ms each)")
+    shared = (time.perf_counter() - t0) * scale
+    print(f"1000 conditions, tables shared: {shared:.2f} s ({shared:.2f} ms each){said}")
     process, imports = _process_times(paths[0])
     print(f"reportgen check as a process: {process * 1e3:.0f} ms; importing its libraries: "
           f"{imports * 1e3:.0f} ms (ratio {process / imports:.2f}; best of 3 each)")

@@ -37,6 +37,7 @@ from reportgen.hull.compartments import (
     tank_depth,
     tank_table,
 )
+from reportgen.hull.grainholds import hold_grain, void_depth_m
 from reportgen.hull.sections import Hull, hull_from_stations
 
 SHIP_SLUG = "linnet-demo"
@@ -70,6 +71,11 @@ HOLD_1 = (18.0, 53.0)  # hold bulkheads, x from AP
 HOLD_2 = (53.0, 90.5)
 COLLISION_BHD = 90.5
 DRAUGHT_MARKS = {"aft": 2.5, "mid": 48.5, "fore": 95.0}  # x of the marks, m from AP
+# Grain (International Grain Code, Part B; reportgen.hull.grainholds): invented hatchways 9 m
+# wide; Vd1 = 430 mm for a boundary distance of 5.0 m (table B 1-1) with girders 600 mm deep.
+GRAIN_HATCH_HALF = 4.5
+GRAIN_VD1_MM, GRAIN_GIRDER_MM = 430.0, 600.0
+GRAIN_STEP = 0.5  # m of grain depth between the rows of the partly-filled tables
 
 
 # --- hull form ------------------------------------------------------------------------------
@@ -324,6 +330,28 @@ def _box_note(box: TankBox) -> str:
             f" z {_f(box.z_min, 2)}..{_f(box.z_max, 2)} (m; inside the hull)")
 
 
+def _grain_lines(hull: Hull) -> list[str]:
+    """The `grain:` block: each hold's filled and partly-filled data (reportgen.hull.grainholds
+    states the Grain Code assumptions)."""
+    lines = ["grain:", "  compartments:"]
+    for k, (name, box) in enumerate(HOLDS, start=1):
+        g = hold_grain(hull, box, sounding_grid(hull, box, step_m=GRAIN_STEP),
+                       void_depth_m(GRAIN_VD1_MM, GRAIN_GIRDER_MM), GRAIN_HATCH_HALF)
+        f, p = g["filled"], g["partly"]
+        rows = _printable_rows(p["volume"], 1)
+        lines += [
+            f"    - id: H{k}",
+            f"      name: {name}",
+            (f"      filled: {{volume: {_f(f['volume'], 1)}, lcg: {_f(f['lcg'], 3)}, "
+             f"vcg: {_f(f['vcg'], 3)}, vhm: {_f(f['vhm'], 1)}}}"),
+            f"      filled_untrimmed_vhm: {_f(g['untrimmed_vhm'], 1)}",
+            "      partly:",
+            *[f"        {key}: {_row(p[key][rows], nd)}"
+              for key, nd in (("volume", 1), ("lcg", 3), ("vcg", 3), ("vhm", 1))],
+        ]
+    return lines
+
+
 def vessel_text() -> str:
     """The whole -hull.yaml vessel file as text (deterministic)."""
     st = stations()
@@ -337,6 +365,9 @@ def vessel_text() -> str:
         "  lightship: invented for the demo (no inclining experiment)",
         "  tanks: sounding tables computed from the tank boundaries inside the hull offsets "
         + "by conditions/make_demo_ship.py",
+        "  grain: hold volumes, centres and volumetric heeling moments computed from the hold "
+        + "boundaries inside the hull offsets by the International Grain Code's assumptions "
+        + "(Part B) by conditions/make_demo_ship.py",
         "particulars:",
         f"  length_bp: {_f(LPP, 2)}",
         f"  breadth: {_f(BREADTH, 2)}",
@@ -358,10 +389,12 @@ def vessel_text() -> str:
         lines += _tank_lines(t, hull)
     lines += [
         "criteria: [is2008.general, is2008.weather]",
+        "permitted_criteria: [grain.2008]",
         "calculation: {method: tables, wind_lever: half_draft, full_percent: 98.0, "
         + "gz_beyond_flooding: exclude}",
         "draught_marks: {" + ", ".join(f"{k}: {_f(v, 2)}" for k, v in DRAUGHT_MARKS.items())
         + "}",
+        *_grain_lines(hull),
         "hull:",
         "  density: 1.025",
         "  stations:",

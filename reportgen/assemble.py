@@ -9,6 +9,7 @@ from reportgen import draughts as marks_rules
 from reportgen.criteria.core import Check
 from reportgen.criteria.sets import SETS
 from reportgen.criteria.weather import WIND_PRESSURE_N_M2, Weather
+from reportgen.grain import allowable_lambda0_m
 from reportgen.inputs import Case
 from reportgen.results import Results
 from reportgen.stability import gz_grid, list_side
@@ -95,6 +96,24 @@ def load_line_section(up: Upright) -> dict | None:
             "deadweight_to_marks": ll.deadweight_to_marks}
 
 
+def grain_section(up: Upright, k: AtKG) -> dict | None:
+    """Grain Code A 7 quantities, with the allowable heeling moment at this Δ and KG."""
+    cargo, g = up.grain, k.state.grain
+    if cargo is None or g is None:
+        return None
+    delta = up.loading.totals.displacement
+    lam = allowable_lambda0_m(k.side_curve, up.angles.flooding.deg, up.angles.deck_edge.deg,
+                              k.gm_fluid_m)
+    allowable = None if lam is None else lam * delta
+    return {"stowage_factor": cargo.stowage_factor, "vhm": cargo.vhm,
+            "heeling_moment": cargo.heeling_moment, "lambda0": g.lambda0,
+            "lambda40": g.lambda40, "heel": g.heel_deg, "residual_area": g.residual_area,
+            "residual_to": g.residual_to_deg, "allowable_moment": allowable,
+            "heel_limit": g.heel_limit_deg, "residual_to_reason": g.residual_to_reason,
+            "moment_margin": None if allowable is None else allowable - cargo.heeling_moment,
+            "compartments": [asdict(x) for x in cargo.loads]}
+
+
 def criterion(c: Check) -> dict:
     return {"id": c.id, "title": c.title, "reference": c.reference, "required": c.required,
             "attained": c.attained, "unit": c.unit, "passed": c.passed, "margin": c.margin,
@@ -148,6 +167,7 @@ def results(up: Upright, k: AtKG, fsc: float) -> Results:
         "draught_marks": None if up.at_marks is None else marks_rules.marks_section(
             up.case.vessel.draught_marks.model_dump(), up.at_marks),
         "observed": None if up.survey is None else marks_rules.observed_section(up.survey),
+        "grain": grain_section(up, k),
         "criteria": [criterion(c) for c in k.checks],
         "passed": all(c.passed for c in k.checks),
         "warnings": list(up.warnings) + list(k.warnings),

@@ -123,7 +123,7 @@ class Line:
     (reportgen.freesurface reasons) or None; slack: whether the tank is slack.
     """
 
-    kind: Literal["lightship", "tank", "item"]
+    kind: Literal["lightship", "tank", "item", "grain"]
     id: str | None
     name: str
     content: str | None
@@ -200,6 +200,14 @@ def item_line(name: str, mass: float, lcg: float, vcg: float, tcg: float,
                 float(mass), float(lcg), float(vcg), float(tcg), 0.0, None)
 
 
+def grain_line(compartment_id: str, name: str, volume_m3: float, stowage_factor_m3_t: float,
+               mass: float, lcg: float, vcg: float) -> Line:
+    """A grain compartment's line: its bulk density 1/SF (t/m³), on the centreline, with no
+    free-surface moment (the grain's shift is the heeling arm of the Grain Code, A 7)."""
+    return Line("grain", compartment_id, name, "grain", None, None, None, float(volume_m3),
+                1.0 / stowage_factor_m3_t, float(mass), float(lcg), float(vcg), 0.0, 0.0, None)
+
+
 def tank_line(tank_id: str, name: str, content: str, role: str, density_t_m3: float,
               state: TankState, ullage: float | None, slack: bool, fsm: float,
               fs_basis: str | None) -> Line:
@@ -262,6 +270,12 @@ def condition_loading(vessel, condition, tank_tables: dict[str, TankTable]) -> L
         lines.append(tank_line(tank.id, tank.name, tank.content, tank.fs_role, density, state,
                                ullage, is_slack(state.percent, full),
                                c.fsm_tm if c else 0.0, c.reason if c else None))
+    from reportgen.grainload import grain_cargo
+
+    cargo = grain_cargo(vessel, condition)
+    for g in cargo.loads if cargo is not None else ():
+        lines.append(grain_line(g.id, g.name, g.volume, cargo.stowage_factor, g.mass, g.lcg,
+                                g.vcg))
     for it in condition.items:
         lines.append(item_line(it.name, it.mass, it.lcg, it.vcg, it.tcg))
     return Loading(tuple(lines), totals(lines), tuple(counted.values()),

@@ -16,7 +16,8 @@ from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_valid
 
 RESULTS_FORMAT = "reportgen/results-1"
 DECIMALS = 6  # every float in the document is rounded to this many decimals
-OPTIONAL_SECTIONS = ("weather", "load_line", "draught_marks", "observed")  # left out of the JSON when None
+OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "draught_marks",
+                     "observed")  # left out of the JSON when None
 
 
 def clean(value: Any) -> Any:
@@ -89,7 +90,7 @@ class VesselInfo(Section):
 
 
 class Line(Section):
-    kind: Literal["lightship", "tank", "item"]
+    kind: Literal["lightship", "tank", "item", "grain"]
     id: str | None
     name: str
     content: str | None
@@ -273,6 +274,34 @@ class Observed(Section):
     tolerance: F  # %
     within: bool
     density_stated: bool  # False: not given; the condition's water taken as the water alongside
+class GrainCompartment(Section):
+    id: str
+    name: str
+    state: Literal["trimmed", "untrimmed", "partly"]  # filled trimmed or untrimmed, or partly
+    volume: F  # m³
+    mass: F  # t
+    lcg: F  # m from AP
+    vcg: F  # m above base
+    vhm: F  # m⁴
+    heeling_moment: F  # t·m, VHM / SF
+
+
+class Grain(Section):
+    """Grain Code A 7 (SPEC.md grain.2008) and this project's extension keys."""
+
+    stowage_factor: F  # m³/t
+    vhm: F  # m⁴, Σ of the compartments
+    heeling_moment: F  # t·m, ΣVHM / SF
+    lambda0: F  # m, grain heeling arm at 0°: ΣVHM / (SF·Δ)
+    lambda40: F  # m, at 40°: 0.8·λ0
+    heel: OptF  # deg; None: GZ does not reach the heeling arm
+    residual_area: OptF  # m·rad, between GZ and the heeling arm (A 7.1.2)
+    residual_to: F  # deg, the end of the residual area
+    allowable_moment: OptF  # t·m; None: no grain heeling moment passes
+    heel_limit: F  # deg, min(12°, deck edge)
+    residual_to_reason: Literal["forty", "flooding", "max_difference"]
+    moment_margin: OptF  # t·m, allowable − actual
+    compartments: list[GrainCompartment]
 
 
 class Criterion(Section):
@@ -335,6 +364,7 @@ class Results(Section):
     load_line: LoadLine | None = None
     draught_marks: DraughtMarks | None = None
     observed: Observed | None = None
+    grain: Grain | None = None
     criteria: list[Criterion]
     passed: bool
     warnings: list[str] = Field(default_factory=list)

@@ -16,12 +16,14 @@ from scipy.interpolate import PPoly
 
 from reportgen import angles as angle_rules
 from reportgen import draughts as marks_rules
+from reportgen import grain as grain_rules
 from reportgen import plausible
 from reportgen.criteria import core, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
 from reportgen.errors import InputError
 from reportgen.floating import Floating, floating_on_tables
+from reportgen.grainload import GrainCargo, grain_cargo
 from reportgen.inputs import Case
 from reportgen.loading import Loading, condition_loading
 from reportgen.loadline import SALT_WATER_T_M3, LoadLine, load_line, summer_row
@@ -59,6 +61,7 @@ class Upright:
     cb_source: str
     load_line: LoadLine | None
     warnings: tuple[str, ...]
+    grain: GrainCargo | None = None  # grain in bulk (Grain Code), None without
     at_marks: dict[str, float] | None = None  # extreme draught at each mark, m
     survey: marks_rules.Survey | None = None  # the draughts read alongside, worked
 
@@ -229,11 +232,16 @@ def upright(case: Case, vd: VesselData) -> Upright:
                      f"profile, but gives no wind_area: its windage is not in the weather "
                      f"criterion (IS Code 2008 Part A 2.3); give wind_area and wind_z."
                      for name in bare]
+    cargo = grain_cargo(v, c)
+    if cargo is not None:
+        warnings += grain_rules.cargo_warnings(
+            "grain.2008" in sets, v.cross_curves.heel if v.cross_curves else None,
+            has_list(loading.totals.tcg))
     at_marks, survey = _marks(case, vd, loading, fl)
     if survey is not None:
         warnings += marks_rules.survey_warnings(survey, c.condition.water_density)
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
-                   tuple(warnings), at_marks=at_marks, survey=survey)
+                   tuple(warnings), cargo, at_marks=at_marks, survey=survey)
 
 
 def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
@@ -274,7 +282,14 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
         if a.theta_lw2 is not None and flooding < a.theta_lw2:
             warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below the first "
                             f"intercept of lw2 with GZ ({a.theta_lw2:.1f}°): area b is zero.")
-    state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx)
+    grain = None
+    if up.grain is not None:
+        grain = grain_rules.stability(
+            side_curve, grain_rules.lambda0_m(up.grain.heeling_moment,
+                                              up.loading.totals.displacement),
+            flooding, up.angles.deck_edge.deg)
+    state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx,
+                  grain)
     checks = core.run(up.sets, state)
     return AtKG(kg_fluid_m, gm, curve, side_curve, heel, state,
                 vanishing_angle(side_curve, gz_max_deg), wx, checks, tuple(warnings))

@@ -134,6 +134,14 @@ def render_summary(r: Results) -> str:
     con.print(f"  Deck edge {an.deck_edge:.1f}° ({an.deck_edge_source})   Flooding {flood}",
               markup=False)
     con.print(f"  Maximum GZ at {an.gz_max:.1f}°   Vanishing {vanish}")
+    if r.grain is not None:
+        g = r.grain
+        con.print("\nGrain in bulk (International Grain Code, A 7)")
+        con.print(f"  SF {g.stowage_factor:.3f} m³/t   ΣVHM {g.vhm:.1f} m⁴   heeling moment "
+                  f"{g.heeling_moment:.1f} t·m   λ0 {g.lambda0:.4f} m   λ40 {g.lambda40:.4f} m")
+        allow = ("none" if g.allowable_moment is None else
+                 f"{g.allowable_moment:.1f} t·m (margin {g.moment_margin:+.1f} t·m)")
+        con.print(f"  Allowable grain heeling moment at this displacement and KG: {allow}")
     con.print("\nCriteria")
     con.print(_criteria_table(r))
     con.print(CAUTION)

@@ -38,6 +38,12 @@ SPEC_CRITERIA = {  # SPEC.md "Criteria": id -> (required, unit)
     "area_30_40": (0.030, "m·rad"), "gz_30": (0.20, "m"), "gz_max_angle": (25.0, "deg"),
     "gm0": (0.15, "m"), "weather_heel": (None, "deg"), "weather_area": (None, "m·rad"),
 }
+SPEC_GRAIN_CRITERIA = {  # SPEC.md "Cargo and ship-type criteria", grain.2008 (Grain Code A 7)
+    "grain_heel": (None, "deg"), "grain_residual_area": (0.075, "m·rad"),
+    "grain_gm0": (0.30, "m"),
+}
+SPEC_GRAIN_KEYS = ["stowage_factor", "vhm", "heeling_moment", "lambda0", "lambda40", "heel",
+                   "residual_area", "residual_to", "allowable_moment"]
 
 
 def _json(path: Path) -> tuple[int, dict]:
@@ -75,11 +81,14 @@ def test_document_has_every_key_of_spec(documents, path):
     assert np.all(np.diff(heel) > 0)
     # SPEC.md: criteria ids, required values and units of IS Code 2008 Part A 2.2 and 2.3.
     by_id = {c["id"]: c for c in doc["criteria"]}
-    assert set(by_id) == set(SPEC_CRITERIA)
-    for cid, (required, unit) in SPEC_CRITERIA.items():
+    grain = "grain.2008" in {c["set"] for c in doc["criteria"]}
+    expected = dict(SPEC_CRITERIA, **(SPEC_GRAIN_CRITERIA if grain else {}))
+    assert set(by_id) == set(expected)
+    for cid, (required, unit) in expected.items():
         c = by_id[cid]
         assert c["unit"] == unit and isinstance(c["passed"], bool) and c["title"]
-        assert c["reference"].startswith("IS Code 2008")
+        assert c["reference"].startswith("IS Code 2008" if cid in SPEC_CRITERIA
+                                         else "International Grain Code (MSC.23(59)), A 7.1")
         if required is not None:
             assert c["required"] == pytest.approx(required)
     # weather_heel: required = min(16 deg, 0.8 x deck edge angle) (IS Code 2008 2.3.1.2).
@@ -89,6 +98,8 @@ def test_document_has_every_key_of_spec(documents, path):
     assert by_id["weather_area"]["required"] == doc["weather"]["area_a"]
     assert by_id["weather_area"]["attained"] == doc["weather"]["area_b"]
     assert doc["weather"]["wind_pressure"] == 504
+    if grain:  # SPEC.md: the results' grain keys
+        assert all(key in doc["grain"] for key in SPEC_GRAIN_KEYS)
     # passed is the conjunction of the criteria; the exit status follows it (SPEC.md).
     assert doc["passed"] == all(c["passed"] for c in doc["criteria"])
     assert code == (0 if doc["passed"] else 1)

@@ -57,7 +57,8 @@ class State:
     the curve the criteria may credit (θf when GZ beyond flooding is excluded, else the end of
     the table); gz_max_deg: the angle of the greatest GZ on that credited range; gm_fluid_m:
     initial GM corrected for free surface; flooding_deg, deck_edge_deg: the angles at the
-    condition's state; weather: the 2.3 quantities, None when no selected set needs them.
+    condition's state; weather: the 2.3 quantities, None when no selected set needs them;
+    grain: the Grain Code A 7 quantities, None without grain on board.
     """
 
     curve: GZCurve
@@ -67,6 +68,7 @@ class State:
     flooding_deg: float
     deck_edge_deg: float
     weather: Any = None  # reportgen.criteria.weather.Weather, when the set needs it
+    grain: Any = None  # reportgen.grain.GrainStability, with grain on board
 
 
 def needs(set_ids: list[str]) -> frozenset[str]:

@@ -25,4 +25,8 @@ SETS: dict[str, SetInfo] = {
         "reportgen.criteria.weather",
         "IMO 2008 IS Code (MSC.267(85)), Part A, 2.3: severe wind and rolling criterion",
         frozenset({"weather"})),
+    "grain.2008": SetInfo(
+        "reportgen.criteria.grain",
+        "International Grain Code (MSC.23(59)), A 7: intact stability of ships carrying grain "
+        "in bulk, with the grain assumed to shift"),
 }

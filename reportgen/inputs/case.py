@@ -12,6 +12,7 @@ from reportgen.errors import InputError
 from reportgen.files import read_input
 from reportgen.inputs import yamlread
 from reportgen.inputs.condition import Condition
+from reportgen.inputs.grain import check_grain
 from reportgen.inputs.tablecheck import table_problems
 from reportgen.inputs.vessel import Vessel
 
@@ -129,6 +130,7 @@ def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_n
     _check_fillings(cond, vessel, cond_label, cond_raw)
     _check_criteria(cond, vessel, cond_label, cond_raw)
     _check_observed(cond, vessel, cond_label, cond_raw)
+    check_grain(cond, vessel, cond_label, cond_raw)
     return Case(cond, vessel, cond_raw, vessel_raw, cond_name, vessel_name, approval)
 
 

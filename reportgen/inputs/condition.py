@@ -20,6 +20,7 @@ from reportgen.inputs.fields import (
     Text,
     WaterDensity,
 )
+from reportgen.inputs.grain import ConditionGrain
 from reportgen.inputs.vessel import known_sets
 
 CONDITION_FORMAT = "reportgen/condition-1"
@@ -130,4 +131,5 @@ class Condition(Model):
     weather: Weather | None = None
     signatories: Signatories | None = None
     observed: Observed | None = None  # draughts read alongside (needs the vessel's marks)
+    grain: ConditionGrain | None = None  # grain in bulk (SPEC grain.2008)
     notes: Any = None

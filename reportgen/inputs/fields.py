@@ -24,15 +24,9 @@ def _strictly_increasing(values: list[float]) -> list[float]:
     return values
 
 
-def _finite(value: float) -> float:
-    if not np.isfinite(value):
-        raise ValueError("must be a finite number")
-    return value
-
-
-Num = Annotated[float, AfterValidator(_finite)]
-Positive = Annotated[float, Field(gt=0), AfterValidator(_finite)]
-NonNegative = Annotated[float, Field(ge=0), AfterValidator(_finite)]
+Num = Annotated[float, Field(allow_inf_nan=False)]  # finite (checked inside pydantic's core)
+Positive = Annotated[float, Field(gt=0, allow_inf_nan=False)]
+NonNegative = Annotated[float, Field(ge=0, allow_inf_nan=False)]
 Density = Annotated[float, Field(ge=0.5, le=2.5)]  # t/m³, any liquid a ship carries
 WaterDensity = Annotated[float, Field(ge=0.99, le=1.05)]  # t/m³, fresh to dense sea water
 Percent = Annotated[float, Field(ge=0, le=100)]

@@ -9,7 +9,8 @@ The bounds are physical, not statistical, so that no real ship is refused:
 - Δ at a draught T (the deepest, midships + |trim|/2, in a trimmed row) is at most ρ·L·B·T for a hull inside the box L × B × T (a block coefficient
   not above 1), L the table's waterline length where it gives one, else the length including
   overhangs of OVERHANG_FRACTION·Lpp beyond each perpendicular (our bound).
-- LCB and LCF lie within that length.
+- LCB and LCF lie within that length; so do the centres of the grain compartments, which lie
+  above the base.
 Units: m, t, t/m³.
 """
 
@@ -73,4 +74,14 @@ def table_problems(v: Vessel) -> list[str]:
         i = _first_bad(np.abs(kn[:, :, 0]).max(axis=0) > KN_AT_ZERO_TOLERANCE_M)
         if i is not None:
             problems.append(f"cross_curves.kn row {i + 1}: KN at heel 0° must be 0")
+    for comp in v.grain.compartments if v.grain is not None else []:
+        rows = [(comp.filled.lcg, comp.filled.vcg)]
+        if comp.partly is not None:
+            rows += list(zip(comp.partly.lcg, comp.partly.vcg, strict=True))
+        for lcg, vcg in rows:
+            if not x_lo <= lcg <= x_hi or vcg < 0.0:
+                problems.append(f"grain compartment {comp.id}: centre (lcg {lcg:g}, vcg "
+                                f"{vcg:g}) m lies outside the ship ({x_lo:g} to {x_hi:g} m "
+                                f"from the AP, above the base)")
+                break
     return problems

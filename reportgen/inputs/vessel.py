@@ -27,6 +27,7 @@ from reportgen.inputs.fields import (
     equal_lengths,
     increasing,
 )
+from reportgen.inputs.grain import VesselGrain
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -322,6 +323,7 @@ class Vessel(Model):
     calculation: Calculation = Calculation()
     hull: HullOffsets | None = None
     draught_marks: DraughtMarks | None = None  # x of the marks, m from AP
+    grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
     notes: Any = None
 
     @model_validator(mode="after")

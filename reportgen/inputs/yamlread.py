@@ -11,6 +11,7 @@ of digits). Line numbers of every key are worked out only when there is an error
 from __future__ import annotations
 
 import datetime as dt
+import re
 from typing import Any
 
 import yaml
@@ -47,6 +48,11 @@ class _Loader(_Base):  # type: ignore[misc, valid-type]
                                f"(refused: a file that grows when read)", node)
             return self.constructed_objects[node]
         self._expanded += 1
+        numbers = _plain_numbers(node)
+        if numbers is not None:  # a row of a table: built at once (the bulk of a vessel file)
+            self._expanded += len(numbers)
+            self.constructed_objects[node] = numbers
+            return numbers
         self._depth += 1
         try:
             if self._depth > MAX_DEPTH:
@@ -55,7 +61,7 @@ class _Loader(_Base):  # type: ignore[misc, valid-type]
         except (_Refused, InputError):
             raise
         except (ValueError, OverflowError, TypeError) as exc:
-            raise _Refused(f"cannot read this value: {exc}", node) from None
+            raise _Refused(_unreadable(node, exc), node) from None
         finally:
             self._depth -= 1
 
@@ -94,6 +100,42 @@ def _size(node: yaml.Node, memo: dict[int, int]) -> int:
     return total
 
 
+_FLOAT_TAG = "tag:yaml.org,2002:float"
+_INT_TAG = "tag:yaml.org,2002:int"
+_PLAIN_DECIMAL = re.compile(r"-?[0-9]+(\.[0-9]*)?([eE][-+]?[0-9]+)?")
+
+
+def _plain_numbers(node: yaml.Node) -> list | None:
+    """The numbers of a sequence of plain decimal scalars (what the safe constructor would
+    make of them: int for an int-tagged integer, float otherwise), or None when the sequence
+    holds anything else (left to the full constructor)."""
+    if not isinstance(node, yaml.SequenceNode) or not node.value:
+        return None
+    out = []
+    for child in node.value:
+        if not isinstance(child, yaml.ScalarNode) or child.style is not None:
+            return None
+        tag, value = child.tag, child.value
+        if tag == _FLOAT_TAG and _PLAIN_DECIMAL.fullmatch(value) and "." in value:
+            out.append(float(value))
+        elif tag == _INT_TAG and value.lstrip("-").isdigit() and len(value) < 20 and (
+                value.lstrip("-")[:1] != "0" or value.lstrip("-") == "0"):
+            out.append(int(value))
+        else:
+            return None
+    return out
+
+
+def _unreadable(node: yaml.Node, exc: Exception) -> str:
+    """Why a scalar could not be built, in the user's terms."""
+    text = str(node.value)[:40] + ("..." if len(str(node.value)) > 40 else "")
+    if node.tag.endswith(":timestamp"):
+        return f"{text!r} is not a date that exists (ISO 8601, YYYY-MM-DD)"
+    if node.tag.endswith((":int", ":float")):
+        return f"{text!r} is not a number reportgen can read ({len(str(node.value))} characters)"
+    return f"cannot read this value: {exc}"
+
+
 def decode(raw: bytes, name: str) -> str:
     """UTF-8 text of a file (a leading byte-order mark allowed)."""
     try:
@@ -110,15 +152,21 @@ def parse(raw: bytes, name: str) -> Any:
     """The data of a YAML file (one document); InputError naming the file and line."""
     text = decode(raw, name)
     loader = _Loader(text)
+    node = None
     try:
         node = loader.get_single_node()
         return loader.construct_document(node) if node is not None else None
     except _Refused as exc:
+        path = _path_to(node, exc.node) if node is not None else None
+        if path:
+            lines: dict[tuple, int] = {}
+            _walk(node, (), lines, set())
+            raise InputError(f"{name}: {where(path, lines)}: {exc}") from None
         raise InputError(f"{name}: {exc}{_line(exc.node)}") from None
     except yaml.MarkedYAMLError as exc:
         mark = exc.problem_mark or exc.context_mark
-        where = f" (line {mark.line + 1}, column {mark.column + 1})" if mark else ""
-        raise InputError(f"{name}: not valid YAML{where}: {exc.problem or exc}") from None
+        at = f" (line {mark.line + 1}, column {mark.column + 1})" if mark else ""
+        raise InputError(f"{name}: not valid YAML{at}: {exc.problem or exc}") from None
     except yaml.YAMLError as exc:
         raise InputError(f"{name}: not valid YAML: {exc}") from None
     except RecursionError:
@@ -155,6 +203,24 @@ def _walk(node: yaml.Node, path: tuple, lines: dict[tuple, int], seen: set[int])
     elif isinstance(node, yaml.SequenceNode):
         for i, item in enumerate(node.value):
             _walk(item, (*path, i), lines, seen)
+
+
+def _path_to(root: yaml.Node, target: yaml.Node | None) -> tuple | None:
+    """The key path of `target` inside the node tree `root` (None when it is not a value)."""
+    stack: list[tuple[yaml.Node, tuple]] = [(root, ())]
+    seen: set[int] = set()
+    while stack:
+        node, path = stack.pop()
+        if node is target:
+            return path
+        if id(node) in seen:
+            continue
+        seen.add(id(node))
+        if isinstance(node, yaml.MappingNode):
+            stack += [(v, (*path, k.value)) for k, v in node.value]
+        elif isinstance(node, yaml.SequenceNode):
+            stack += [(v, (*path, i)) for i, v in enumerate(node.value)]
+    return None
 
 
 def where(path: tuple, lines: dict[tuple, int]) -> str:

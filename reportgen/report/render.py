@@ -39,6 +39,7 @@ from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
 from reportgen.report.figures import gz_figure_svg, weather_figure_svg
+from reportgen.report.grainfigure import grain_figure_svg
 from reportgen.results import Results
 from reportgen.stability import curve_towards_side
 
@@ -190,6 +191,8 @@ def sheet_html(case: Any, results: Results) -> str:
         gz_figure=_svg_data_uri(gz_figure_svg(results, figure_labels)),
         weather_figure=(_svg_data_uri(weather_figure_svg(results, figure_labels))
                         if results.weather is not None else None),
+        grain_figure=(_svg_data_uri(grain_figure_svg(results, figure_labels))
+                      if results.grain is not None else None),
         roles=ROLES,
         approval=approval_of(case),
     )

@@ -1,0 +1,32 @@
+"""The reader's fast path for rows of numbers builds exactly what PyYAML's safe loader (the
+reference) builds, for any row a table can hold and for the values it must leave alone."""
+
+from __future__ import annotations
+
+import yaml
+from conftest import ROOT
+from hypothesis import given
+from hypothesis import strategies as st
+
+from reportgen.inputs import yamlread
+
+numbers = st.one_of(st.integers(-10**12, 10**12),
+                    st.floats(allow_nan=False, allow_infinity=False, width=64))
+
+
+@given(st.lists(numbers, min_size=1, max_size=12))
+def test_rows_of_numbers_read_as_the_safe_loader_reads_them(row):
+    text = f"row: [{', '.join(repr(v) for v in row)}]\n"
+    assert yamlread.parse(text.encode(), "t") == yaml.safe_load(text)
+
+
+def test_values_that_are_not_plain_decimals_are_left_to_the_full_constructor():
+    text = ("a: [1_000, 0x1F, 017, .inf, -.nan, 1:30, '2.5', 2.5, 1e3, 1.0e3, 007, -0, yes]\n")
+    got, ref = yamlread.parse(text.encode(), "t")["a"], yaml.safe_load(text)["a"]
+    assert [repr(v) for v in got] == [repr(v) for v in ref]
+
+
+def test_the_demo_files_read_as_the_safe_loader_reads_them():
+    for path in sorted((ROOT / "conditions").rglob("*.yaml")):
+        raw = path.read_bytes()
+        assert yamlread.parse(raw, path.name) == yaml.safe_load(raw), path.name
