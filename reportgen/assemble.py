@@ -147,8 +147,9 @@ def assumptions_section(up: Upright) -> dict:
     }
 
 
-def results(up: Upright, k: AtKG, fsc: float) -> Results:
-    """The Results of a condition from its upright stage and its stage at its own KG."""
+def results(up: Upright, k: AtKG, fsc: float, limits: dict | None = None) -> Results:
+    """The Results of a condition from its upright stage and its stage at its own KG (and
+    its KG margin, reportgen.limits.condition_limits)."""
     case = up.case
     heel, gz, kn = gz_grid(k.curve)
     cond_file, vessel_file = attachment_names(case.condition_name, case.vessel_name)
@@ -168,6 +169,7 @@ def results(up: Upright, k: AtKG, fsc: float) -> Results:
             up.case.vessel.draught_marks.model_dump(), up.at_marks),
         "observed": None if up.survey is None else marks_rules.observed_section(up.survey),
         "grain": grain_section(up, k),
+        "limits": limits,
         "criteria": [criterion(c) for c in k.checks],
         "passed": all(c.passed for c in k.checks),
         "warnings": list(up.warnings) + list(k.warnings),

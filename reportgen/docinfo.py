@@ -12,3 +12,6 @@ DOCNO_LENGTH = 12  # hex digits of inputs_sha256 that make the document number
 def document_number(inputs_sha256: str) -> str:
     """The document number: the first DOCNO_LENGTH hex digits of the inputs' SHA-256."""
     return inputs_sha256[:DOCNO_LENGTH]
+LIMITS_NAME = "limits.json"  # the embedded limits document (reportgen/limits-1)
+LIMITS_FORMAT = "reportgen/limits-1"
+LIMITS_REQUEST_NAME = "limits-request.json"  # the request (trim) hashed with the vessel bytes

@@ -7,7 +7,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from reportgen import assemble, stages
+from reportgen import assemble, limits, stages
 from reportgen.errors import InputError
 from reportgen.inputs import Case, load_case
 from reportgen.results import Results
@@ -23,7 +23,8 @@ def evaluate(case: Case, data: VesselData | None = None) -> Results:
     try:
         up = stages.upright(case, data if data is not None else vessel_data(case.vessel))
         fsc, kg_fluid = stages.kg_fluid_of(up)
-        return assemble.results(up, stages.at_kg(up, kg_fluid), fsc)
+        k = stages.at_kg(up, kg_fluid)
+        return assemble.results(up, k, fsc, limits.condition_limits(up, k))
     except InputError as exc:
         raise InputError(f"{case.condition_name} (vessel {case.vessel_name}): {exc}") from None
 

@@ -16,7 +16,7 @@ from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_valid
 
 RESULTS_FORMAT = "reportgen/results-1"
 DECIMALS = 6  # every float in the document is rounded to this many decimals
-OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "draught_marks",
+OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "draught_marks",
                      "observed")  # left out of the JSON when None
 
 
@@ -304,6 +304,18 @@ class Grain(Section):
     compartments: list[GrainCompartment]
 
 
+class Limits(Section):
+    """SPEC.md "Limits": the condition's KG margin (m) and the criterion that governs it."""
+
+    kg_max: OptF  # m, largest KG corrected at which every criterion passes; None: none ≥ 0
+    kg_margin: OptF  # m, kg_max − kg_fluid (negative: KG must come down by that much)
+    gm_min: OptF  # m, kmt − kg_max
+    governing: str | None  # id of the criterion that fails just above kg_max
+    governing_title: str | None
+    governing_reference: str | None
+    tolerance: F  # m, the search's resolution
+
+
 class Criterion(Section):
     id: str
     title: str
@@ -365,6 +377,7 @@ class Results(Section):
     draught_marks: DraughtMarks | None = None
     observed: Observed | None = None
     grain: Grain | None = None
+    limits: Limits | None = None
     criteria: list[Criterion]
     passed: bool
     warnings: list[str] = Field(default_factory=list)

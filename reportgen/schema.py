@@ -26,6 +26,7 @@ FORMATS: dict[str, tuple[str, str, str]] = {
     "vessel": ("reportgen.inputs.vessel:Vessel", "reportgen/vessel-1", "validation"),
     "condition": ("reportgen.inputs.condition:Condition", "reportgen/condition-1", "validation"),
     "results": ("reportgen.results:Results", "reportgen/results-1", "validation"),
+    "limits": ("reportgen.limitsmodel:LimitsDocument", "reportgen/limits-1", "validation"),
 }
 
 

@@ -18,7 +18,7 @@ from reportgen import angles as angle_rules
 from reportgen import draughts as marks_rules
 from reportgen import grain as grain_rules
 from reportgen import plausible
-from reportgen.criteria import core, rolling
+from reportgen.criteria import booklet, core, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
 from reportgen.errors import InputError
@@ -288,9 +288,11 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
             side_curve, grain_rules.lambda0_m(up.grain.heeling_moment,
                                               up.loading.totals.displacement),
             flooding, up.angles.deck_edge.deg)
+    curve_b = booklet.curve_of(up.case.vessel) if "booklet" in core.needs(up.sets) else None
     state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx,
-                  grain)
+                  grain, kg_fluid_m, up.loading.totals.displacement, curve_b)
     checks = core.run(up.sets, state)
+    warnings += booklet.warnings(state)
     return AtKG(kg_fluid_m, gm, curve, side_curve, heel, state,
                 vanishing_angle(side_curve, gz_max_deg), wx, checks, tuple(warnings))
 

@@ -82,6 +82,21 @@ def _observed_lines(r: Results) -> list[str]:
     return lines
 
 
+def margin_text(r: Results) -> str:
+    """The KG margin in words (results `limits`, SPEC.md "Limits")."""
+    m = r.limits
+    named = f"{m.governing_title} ({m.governing_reference})"
+    if m.kg_max is None:
+        return f"KG margin: no KG of 0 m or more meets every criterion; {named} fails at KG 0."
+    if m.governing is None:
+        return f"KG margin: every criterion passes for any KG up to {m.kg_max:.3f} m."
+    if m.kg_margin >= 0:
+        return (f"KG margin: KG may rise by {m.kg_margin:.3f} m (to {m.kg_max:.3f} m, GM "
+                f"{m.gm_min:.3f} m) before {named} fails.")
+    return (f"KG margin: KG must come down by {-m.kg_margin:.3f} m (to {m.kg_max:.3f} m, GM "
+            f"{m.gm_min:.3f} m) before every criterion passes; above it {named} fails.")
+
+
 def render_summary(r: Results) -> str:
     """Plain text: condition, verdict with its warnings, loading totals, draughts, GM, angles,
     every criterion with required, attained, margin and PASS/FAIL, and the caution."""
@@ -98,6 +113,8 @@ def render_summary(r: Results) -> str:
     verdict = ("PASS: every criterion is met" if r.passed else
                "FAIL: " + ", ".join(c.id for c in r.criteria if not c.passed) + " not met")
     con.print(f"\nResult: {verdict}", markup=False)
+    if r.limits is not None:
+        con.print(margin_text(r), markup=False)
     for w in r.warnings:
         con.print(f"  ! {w}", markup=False)
     con.print("\nLoading")

@@ -85,6 +85,12 @@ class VesselData:
 
 
 def make_vessel_data(vessel: Vessel) -> VesselData:
+    untabled = [t.id for t in vessel.tanks if t.table is None]
+    if untabled:  # a tank given by geometry alone: `reportgen tables` makes its table
+        from reportgen.errors import InputError
+
+        raise InputError(f"tanks {', '.join(untabled)} have a geometry but no table; make the "
+                         f"tables first with 'reportgen tables'")
     tanks = {t.id: TankTable.from_columns(t.table.sounding, t.table.volume, t.table.lcg,
                                           t.table.vcg, t.table.tcg, t.table.fsi)
              for t in vessel.tanks}

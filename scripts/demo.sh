@@ -17,6 +17,16 @@ else
   echo "   WARNING: the tables differ from the committed $ship"; exit 1
 fi
 
+echo "== Setting up a ship from a mesh (conditions/setup-example: the README's walk-through)"
+ex=conditions/setup-example
+$RG hull-from-mesh $ex/tern-hull.obj --vessel $ex/tern-head.yaml -o out/tern-hull.yaml --force \
+    2>/dev/null || exit 1
+$RG tables out/tern-hull.yaml -o out/tern.yaml --force 2>/dev/null || exit 1
+$RG show out/tern.yaml > out/tern-show.txt || exit 1
+$RG new out/tern.yaml -o out/tern-new-condition.yaml --force 2>/dev/null || exit 1
+$RG check out/tern-new-condition.yaml > out/tern-new-condition.txt; [[ $? -le 1 ]] || exit 1
+echo "   out/tern.yaml (offsets, tables, tank tables), out/tern-show.txt, out/tern-new-condition.yaml"
+
 echo "== Check of each demo condition"
 for c in conditions/*.yaml; do
   name=$(basename "$c" .yaml)
@@ -79,3 +89,19 @@ for c in out/work/*.yaml; do
 done
 $RG verify out/*.signed.pdf "${trust[@]}" | sed 's/^/   /'
 echo "   (full reports: out/*.verify.txt)"
+
+echo "== KG margin of each demo condition (from its check summary)"
+for c in conditions/*.yaml; do
+  name=$(basename "$c" .yaml)
+  printf '   %-40s %s\n' "$name" "$(grep -m1 '^KG margin' "out/$name.txt" | sed 's/^KG margin: //')"
+done
+
+echo "== Limiting KG curve of the demo ship (signed by the demo design office, verified)"
+$RG limits "$ship" > out/limits.txt || exit 1
+$RG limits "$ship" -o out/limits.pdf --force 2>/dev/null || exit 1
+rm -f out/limits-signed.pdf
+$RG sign out/limits.pdf --role prepared --key out/ids/design-office/key.pem \
+    --cert out/ids/design-office/cert.pem -o out/limits-signed.pdf 2>/dev/null || exit 1
+$RG verify out/limits-signed.pdf --trust out/ids/design-office/cert.pem > out/limits.verify.txt \
+  || { echo "   out/limits-signed.pdf: VERIFICATION FAILED (see out/limits.verify.txt)"; exit 1; }
+echo "   out/limits.txt, out/limits.pdf, out/limits-signed.pdf (verified: out/limits.verify.txt)"

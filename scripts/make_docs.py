@@ -29,6 +29,8 @@ INTRO = {
                  "signatories.",
     "results": "The results document that `check --json` prints and every sheet embeds as "
                "results.json.",
+    "limits": "The limiting KG / minimum GM curve that `limits --json` prints and every limits "
+              "document embeds as limits.json.",
 }
 
 

@@ -31,6 +31,9 @@ def tables(vessel: Path, output: Path, even_keel: bool, force: bool) -> None:
     model = load_vessel(vessel)
     if model.hull is None:
         raise InputError(f"{vessel}: hull: no offsets to make tables from")
+    from reportgen.cli.shipdata import tank_tables_of, with_tank_tables  # tanks by geometry
+
+    tanks_made = tank_tables_of(model, vessel)
     with Progress(transient=True, disable=not sys.stderr.isatty()) as bar:
         task = bar.add_task("hull tables", total=None)
 
@@ -39,6 +42,7 @@ def tables(vessel: Path, output: Path, even_keel: bool, force: bool) -> None:
 
         made = build_tables(model, even_keel=even_keel, progress=progress)
     text = vessel_text_with_tables(vessel.read_text(encoding="utf-8"), made)
+    text = with_tank_tables(text, model, tanks_made)
     write_atomic(output, text.encode("utf-8"), force=force)
     hydro, cross = made["hydrostatics"], made["cross_curves"]
     click.echo(

@@ -58,7 +58,9 @@ class State:
     the table); gz_max_deg: the angle of the greatest GZ on that credited range; gm_fluid_m:
     initial GM corrected for free surface; flooding_deg, deck_edge_deg: the angles at the
     condition's state; weather: the 2.3 quantities, None when no selected set needs them;
-    grain: the Grain Code A 7 quantities, None without grain on board.
+    grain: the Grain Code A 7 quantities, None without grain on board;
+    kg_fluid_m: KG corrected; displacement_t: the condition's displacement; booklet: the
+    booklet's limiting curve, when a selected set needs it.
     """
 
     curve: GZCurve
@@ -69,6 +71,9 @@ class State:
     deck_edge_deg: float
     weather: Any = None  # reportgen.criteria.weather.Weather, when the set needs it
     grain: Any = None  # reportgen.grain.GrainStability, with grain on board
+    kg_fluid_m: float | None = None  # m
+    displacement_t: float | None = None  # t
+    booklet: Any = None  # reportgen.criteria.booklet.Curve, when a set needs it
 
 
 def needs(set_ids: list[str]) -> frozenset[str]:

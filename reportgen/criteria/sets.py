@@ -29,4 +29,9 @@ SETS: dict[str, SetInfo] = {
         "reportgen.criteria.grain",
         "International Grain Code (MSC.23(59)), A 7: intact stability of ships carrying grain "
         "in bulk, with the grain assumed to shift"),
+    "booklet.limits": SetInfo(
+        "reportgen.criteria.booklet",
+        "The approved stability booklet's limiting KG (or minimum GM) curve, as the vessel "
+        "file gives it",
+        frozenset({"booklet"})),
 }

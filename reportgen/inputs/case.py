@@ -127,6 +127,10 @@ def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_n
         raise InputError(f"{vessel_label}: no hydrostatics and cross_curves; make them from the "
                          f"hull offsets first with 'reportgen tables', or choose "
                          f"calculation.method: hull")
+    untabled = [t.id for t in vessel.tanks if t.table is None]
+    if untabled:
+        raise InputError(f"{vessel_label}: tanks {', '.join(untabled)} have a geometry but no "
+                         f"table; make the tables first with 'reportgen tables'")
     _check_fillings(cond, vessel, cond_label, cond_raw)
     _check_criteria(cond, vessel, cond_label, cond_raw)
     _check_observed(cond, vessel, cond_label, cond_raw)

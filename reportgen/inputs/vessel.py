@@ -13,6 +13,7 @@ from pydantic import AfterValidator, Field, model_validator
 from shapely.geometry import Polygon
 
 from reportgen.criteria.sets import SETS
+from reportgen.inputs.booklet import LimitingCurve
 from reportgen.inputs.fields import (
     Column,
     Density,
@@ -28,6 +29,7 @@ from reportgen.inputs.fields import (
     increasing,
 )
 from reportgen.inputs.grain import VesselGrain
+from reportgen.inputs.marks import DraughtMarks, check_marks
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -221,6 +223,23 @@ def default_role(content: str) -> Literal["fixed", "consumable"]:
     return "fixed" if content.strip().lower() in ("ballast", "cargo") else "consumable"
 
 
+def _extent(values: list[float]) -> list[float]:
+    if len(values) != 2 or not values[0] < values[1]:
+        raise ValueError("give [from, to] with from < to (m)")
+    return values
+
+
+Extent = Annotated[list[Num], AfterValidator(_extent)]
+
+
+class TankGeometry(Model):
+    """A tank as a box (m, SPEC axes) clipped by the hull: `reportgen tables` makes its table."""
+
+    x: Extent  # m from AP
+    y: Extent  # m from the centreline, + starboard
+    z: Extent  # m above base
+
+
 class Tank(Model):
     id: Text
     name: Text
@@ -228,8 +247,15 @@ class Tank(Model):
     role: Literal["fixed", "consumable"] | None = None  # default by content (default_role)
     pair: Text | None = None  # id of its transverse twin (Part B 3.1.4), given on both
     density: Density  # t/m³
-    table: TankTable
+    geometry: TankGeometry | None = None  # the box its table is made from (`tables`)
+    table: TankTable | None = None  # required unless geometry is given
     ullage_reference: Positive | None = None  # m above the sounding zero
+
+    @model_validator(mode="after")
+    def _table_or_geometry(self) -> Tank:
+        if self.table is None and self.geometry is None:
+            raise ValueError("give the tank's table, or its geometry for `reportgen tables`")
+        return self
 
     @property
     def fs_role(self) -> Literal["fixed", "consumable"]:
@@ -261,20 +287,6 @@ class HullOffsets(Model):
         if len(self.stations) < 3:
             raise ValueError("needs at least three stations")
         increasing([s.x for s in self.stations])
-        return self
-
-
-class DraughtMarks(Model):
-    """x of the draught marks, m from AP (SPEC.md); they read extreme draughts."""
-
-    aft: Num
-    mid: Num
-    fore: Num
-
-    @model_validator(mode="after")
-    def _order(self) -> DraughtMarks:
-        if not self.aft < self.mid < self.fore:
-            raise ValueError("the marks must lie aft < mid < fore (x from AP, m)")
         return self
 
 
@@ -321,6 +333,8 @@ class Vessel(Model):
     permitted_criteria: Annotated[list[str], AfterValidator(known_sets)] = Field(
         default_factory=list)
     calculation: Calculation = Calculation()
+    limiting_kg: LimitingCurve | None = None  # the booklet's curve (criteria set booklet.limits)
+    limiting_gm: LimitingCurve | None = None  # the same as a minimum GM curve (gm:)
     hull: HullOffsets | None = None
     draught_marks: DraughtMarks | None = None  # x of the marks, m from AP
     grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
@@ -339,10 +353,11 @@ class Vessel(Model):
                              "offsets, and this file has none; give hull offsets (hull:) or the "
                              "booklet's flooding_angle table (no approximation of θf is safe "
                              "enough to print)")
-        marks, lpp = self.draught_marks, self.particulars.length_bp
-        if marks is not None and not (-0.05 * lpp <= marks.aft and marks.fore <= 1.05 * lpp):
-            raise ValueError(f"draught_marks: the marks must lie on the ship, x from "
-                             f"{-0.05 * lpp:g} to {1.05 * lpp:g} m (−0.05·Lpp to 1.05·Lpp)")
+        check_marks(self.draught_marks, self.particulars.length_bp)
+        self._booklet_curve()
+        if self.hull is None and any(t.table is None for t in self.tanks):
+            raise ValueError("tanks: a tank given by geometry alone needs hull offsets to make "
+                             "its table from")
         ids = [t.id for t in self.tanks]
         dup = sorted({i for i in ids if ids.count(i) > 1})
         if dup:
@@ -358,6 +373,16 @@ class Vessel(Model):
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
         return self
+
+    def _booklet_curve(self) -> None:
+        if self.limiting_kg is not None and self.limiting_gm is not None:
+            raise ValueError("give limiting_kg or limiting_gm, not both")
+        if self.limiting_gm is not None and self.limiting_gm.gm is None:
+            raise ValueError("limiting_gm: give the minimum GM as gm")
+        wanted = "booklet.limits" in list(self.criteria) + list(self.permitted_criteria)
+        if wanted and self.limiting_kg is None and self.limiting_gm is None:
+            raise ValueError("criteria booklet.limits needs the booklet's curve: limiting_kg "
+                             "(or limiting_gm)")
 
     @property
     def has_tables(self) -> bool:

@@ -12,6 +12,7 @@ from __future__ import annotations
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass
 from functools import lru_cache
+from importlib import import_module
 from typing import Any
 
 from reportgen.docinfo import RESULTS_NAME
@@ -127,8 +128,13 @@ def register(kind: Kind) -> None:
     KINDS[kind.name] = kind
 
 
+KIND_MODULES = ("reportgen.signing.limitskind",)  # each registers its Kind when imported
+
+
 def kind_of(files: Mapping[str, bytes]) -> list[Kind]:
     """The kinds whose data document is embedded among ``files``."""
+    for module in KIND_MODULES:
+        import_module(module)
     return [k for k in KINDS.values() if k.data_file in files]
 
 

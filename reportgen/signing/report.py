@@ -28,7 +28,10 @@ def _yes(flag: object) -> Text:
 
 
 def verdict_words(certified: dict) -> str:
-    """'passes every criterion' or 'FAILS: id (reference), ...'."""
+    """'passes every criterion' or 'FAILS: id (reference), ...'; a document without a verdict
+    (a limits document) states what it is instead."""
+    if certified.get("statement"):
+        return str(certified["statement"])
     if certified.get("passed"):
         return "passes every criterion"
     failing = certified.get("failing_criteria") or []

@@ -1,0 +1,87 @@
+"""The limits document: limits-1 -> HTML (templates/limits.html.j2) -> PDF/A-3b (WeasyPrint).
+
+Made like the calculation sheet (reportgen.report.render): the vessel file byte for byte and
+``limits.json`` embedded as PDF/A-3 associated files, three empty signature fields over the
+signature block, the rendering stack in the document information, a fixed date (1970-01-01:
+the vessel file states none), so that equal inputs give equal bytes and ``verify`` can render
+it again and compare (reportgen.signing.recompute, kind "limits").
+"""
+
+from __future__ import annotations
+
+import hashlib
+import os
+from functools import lru_cache
+from pathlib import Path
+
+import weasyprint
+
+from reportgen.criteria.sets import SETS
+from reportgen.docinfo import ROLES, document_number
+from reportgen.files import check_output, write_atomic
+from reportgen.limitcurve import LIMITS_NAME, NOT_ON_CURVE, REQUEST_NAME, to_json
+from reportgen.report import fonts
+from reportgen.report.limitsfig import limits_figure_svg
+from reportgen.report.render import (
+    FIXED_EPOCH,
+    PDF_VARIANT,
+    _finisher,
+    _source_date_epoch,
+    _stylesheet,
+    _svg_data_uri,
+    template_environment,
+)
+
+
+@lru_cache(maxsize=1)
+def _labels() -> tuple[dict[str, str], dict[str, str]]:
+    module = template_environment().get_template("limits_words.j2").module
+    return dict(module.figure_labels), dict(module.attachment_labels)
+
+
+def limits_html(doc: dict, vessel_sets: list[str] | None = None) -> str:
+    """The limits document as HTML text (the input of WeasyPrint)."""
+    figure_labels, _ = _labels()
+    titles = {c["id"]: c["title"] for c in doc.get("criteria_list", [])}
+    return template_environment().get_template("limits.html.j2").render(
+        d=doc,
+        docno=document_number(doc["inputs_sha256"]),
+        created=FIXED_EPOCH.strftime("%Y-%m-%dT%H:%M:%SZ"),
+        sets=[{"id": s, "title": SETS[s].title} for s in doc["criteria"] if s in SETS],
+        titles=titles,
+        excluded=any(s in NOT_ON_CURVE for s in (vessel_sets or [])),
+        request=REQUEST_NAME,
+        figure=_svg_data_uri(limits_figure_svg(doc, figure_labels)),
+        roles=ROLES,
+    )
+
+
+def render_limits(vessel_name: str, vessel_bytes: bytes, doc: dict,
+                  vessel_sets: list[str] | None = None) -> bytes:
+    """The limits document as PDF/A-3b bytes; equal inputs give equal bytes."""
+    _, words = _labels()
+    data = to_json(doc)
+    when = FIXED_EPOCH
+    made = {"created": when, "modified": when}
+    attachments = [
+        weasyprint.Attachment(string=vessel_bytes, name=vessel_name,
+                              description=words["vessel"], relationship="Source", **made),
+        weasyprint.Attachment(string=data.encode("utf-8"), name=LIMITS_NAME,
+                              description=words["limits"], relationship="Data", **made),
+    ]
+    document = weasyprint.HTML(string=limits_html(doc, vessel_sets)).render(
+        stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT, font_config=fonts.font_config())
+    identifier = hashlib.sha256((doc["inputs_sha256"] + data).encode("utf-8")).hexdigest()
+    with _source_date_epoch(when):
+        return document.write_pdf(finisher=_finisher, pdf_variant=PDF_VARIANT,
+                                  attachments=attachments,
+                                  pdf_identifier=identifier[:32].encode("ascii"))
+
+
+def write_limits(vessel_bytes: bytes, doc: dict, out_path: str | os.PathLike,
+                 force: bool = False, vessel_sets: list[str] | None = None) -> None:
+    """Write the limits document atomically; never replaces a file without ``force``."""
+    target = Path(out_path)
+    check_output(target, force)
+    write_atomic(target, render_limits(doc["inputs"]["vessel_file"], vessel_bytes, doc,
+                                       vessel_sets), force=force)

@@ -1,0 +1,35 @@
+"""YAML text of plain values, written by hand so that generated files read well: numbers in
+fixed decimals or in the shortest form that reads back exactly, texts plain where safe."""
+
+from __future__ import annotations
+
+import json
+from collections.abc import Sequence
+
+
+def text_value(value: str) -> str:
+    """A YAML scalar for a text: plain where that reads back as the same text, else quoted."""
+    import yaml
+
+    plain = str(value)
+    try:
+        if (plain and plain == plain.strip() and "#" not in plain and ": " not in plain
+                and plain[0] not in "[]{},&*!|>'\"%@`-?:" and yaml.safe_load(plain) == plain
+                and "\n" not in plain):
+            return plain
+    except yaml.YAMLError:
+        pass
+    return json.dumps(plain, ensure_ascii=False)
+
+
+def number(value: float, decimals: int | None = None) -> str:
+    """A number as YAML: fixed decimals, or the shortest text that reads back exactly."""
+    v = float(value)
+    if decimals is not None:
+        s = f"{v:.{decimals}f}"
+        return s[1:] if s.startswith("-") and float(s) == 0.0 else s
+    return repr(v + 0.0)
+
+
+def flow(values: Sequence[float], decimals: int | None = None) -> str:
+    return "[" + ", ".join(number(v, decimals) for v in values) + "]"

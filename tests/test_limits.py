@@ -1,0 +1,136 @@
+"""Limits against a box barge whose limiting KG follows in closed form, and the properties any
+limit must have (tests/eval_box.py states the box's hydrostatics and the wall-sided formula).
+
+Sources named at each check: IS Code 2008 (MSC.267(85)) Part A 2.2 and 2.3 for the criteria,
+the wall-sided formula GZ = sin θ·(GM + ½·BM·tan²θ) (Rawson & Tupper, Basic Ship Theory, ch. 4)
+for the box's GZ while the deck edge stays dry and the bilge stays wet, and the box's closed-
+form hydrostatics (KMt = T/2 + B²/(12·T), TPC = ρ·L·B/100).
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+import yaml
+from eval_box import RHO, B, L, condition_dict, kn_exact, vessel_dict, write_case
+
+from reportgen import limitcurve, limits, stages
+from reportgen.inputs.case import parse_vessel
+from reportgen.pipeline import evaluate_path
+
+TALL = 30.0  # m: a windage profile L × 30 m, so that the weather criterion governs
+
+
+def _vessel(windage_top: float | None = None, **extra):
+    d = vessel_dict(**extra)
+    if windage_top is not None:
+        d["windage"] = {"profile": [[0.0, 0.0], [L, 0.0], [L, windage_top], [0.0, windage_top]]}
+    raw = yaml.safe_dump(d, sort_keys=False).encode()
+    return parse_vessel(raw, "box.yaml"), raw
+
+
+def _row(draft: float, windage_top: float | None = None):
+    v, raw = _vessel(windage_top)
+    vd = limitcurve.vessel_data(v)
+    up = limitcurve.upright_at(v, raw, "box.yaml", vd, RHO * L * B * draft, 0.0,
+                               limitcurve.curve_sets(v))
+    return up, limits.limit_of(up, 0.0)
+
+
+def _kmt(draft: float) -> float:
+    return draft / 2.0 + B * B / (12.0 * draft)
+
+
+def _kg_gm0(draft: float) -> float:
+    """IS Code 2008 2.2.4: GM ≥ 0.15 m, so KG max = KMt − 0.15 (box KMt in closed form)."""
+    return _kmt(draft) - 0.15
+
+
+def _kg_area_0_30(draft: float) -> float:
+    """IS Code 2008 2.2.1, area 0–30° ≥ 0.055 m·rad, with the wall-sided area
+    GM·(1 − cos θ) + ½·BM·(sec θ + cos θ − 2) (integrated by hand) solved for KG."""
+    bm, c = B * B / (12.0 * draft), math.cos(math.radians(30.0))
+    return _kmt(draft) - (0.055 - 0.5 * bm * (1.0 / c + c - 2.0)) / (1.0 - c)
+
+
+def _kg_weather_heel(draft: float, top: float) -> float:
+    """IS Code 2008 2.3.1.2, θ0 ≤ 16°: lw1 = P·A·Z/(1000·g·Δ) (2.3.2.2) with A = L·(H − T) and
+    Z = (H + T)/2 − T/2 = H/2 (the half-draught lever), P = 504 N/m², g = 9.81 m/s²; then the
+    wall-sided GZ(16°) = lw1 solved for GM, KG = KMt − GM."""
+    disp = RHO * L * B * draft
+    lw1 = 504.0 * L * (top - draft) * (top / 2.0) / (1000.0 * 9.81 * disp)
+    bm, t = B * B / (12.0 * draft), math.radians(16.0)
+    gm = lw1 / math.sin(t) - 0.5 * bm * math.tan(t) ** 2
+    return _kmt(draft) - gm
+
+
+@pytest.mark.parametrize(("draft", "top", "exact", "governing"), [
+    (4.0, None, _kg_gm0(4.0), "gm0"),
+    (7.0, None, _kg_area_0_30(7.0), "area_0_30"),
+    (5.0, TALL, _kg_weather_heel(5.0, TALL), "weather_heel"),
+])
+def test_box_limiting_kg_against_closed_form(draft, top, exact, governing):
+    """The limiting KG at three displacements equals the closed form within 1 mm (SPEC's
+    tolerance; the cross curves are a 5° table, the closed forms exact)."""
+    _up, lim = _row(draft, top)
+    assert lim.governing == governing
+    assert lim.kg_max_m == pytest.approx(exact, abs=0.001)
+
+
+def test_closed_form_criteria_not_governing_are_less_severe():
+    """At T = 7 m the other criteria that the wall-sided formula covers (valid to
+    atan(T/(B/2)) = 41.2°) allow a higher KG than area 0–30°; GZ ≥ 0.20 m at 30° or more
+    and the angle of maximum GZ hold at the limit on the exact section (shapely clipping)."""
+    _up, lim = _row(7.0)
+    kg = lim.kg_max_m
+    assert _kg_gm0(7.0) > kg
+    gz = {h: kn_exact(7.0, h) - kg * math.sin(math.radians(h)) for h in range(0, 91, 5)}
+    assert max(gz[h] for h in range(30, 91, 5)) >= 0.20  # 2.2.2
+    assert max(gz, key=gz.get) >= 25  # 2.2.3
+
+
+@pytest.mark.parametrize(("draft", "top"), [(4.0, None), (7.0, None), (5.0, TALL),
+                                            (2.0, TALL), (11.5, None)])
+def test_every_criterion_passes_at_kg_max_and_governing_fails_5mm_above(draft, top):
+    """Property of SPEC "Limits": at kg_max every criterion passes; 5 mm above it the
+    governing criterion fails."""
+    up, lim = _row(draft, top)
+    at = stages.at_kg(up, lim.kg_max_m).checks
+    above = {c.id: c.passed for c in stages.at_kg(up, lim.kg_max_m + 0.005).checks}
+    assert all(c.passed for c in at)
+    assert not above[lim.governing]
+
+
+def _cargo_for(draft: float, kg: float) -> dict:
+    """One cargo item that with the 1000 t lightship at z = 4.0 gives draught T and KG."""
+    disp = RHO * L * B * draft
+    mass = disp - 1000.0
+    return {"name": "Cargo", "mass": mass, "lcg": L / 2, "vcg": (disp * kg - 4000.0) / mass}
+
+
+def test_raising_kg_by_the_margin_brings_the_margin_to_zero(tmp_path):
+    """Property: a condition whose KG is raised by its own kg_margin has a margin of 0 (to the
+    search's 1 mm) and still passes; 5 mm more and it fails."""
+    first = evaluate_path(write_case(tmp_path, condition_dict([_cargo_for(6.0, 5.0)])))
+    m = first.limits
+    assert m.kg_margin > 0.5 and first.passed
+    raised = evaluate_path(write_case(tmp_path, condition_dict(
+        [_cargo_for(6.0, first.hydrostatics.kg_fluid + m.kg_margin)])))
+    assert raised.limits.kg_margin == pytest.approx(0.0, abs=0.0015)
+    assert raised.passed
+    over = evaluate_path(write_case(tmp_path, condition_dict(
+        [_cargo_for(6.0, first.hydrostatics.kg_fluid + m.kg_margin + 0.005)])))
+    assert not over.passed
+    assert over.limits.kg_margin < 0
+    assert over.limits.governing == m.governing
+
+
+def test_margin_is_in_the_results_and_the_summary(tmp_path):
+    from reportgen.summary import render_summary
+
+    r = evaluate_path(write_case(tmp_path, condition_dict([_cargo_for(7.0, 6.0)])))
+    assert r.limits.kg_max == pytest.approx(_kg_area_0_30(7.0), abs=0.001)
+    assert r.limits.gm_min == pytest.approx(_kmt(7.0) - r.limits.kg_max, abs=1e-6)
+    assert "KG may rise by" in render_summary(r)
+    assert "kg_margin" in r.to_dict()["limits"]
