@@ -66,6 +66,26 @@ def from_table(table: AngleTable, displacement_table_t: float, trim_m: float, wh
     return float(np.interp(trim_m, table.trims, rows))
 
 
+def _bracket(axis: np.ndarray, value: float) -> list[int]:
+    """The indices of the table entries on either side of `value` (one when it is an entry)."""
+    i = int(np.clip(np.searchsorted(axis, value), 0, len(axis) - 1))
+    return sorted({i, max(i - 1, 0)} if axis[i] != value else {i})
+
+
+def governing_opening(table: AngleTable, displacement_table_t: float, trim_m: float
+                      ) -> str | None:
+    """The opening the table names at the tabulated entry, among those around the condition
+    (displacement, trim), with the least angle: the one that reaches the water first there.
+    None when the table names no openings."""
+    if table.opening is None:
+        return None
+    ks = [0] if table.trims is None or len(table.trims) == 1 else \
+        _bracket(table.trims, trim_m)
+    corners = [(table.angle[k][i], table.opening[k][i])
+               for k in ks for i in _bracket(table.displacement, displacement_table_t)]
+    return str(min(corners, key=lambda c: c[0])[1])
+
+
 def is_multi_trim(table: AngleTable | None) -> bool:
     return table is not None and table.trims is not None and len(table.trims) > 1
 
@@ -139,8 +159,10 @@ def flooding_angle(table: AngleTable | None, s: Situation, openings: Sequence[Op
     """The angle of flooding θf by the order of preference (module docstring)."""
     what = "flooding angle table"
     if is_multi_trim(table):
+        name = governing_opening(table, s.displacement_table_t, s.trim_m)
+        gov = next((o for o in openings if o.name == name), None)
         return Angle(from_table(table, s.displacement_table_t, s.trim_m, what), "table_trims",
-                     s.trim_m), []
+                     s.trim_m, name, None if gov is None else (gov.x, gov.y, gov.z)), []
     if openings and s.hull_angle is not None:
         per = [s.hull_angle(opening_points([o])) for o in openings]
         i = int(np.argmin(per))

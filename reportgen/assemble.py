@@ -84,7 +84,8 @@ def weather_section(wx: Weather | None) -> dict | None:
             "x2": r.x2, "k": r.k, "lever": w.lever_m, "z_method": w.z_method,
             "theta1_formula": r.theta1_formula, "roll_angle_source": wx.roll_angle_source,
             "b_over_d": r.b_over_d, "cb": r.cb, "kg_over_d_minus_1": r.kg_over_d_minus_1,
-            "theta_lw2": a.theta_lw2, "theta_start": a.theta_start}
+            "theta_lw2": a.theta_lw2, "theta_start": a.theta_start,
+            "areas_missing": list(a.missing)}
 
 
 def load_line_section(up: Upright) -> dict | None:

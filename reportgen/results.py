@@ -18,7 +18,7 @@ from reportgen.results_draughts import DraughtMarks, Observed
 
 RESULTS_FORMAT = "reportgen/results-1"
 DECIMALS = 6  # every float in the document is rounded to this many decimals
-OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "draught_marks",
+OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison", "draught_marks",
                      "observed")  # left out of the JSON when None
 
 
@@ -203,6 +203,7 @@ class Weather(Section):
     kg_over_d_minus_1: F
     theta_lw2: OptF
     theta_start: OptF
+    areas_missing: list[str] = Field(default_factory=list)  # no_theta0 | no_lw2 | no_roll
 
 
 class LoadLine(Section):
@@ -292,12 +293,26 @@ class Assumptions(Section):
     wind_pressure: F
     z_method: str
     roll_angle_source: str | None
-    cb_source: str  # table | computed
+    cb_source: str  # table | computed | hull
     list_side: str | None
     gz_beyond_flooding: Literal["exclude", "include"]
     fsc_method: str
     criteria_sets: list[CriteriaSet]
     criteria_chosen: bool  # chosen by the condition among those the vessel permits
+
+
+class ComparisonEntry(Section):
+    """One quantity of `check --compare` (SPEC.md; reportgen.compare)."""
+
+    quantity: str
+    label: str
+    unit: str
+    tables: OptF
+    hull: OptF
+    difference: OptF  # tables − hull
+    tolerance: OptF  # MSC.1/Circ.1229; None where the circular gives none
+    within: bool | None
+    basis: str
 
 
 class Results(Section):
@@ -321,6 +336,7 @@ class Results(Section):
     passed: bool
     warnings: list[str] = Field(default_factory=list)
     assumptions: Assumptions
+    comparison: list[ComparisonEntry] | None = None  # only with check --compare
 
     @model_validator(mode="before")
     @classmethod

@@ -122,22 +122,43 @@ def _hull_angle(case: Case, vd: VesselData, loading: Loading):
     return angle
 
 
-def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating) -> angle_rules.Angles:
+def _on_hull(case: Case, vd: VesselData, loading: Loading):
+    """The condition computed on the hull offsets (calculation.method: hull)."""
+    from reportgen.hull.direct import on_hull
+    from reportgen.hull.trimmed import check_stations
+
+    try:
+        check_stations(vd.hull, case.vessel.particulars.summer_draft)
+        return on_hull(vd.hull, loading.totals.displacement,
+                       case.condition.condition.water_density, loading.totals.lcg)
+    except ValueError as exc:
+        tail = ("; the LCG lies too far forward or aft of the hull's centre of buoyancy for "
+                "this displacement: check the masses and their lcg"
+                if str(exc).startswith("no free-trim equilibrium") else "")
+        raise InputError(f"{exc}{tail}") from None
+
+
+def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating,
+            finder=None) -> angle_rules.Angles:
+    """θf and the deck edge; with `finder` (the hull route's) both come from the hull."""
     v = case.vessel
     p = v.particulars
     needs_hull = not (angle_rules.is_multi_trim(vd.deck_edge)
                       and (angle_rules.is_multi_trim(vd.flooding) or not v.openings))
-    finder = _hull_angle(case, vd, loading) if needs_hull else None
+    on_hull = finder is not None
+    if not on_hull:
+        finder = _hull_angle(case, vd, loading) if needs_hull else None
     s = angle_rules.Situation(fl.displacement_table_t, fl.trim, fl.draughts.mid, finder)
     deck_points = None
     if vd.hull is not None and finder is not None:
         from reportgen.hull.tables import deck_edge_points
 
         deck_points = deck_edge_points(vd.hull)
-    deck, w1 = angle_rules.deck_edge_angle(vd.deck_edge, s, deck_points, p.depth, p.breadth,
-                                           p.length_bp)
+    deck, w1 = angle_rules.deck_edge_angle(None if on_hull else vd.deck_edge, s, deck_points,
+                                           p.depth, p.breadth, p.length_bp)
     openings = [angle_rules.Opening(o.name, o.x, o.y, o.z) for o in v.openings]
-    flood, w2 = angle_rules.flooding_angle(vd.flooding, s, openings, p.length_bp)
+    flood, w2 = angle_rules.flooding_angle(None if on_hull else vd.flooding, s, openings,
+                                           p.length_bp)
     return angle_rules.Angles(deck, flood, tuple(w1 + w2))
 
 
@@ -146,7 +167,7 @@ def _roll_hull(case: Case, fl: Floating, loading: Loading) -> tuple[rolling.Hull
     lwl = fl.lwl if fl.lwl is not None else p.length_bp
     d = fl.draughts.mid
     if fl.cb is not None:
-        cb, source = fl.cb, "table"
+        cb, source = fl.cb, "hull" if fl.method == "hull" else "table"
     else:
         rho = case.condition.condition.water_density
         cb = rolling.block_coefficient(loading.totals.displacement, rho, lwl, p.breadth, d)
@@ -155,18 +176,25 @@ def _roll_hull(case: Case, fl: Floating, loading: Loading) -> tuple[rolling.Hull
 
 
 def _load_line(case: Case, vd: VesselData, fl: Floating) -> tuple[LoadLine | None, list[str]]:
-    """The load line from the hydrostatic table's even-keel row (trim 0) in salt water."""
+    """The load line from the hydrostatic table's even-keel row (trim 0) in salt water, or
+    from the hull on an even keel with the hull route."""
     h = vd.hydro
-    if h is None:
-        return None, []
-    k = 0
-    if h.trims is not None:
-        k = int(np.argmin(np.abs(h.trims)))
     p = case.vessel.particulars
-    disp_t, tpc_t = summer_row(h.draft[k], h.displacement[k], h.tpc[k], p.summer_draft)
-    scale = SALT_WATER_T_M3 / h.density
+    if fl.method == "hull":
+        from reportgen.hull.direct import summer_on_hull
+
+        disp_s, tpc_s = summer_on_hull(vd.hull, p.summer_draft, SALT_WATER_T_M3)
+    elif h is None:
+        return None, []
+    else:
+        k = 0
+        if h.trims is not None:
+            k = int(np.argmin(np.abs(h.trims)))
+        disp_t, tpc_t = summer_row(h.draft[k], h.displacement[k], h.tpc[k], p.summer_draft)
+        scale = SALT_WATER_T_M3 / h.density
+        disp_s, tpc_s = disp_t * scale, tpc_t * scale
     rho = case.condition.condition.water_density
-    ll = load_line(p.summer_draft, disp_t * scale, tpc_t * scale, rho, fl.draughts.mid, fl.tpc)
+    ll = load_line(p.summer_draft, disp_s, tpc_s, rho, fl.draughts.mid, fl.tpc)
     if not ll.overloaded:
         return ll, []
     over_mm = round(fl.draughts.mid * 1000.0) - round(ll.permissible_draft * 1000.0)
@@ -200,9 +228,20 @@ def _marks(case: Case, vd: VesselData, loading: Loading, fl: Floating):
     return at, s if stated else replace(s, density_stated=False)
 
 
-def upright(case: Case, vd: VesselData) -> Upright:
-    """Loading, floating position, KN, angles and wind of a condition (no KG needed)."""
+def _scan_heels(method: str, v) -> list[float] | None:
+    """The heels KN is known at: the hull route's scan, or the cross curves' heels."""
+    if method == "hull":
+        from reportgen.hull.direct import HEELS_DEG
+
+        return list(HEELS_DEG)
+    return v.cross_curves.heel if v.cross_curves else None
+
+
+def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
+    """Loading, floating position, KN, angles and wind of a condition (no KG needed), by the
+    vessel's calculation.method or by `method` (tables | hull) when given."""
     v, c = case.vessel, case.condition
+    method = method or v.calculation.method
     sets = case.criteria_sets
     warnings: list[str] = []
     if v.particulars.length_bp < MIN_LENGTH_M:
@@ -211,13 +250,18 @@ def upright(case: Case, vd: VesselData) -> Upright:
     loading = condition_loading(v, c, vd.tanks)
     p = v.particulars
     plausible.check_positions(loading.lines, p.length_bp, p.breadth, p.depth)
-    fl = _floating(case, vd, loading)
+    finder = None
+    if method == "hull":
+        hull = _on_hull(case, vd, loading)
+        fl, kn, heel_max, finder = hull.floating, hull.kn, hull.heel_max_deg, hull.immersion
+    else:
+        fl = _floating(case, vd, loading)
+        kn, heel_max, kn_warnings = _kn(case, vd, fl)
+        warnings += kn_warnings
     plausible.check_draughts(fl.draughts, p.depth)
     ll, ll_warnings = _load_line(case, vd, fl)
     warnings += ll_warnings
-    kn, heel_max, kn_warnings = _kn(case, vd, fl)
-    warnings += kn_warnings
-    ang = _angles(case, vd, loading, fl)
+    ang = _angles(case, vd, loading, fl, finder)
     warnings += ang.warnings
     wind = roll_hull = None
     cb_source = "computed"
@@ -235,7 +279,7 @@ def upright(case: Case, vd: VesselData) -> Upright:
     cargo = grain_cargo(v, c)
     if cargo is not None:
         warnings += grain_rules.cargo_warnings(
-            "grain.2008" in sets, v.cross_curves.heel if v.cross_curves else None,
+            "grain.2008" in sets, _scan_heels(method, v),
             has_list(loading.totals.tcg))
     at_marks, survey = _marks(case, vd, loading, fl)
     if survey is not None:

@@ -30,6 +30,7 @@ class AngleTable:
     trims: np.ndarray | None
     displacement: np.ndarray
     angle: np.ndarray
+    opening: np.ndarray | None = None  # (k, n) names of the governing openings, or None
 
 
 def _trims(values: list[float] | None) -> np.ndarray | None:
@@ -56,8 +57,10 @@ def angle_table(t) -> AngleTable | None:
     if t is None:
         return None
     k = 1 if t.trims is None else len(t.trims)
+    names = None if getattr(t, "opening", None) is None else \
+        np.asarray(t.opening, dtype=object).reshape(k, -1)
     return AngleTable(_trims(t.trims), np.asarray(t.displacement, dtype=float),
-                      rows_of(t.angle, k))
+                      rows_of(t.angle, k), names)
 
 
 @dataclass(frozen=True)

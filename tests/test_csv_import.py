@@ -20,7 +20,21 @@ from reportgen.cli import main
 from reportgen.inputs.csvtables import as_csv
 
 ROOT = Path(__file__).resolve().parent.parent
-DEMO = yaml.safe_load((ROOT / "conditions/vessels/linnet-demo.yaml").read_text())
+
+
+def _at_trim_zero(data: dict) -> dict:
+    """The demo's hydrostatics and cross curves at trim 0 as one-trim tables (the demo vessel
+    file carries them at several trims)."""
+    h, c = dict(data["hydrostatics"]), dict(data["cross_curves"])
+    if "trims" in h:
+        k = h.pop("trims").index(0.0)
+        h = {key: v if key in ("density", "draft") else v[k] for key, v in h.items()}
+    if "trims" in c:
+        c["kn"] = c["kn"][c.pop("trims").index(0.0)]
+    return {**data, "hydrostatics": h, "cross_curves": c}
+
+
+DEMO = _at_trim_zero(yaml.safe_load((ROOT / "conditions/vessels/linnet-demo.yaml").read_text()))
 
 
 def run_import(tmp_path, kind: str, text: str, *extra: str):

@@ -28,6 +28,7 @@ HULL_FILE = CONDITIONS / "vessels" / "linnet-demo-hull.yaml"
 SHIP_FILE = CONDITIONS / "vessels" / "linnet-demo.yaml"
 DEMO_CONDITIONS = sorted(CONDITIONS.glob("*.yaml"))
 FAILING = "fails-on-purpose-high-deck-cargo.yaml"
+DEMO_TRIMS = [-3.0, -2.0, -1.0, 0.0, 1.0, 2.0, 3.0, 4.0]  # as `--trims` in scripts/demo.sh
 
 
 def _generator() -> ModuleType:
@@ -59,7 +60,7 @@ def test_generator_reproduces_the_committed_hull_file(generator: ModuleType,
 def test_tables_reproduce_the_committed_vessel_file() -> None:
     from reportgen.hull.tables import build_tables, vessel_text_with_tables
 
-    made = build_tables(load_vessel(HULL_FILE))
+    made = build_tables(load_vessel(HULL_FILE), trims=DEMO_TRIMS)
     text = vessel_text_with_tables(HULL_FILE.read_text(encoding="utf-8"), made)
     assert text.encode("utf-8") == SHIP_FILE.read_bytes()
 
@@ -93,7 +94,7 @@ def test_tank_tables_are_consistent(generator: ModuleType, ship) -> None:
 def test_ship_is_plausible(ship) -> None:
     h, p = ship.hydrostatics, ship.particulars
     draft = np.asarray(h.draft)
-    disp = np.asarray(h.displacement)
+    disp = np.asarray(h.displacement[h.trims.index(0.0)])  # the even-keel row
     summer_disp = float(np.interp(p.summer_draft, draft, disp))
     cb = summer_disp / (h.density * p.length_bp * p.breadth * p.summer_draft)
     # Block coefficient of a small general cargo ship about 0.65-0.75 (common practice,

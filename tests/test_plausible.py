@@ -56,15 +56,34 @@ def test_a_mass_outside_the_ship_is_refused(work, item, words):
     assert done.exit_code == 2 and words in done.output and "Stores and provisions" in done.output
 
 
+def _on_hull(work: Path) -> None:
+    """The copied vessel computed on its hull offsets: the floating position is then the real
+    one at any trim (the demo's tables stop at trims −3 to 4 m and refuse beyond, first)."""
+    v = work / "vessels" / DEMO_VESSEL.name
+    text = v.read_text()
+    assert "calculation: {method: tables" in text
+    v.write_text(text.replace("calculation: {method: tables", "calculation: {method: hull"))
+
+
+@pytest.mark.parametrize("lcg", [95.0, 85.0])
+def test_a_trim_beyond_the_tables_is_refused_first(work, lcg):
+    done = _check(work, ITEM_LINE, ITEM_LINE + f"\n  - {{name: Big, mass: 3000.0, lcg: {lcg}, "
+                                              "vcg: 5.0}")
+    assert done.exit_code == 2 and "outside the hydrostatic table's trims" in done.output
+
+
 def test_a_condition_that_cannot_float_is_refused(work):
-    # 3000 t at x = 95 m on a 97 m ship: the trim puts the keel aft out of the water.
-    done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Big, mass: 3000.0, lcg: 95.0, "
+    # 2000 t at x = 95 m on a 97 m ship: the trim puts the keel aft out of the water.
+    _on_hull(work)
+    done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Big, mass: 2000.0, lcg: 95.0, "
                                               "vcg: 5.0}")
     assert done.exit_code == 2 and "below zero" in done.output
 
 
 def test_a_condition_with_the_deck_under_water_is_refused(work):
-    done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Big, mass: 3000.0, lcg: 85.0, "
+    # 1500 t at x = 30 m: trimmed by the stern with the deck edge aft under water.
+    _on_hull(work)
+    done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Big, mass: 1500.0, lcg: 30.0, "
                                               "vcg: 5.0}")
     assert done.exit_code == 2 and "above the moulded depth" in done.output
 

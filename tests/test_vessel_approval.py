@@ -107,8 +107,11 @@ def test_verify_with_vessel_and_vessel_trust(approved, office, tmp_path):
 def _edited_vessel(text: str) -> str:
     """Every KN x 1.25 and KMt + 5 cm: the edit found in review."""
     data = yaml.safe_load(text)
-    data["cross_curves"]["kn"] = [[v * 1.25 for v in row] for row in data["cross_curves"]["kn"]]
-    data["hydrostatics"]["kmt"] = [v + 0.05 for v in data["hydrostatics"]["kmt"]]
+    def edit(value, f):  # a number, or rows of them at any depth (tables at trims)
+        return [edit(v, f) for v in value] if isinstance(value, list) else f(value)
+
+    data["cross_curves"]["kn"] = edit(data["cross_curves"]["kn"], lambda v: v * 1.25)
+    data["hydrostatics"]["kmt"] = edit(data["hydrostatics"]["kmt"], lambda v: v + 0.05)
     return yaml.safe_dump(data, sort_keys=False)
 
 

@@ -21,21 +21,26 @@ def _worst(codes: list[int]) -> int:
 Examples:
   reportgen check conditions/full-load-departure.yaml
   reportgen check conditions/*.yaml --json > results.json
+  reportgen check conditions/full-load-departure.yaml --compare
 \b
 Exit status: 0 every criterion of every condition passed; 1 a criterion failed;
 2 bad input (reported on stderr; the other files are still checked).""")
 @click.argument("conditions", nargs=-1, required=True, type=click.Path(path_type=Path))
 @click.option("--json", "as_json", is_flag=True,
               help="Print the results document (JSON); a JSON array for several files.")
-def check(conditions: tuple[Path, ...], as_json: bool) -> None:
+@click.option("--compare", is_flag=True,
+              help="Evaluate by the tables and on the hull, and print the differences beside "
+                   "the MSC.1/Circ.1229 tolerances (the vessel needs both).")
+def check(conditions: tuple[Path, ...], as_json: bool, compare: bool) -> None:
     """Evaluate loading conditions against their criteria."""
-    from reportgen.pipeline import evaluate_path
+    from reportgen.compare import render
+    from reportgen.pipeline import evaluate_compared, evaluate_path
     from reportgen.summary import render_summary
 
     codes, docs = [], []
     for i, path in enumerate(conditions):
         try:
-            results = evaluate_path(path)
+            results = evaluate_compared(path) if compare else evaluate_path(path)
         except InputError as exc:
             click.echo(f"reportgen: {exc}", err=True)
             codes.append(EXIT_BAD_INPUT)
@@ -47,6 +52,8 @@ def check(conditions: tuple[Path, ...], as_json: bool) -> None:
             if i:
                 click.echo("\n" + "=" * 100 + "\n")
             click.echo(render_summary(results))
+            if results.comparison is not None:
+                click.echo("\n" + render([e.model_dump() for e in results.comparison]))
     if as_json:
         if len(conditions) == 1:
             if docs:

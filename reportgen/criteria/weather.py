@@ -118,6 +118,23 @@ class Areas:
     theta_start: float | None
     area_a: float | None
     area_b: float | None
+    missing: tuple[str, ...] = ()  # why areas a and b do not exist (missing_reasons)
+
+
+def missing_reasons(theta0: float | None, theta_lw2: float | None,
+                    theta1_deg: float | None) -> tuple[str, ...]:
+    """Why the areas of figure 2.3.1 do not exist, as codes: `no_theta0` (GZ never reaches
+    lw1: no steady heel θ0, where area a would start), `no_lw2` (GZ never reaches lw2: no
+    intercept to end area a and start area b), `no_roll` (no angle of roll θ1: with GM not
+    positive the roll period T = 2·C·B/√GM of 2.3.4 does not exist). Empty when they exist."""
+    out = []
+    if theta0 is None:
+        out.append("no_theta0")
+    if theta_lw2 is None:
+        out.append("no_lw2")
+    if theta1_deg is None:
+        out.append("no_roll")
+    return tuple(out)
 
 
 def areas(curve: GZCurve, w: Wind, theta1_deg: float | None, flooding_deg: float) -> Areas:
@@ -144,7 +161,10 @@ def areas(curve: GZCurve, w: Wind, theta1_deg: float | None, flooding_deg: float
             area_a = -area_mrad(curve, start, theta_lw2, level_m=w.lw2)
             area_b = (area_mrad(curve, theta_lw2, theta2, level_m=w.lw2)
                       if theta2 > theta_lw2 else 0.0)
-    return Areas(theta0, theta_lw2, thetac, theta2, start, area_a, area_b)
+    missing = missing_reasons(theta0, theta_lw2, theta1_deg) if area_b is None else ()
+    if area_b is None:
+        theta2 = None  # θ2 ends area b: it belongs to no area that exists
+    return Areas(theta0, theta_lw2, thetac, theta2, start, area_a, area_b, missing)
 
 
 @dataclass(frozen=True)

@@ -167,17 +167,20 @@ class CrossCurves(Model):
         return self
 
 
-Angle = Annotated[float, Field(gt=0, le=90)]
+Angle = Annotated[float, Field(ge=0, le=90)]  # 0: immersed already upright
 
 
 class AngleTable(Model):
     trims: Trims | None = None  # m, + by the stern
     displacement: Increasing  # t
     angle: list[Angle] | list[list[Angle]]  # deg: angle[i], or angle[k][i] with trims
+    # optional (flooding angle): the governing opening's name at each entry, as `angle`
+    opening: list[Text] | list[list[Text]] | None = None
 
     @model_validator(mode="after")
     def _rows(self) -> AngleTable:
         _per_trim(self, "angle", self.trims, len(self.displacement))
+        _per_trim(self, "opening", self.trims, len(self.displacement))
         return self
 
 
@@ -355,6 +358,12 @@ class Vessel(Model):
                              "enough to print)")
         check_marks(self.draught_marks, self.particulars.length_bp)
         self._booklet_curve()
+        named = getattr(self.flooding_angle, "opening", None) or []
+        unknown = {n for row in named for n in (row if isinstance(row, list) else [row])} - {
+            o.name for o in self.openings}
+        if unknown:
+            raise ValueError(f"flooding_angle.opening names {min(unknown)!r}, which is not "
+                             f"one of the openings")
         if self.hull is None and any(t.table is None for t in self.tanks):
             raise ValueError("tanks: a tank given by geometry alone needs hull offsets to make "
                              "its table from")

@@ -161,7 +161,9 @@ def weather_figure_svg(results: Results, labels: Mapping[str, str]) -> str:
         theta2 = weather.theta2
         lo = max(float(heel[0]), np.floor(((start if start is not None else -25.0) - 5.0)
                                           / 5.0) * 5.0)
-        ends = [theta2 + 10.0] + ([weather.thetac + 5.0] if weather.thetac else [])
+        # θ2 is None where area b does not exist: show the curve to 60° then
+        ends = [theta2 + 10.0 if theta2 is not None else 60.0] + (
+            [weather.thetac + 5.0] if weather.thetac else [])
         hi = min(float(heel[-1]), np.ceil(max(ends) / 5.0) * 5.0)
         fine = np.linspace(lo, hi, round(float(hi - lo) / STEP_DEG) + 1)
         fine_gz = np.interp(fine, heel, lever)
