@@ -389,7 +389,9 @@ def vessel_text() -> str:
         lines += _tank_lines(t, hull)
     lines += [
         "criteria: [is2008.general, is2008.weather]",
-        "permitted_criteria: [grain.2008]",
+        "permitted_criteria: [is2008.timber, grain.2008]",
+        "icing: {deck_area: 1350.0, deck_lcg: 47.0, deck_vcg: 9.6}  "
+        + "# exposed decks, hatch covers and house tops (invented)",
         "calculation: {method: tables, wind_lever: half_draft, full_percent: 98.0, "
         + "gz_beyond_flooding: exclude}",
         "draught_marks: {" + ", ".join(f"{k}: {_f(v, 2)}" for k, v in DRAUGHT_MARKS.items())

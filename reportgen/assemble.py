@@ -6,6 +6,7 @@ from dataclasses import asdict
 
 from reportgen import NAME, __version__
 from reportgen import draughts as marks_rules
+from reportgen.assemble_extras import icing_section, passengers_section, timber_section
 from reportgen.criteria.core import Check
 from reportgen.criteria.sets import SETS
 from reportgen.criteria.weather import WIND_PRESSURE_N_M2, Weather
@@ -169,6 +170,9 @@ def results(up: Upright, k: AtKG, fsc: float, limits: dict | None = None) -> Res
         "draught_marks": None if up.at_marks is None else marks_rules.marks_section(
             up.case.vessel.draught_marks.model_dump(), up.at_marks),
         "observed": None if up.survey is None else marks_rules.observed_section(up.survey),
+        "timber": timber_section(up.extras),
+        "passengers": passengers_section(up.extras, k.state.passengers),
+        "icing": icing_section(up.extras),
         "grain": grain_section(up, k),
         "limits": limits,
         "criteria": [criterion(c) for c in k.checks],

@@ -15,3 +15,7 @@ def document_number(inputs_sha256: str) -> str:
 LIMITS_NAME = "limits.json"  # the embedded limits document (reportgen/limits-1)
 LIMITS_FORMAT = "reportgen/limits-1"
 LIMITS_REQUEST_NAME = "limits-request.json"  # the request (trim) hashed with the vessel bytes
+
+PACKAGE_NAME = "package.json"  # the embedded data document of a calculation package
+PACKAGE_FORMAT = "reportgen/package-1"
+PACKAGE_TITLE_PREFIX = "Stability calculation package "  # the package's PDF title

@@ -123,7 +123,7 @@ class Line:
     (reportgen.freesurface reasons) or None; slack: whether the tank is slack.
     """
 
-    kind: Literal["lightship", "tank", "item", "grain"]
+    kind: Literal["lightship", "tank", "item", "grain", "allowance"]
     id: str | None
     name: str
     content: str | None

@@ -15,10 +15,12 @@ from typing import Any, Literal
 from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_validator
 
 from reportgen.results_draughts import DraughtMarks, Observed
+from reportgen.results_special import Icing, Passengers, Timber
 
 RESULTS_FORMAT = "reportgen/results-1"
 DECIMALS = 6  # every float in the document is rounded to this many decimals
-OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison", "draught_marks",
+OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison", "timber",
+                     "passengers", "icing", "draught_marks",
                      "observed")  # left out of the JSON when None
 
 
@@ -92,7 +94,7 @@ class VesselInfo(Section):
 
 
 class Line(Section):
-    kind: Literal["lightship", "tank", "item", "grain"]
+    kind: Literal["lightship", "tank", "item", "grain", "allowance"]
     id: str | None
     name: str
     content: str | None
@@ -332,6 +334,9 @@ class Results(Section):
     observed: Observed | None = None
     grain: Grain | None = None
     limits: Limits | None = None
+    timber: Timber | None = None
+    passengers: Passengers | None = None
+    icing: Icing | None = None
     criteria: list[Criterion]
     passed: bool
     warnings: list[str] = Field(default_factory=list)

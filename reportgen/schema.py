@@ -27,6 +27,7 @@ FORMATS: dict[str, tuple[str, str, str]] = {
     "condition": ("reportgen.inputs.condition:Condition", "reportgen/condition-1", "validation"),
     "results": ("reportgen.results:Results", "reportgen/results-1", "validation"),
     "limits": ("reportgen.limitsmodel:LimitsDocument", "reportgen/limits-1", "validation"),
+    "package": ("reportgen.packagedoc:PackageDocument", "reportgen/package-1", "validation"),
 }
 
 

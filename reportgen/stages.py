@@ -16,9 +16,10 @@ from scipy.interpolate import PPoly
 
 from reportgen import angles as angle_rules
 from reportgen import draughts as marks_rules
+from reportgen import extras as allowance_stage
 from reportgen import grain as grain_rules
 from reportgen import plausible
-from reportgen.criteria import booklet, core, rolling
+from reportgen.criteria import booklet, core, passenger, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
 from reportgen.errors import InputError
@@ -43,6 +44,7 @@ from reportgen.vesseldata import VesselData
 
 MIN_LENGTH_M = 24.0  # IS Code 2008 Part A 2.3 and SPEC.md: ships of 24 m in length and over
 SINGLE_TRIM_TOLERANCE = angle_rules.SINGLE_TRIM_TOLERANCE
+NO_EXTRAS = allowance_stage.Extras()
 
 
 @dataclass(frozen=True)
@@ -62,6 +64,7 @@ class Upright:
     load_line: LoadLine | None
     warnings: tuple[str, ...]
     grain: GrainCargo | None = None  # grain in bulk (Grain Code), None without
+    extras: allowance_stage.Extras = NO_EXTRAS  # timber, passengers, ice
     at_marks: dict[str, float] | None = None  # extreme draught at each mark, m
     survey: marks_rules.Survey | None = None  # the draughts read alongside, worked
 
@@ -248,6 +251,9 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
         warnings.append(f"The IS Code 2008 criteria apply to ships of {MIN_LENGTH_M:g} m in "
                         f"length and over; this ship is {v.particulars.length_bp:g} m.")
     loading = condition_loading(v, c, vd.tanks)
+    timber, timber_lines = allowance_stage.timber_lines(case)
+    pax, pax_lines = allowance_stage.passenger_lines(case)
+    loading = allowance_stage.with_lines(loading, timber_lines + pax_lines)
     p = v.particulars
     plausible.check_positions(loading.lines, p.length_bp, p.breadth, p.depth)
     finder = None
@@ -259,6 +265,14 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
         kn, heel_max, kn_warnings = _kn(case, vd, fl)
         warnings += kn_warnings
     plausible.check_draughts(fl.draughts, p.depth)
+    icing = allowance_stage.icing_of(case, vd.profile, fl.draughts.mid, fl.trim)
+    if icing is not None:  # ice at the waterline without it, then float again (Part B 6)
+        loading = allowance_stage.with_lines(loading, allowance_stage.ice_lines(icing))
+        fl = _floating(case, vd, loading)
+        plausible.check_draughts(fl.draughts, p.depth)
+        icing = allowance_stage.iced_windage(case, vd.profile, icing, fl.draughts.mid, fl.trim)
+    extras = allowance_stage.Extras(timber, pax, icing)
+    warnings += allowance_stage.extras_warnings(sets, extras)
     ll, ll_warnings = _load_line(case, vd, fl)
     warnings += ll_warnings
     ang = _angles(case, vd, loading, fl, finder)
@@ -285,7 +299,7 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
     if survey is not None:
         warnings += marks_rules.survey_warnings(survey, c.condition.water_density)
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
-                   tuple(warnings), cargo, at_marks=at_marks, survey=survey)
+                   tuple(warnings), cargo, extras, at_marks=at_marks, survey=survey)
 
 
 def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
@@ -333,12 +347,26 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
                                               up.loading.totals.displacement),
             flooding, up.angles.deck_edge.deg)
     curve_b = booklet.curve_of(up.case.vessel) if "booklet" in core.needs(up.sets) else None
+    pax = None
+    if up.extras.passengers is not None and up.case.vessel.particulars.service_speed:
+        pax = _passenger_heel(up, kg_fluid_m, side_curve)
     state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx,
-                  grain, kg_fluid_m, up.loading.totals.displacement, curve_b)
+                  grain, kg_fluid_m, up.loading.totals.displacement, curve_b, pax)
     checks = core.run(up.sets, state)
     warnings += booklet.warnings(state)
     return AtKG(kg_fluid_m, gm, curve, side_curve, heel, state,
                 vanishing_angle(side_curve, gz_max_deg), wx, checks, tuple(warnings))
+
+
+def _passenger_heel(up: Upright, kg_fluid_m: float,
+                    side_curve: GZCurve) -> passenger.PassengerHeel:
+    """The crowding and turning heels of Part A 3.1 on the curve towards the list's side."""
+    p, fl = up.case.vessel.particulars, up.floating
+    pax = up.extras.passengers
+    lwl = fl.lwl if fl.lwl is not None else p.length_bp
+    return passenger.passenger_heel(side_curve, pax.crowd.moment_tm,
+                                    up.loading.totals.displacement, p.service_speed, lwl,
+                                    fl.draughts.mid, kg_fluid_m)
 
 
 def kg_fluid_of(up: Upright) -> tuple[float, float]:

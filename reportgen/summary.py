@@ -125,6 +125,10 @@ def render_summary(r: Results) -> str:
     for t in r.assumptions.free_surface_tanks:
         con.print(f"    {t.id}: {t.fsm:.1f} t·m, {FS_WORDS.get(t.reason, t.reason)}",
                   markup=False)
+    for ln in r.loading.lines:
+        if ln.kind == "allowance":
+            con.print(f"  + {ln.name}: {ln.mass:.1f} t at LCG {ln.lcg:.3f} m, VCG {ln.vcg:.3f} m",
+                      markup=False)
     con.print("\nFloating position")
     con.print(f"  Draught aft {hy.draft_aft:.3f} m   midships {hy.draft_mean:.3f} m   "
               f"fore {hy.draft_fore:.3f} m   (moulded)")

@@ -1,21 +1,29 @@
 #!/usr/bin/env bash
 # The demo: the demo ship's tables, a check of every demo condition, the vessel data approved
 # by a demo design office, a sheet for each condition, the sheets signed (prepared, checked)
-# with demo identities and verified with the approval checked. Everything goes to out/.
+# with demo identities and verified with the approval checked, and the package of every
+# condition, signed and verified the same way. Everything goes to out/.
 set -uo pipefail
 cd "$(dirname "$0")/.."
 RG=.venv/bin/reportgen
 mkdir -p out
 
-hull=$(ls conditions/vessels/*-hull.yaml | head -n 1)
-ship=${hull%-hull.yaml}.yaml
-echo "== Tables of the demo ship from its offsets ($hull)"
-$RG tables "$hull" -o "out/$(basename "$ship")" --trims=-3,-2,-1,0,1,2,3,4 --force || exit 1
-if cmp -s "out/$(basename "$ship")" "$ship"; then
-  echo "   the tables reproduce the committed $ship byte for byte"
-else
-  echo "   WARNING: the tables differ from the committed $ship"; exit 1
-fi
+for hull in conditions/vessels/*-hull.yaml; do
+  ship=${hull%-hull.yaml}.yaml
+  # the demo cargo ship trims from 2 m by the head to 2.7 m by the stern: tables at trims
+  case $(basename "$hull") in
+    linnet-demo-hull.yaml) trims=(--trims=-3,-2,-1,0,1,2,3,4) ;;
+    *) trims=() ;;
+  esac
+  echo "== Tables of a demo ship from its offsets ($hull)"
+  $RG tables "$hull" -o "out/$(basename "$ship")" "${trims[@]}" --force || exit 1
+  if cmp -s "out/$(basename "$ship")" "$ship"; then
+    echo "   the tables reproduce the committed $ship byte for byte"
+  else
+    echo "   WARNING: the tables differ from the committed $ship"; exit 1
+  fi
+done
+ship=conditions/vessels/linnet-demo.yaml  # the demo cargo ship: its package and limits below
 
 echo "== Setting up a ship from a mesh (conditions/setup-example: the README's walk-through)"
 ex=conditions/setup-example
@@ -60,11 +68,15 @@ echo "   out/ids/design-office, out/ids/prepared, out/ids/checked"
 # same layout, so every condition still finds its vessel) and the copy is approved there.
 echo "== Vessel data approved by the demo design office"
 rm -rf out/work && mkdir -p out/work/vessels
-cp conditions/*.yaml out/work/ && cp "$ship" out/work/vessels/
-vessel="out/work/vessels/$(basename "$ship")"
-$RG approve "$vessel" --key out/ids/design-office/key.pem --cert out/ids/design-office/cert.pem \
-    2>/dev/null || exit 1
-echo "   $vessel.p7s (detached CMS signature of the vessel file's bytes)"
+cp conditions/*.yaml out/work/
+for hull in conditions/vessels/*-hull.yaml; do
+  cp "${hull%-hull.yaml}.yaml" out/work/vessels/
+done
+for vessel in out/work/vessels/*.yaml; do
+  $RG approve "$vessel" --key out/ids/design-office/key.pem --cert out/ids/design-office/cert.pem \
+      2>/dev/null || exit 1
+  echo "   $vessel.p7s (detached CMS signature of the vessel file's bytes)"
+done
 
 echo "== Sheets (with the vessel data approval embedded)"
 for c in out/work/*.yaml; do
@@ -89,15 +101,35 @@ for c in out/work/*.yaml; do
   echo "   out/$name.signed.pdf"
 done
 
+echo "== Package of every condition of the demo cargo ship (one document), signed (prepared, then checked)"
+pkg=out/$(basename "$ship" .yaml)-package
+rm -f "$pkg.pdf" "$pkg.prepared.pdf" "$pkg.signed.pdf"
+mapfile -t cargo < <(grep -l "^vessel: vessels/$(basename "$ship")" out/work/*.yaml)
+$RG package "${cargo[@]}" -o "$pkg.pdf" --title "Loading conditions of the demo ship (invented)" \
+    2>/dev/null; rc=$?
+# status 1: written, a condition fails a criterion (the fails-* condition, on purpose)
+[[ $rc -le 1 ]] || { echo "   package failed (exit status $rc)"; exit 1; }
+$RG sign "$pkg.pdf" --role prepared --key out/ids/prepared/key.pem \
+    --cert out/ids/prepared/cert.pem -o "$pkg.prepared.pdf" 2>/dev/null || exit 1
+$RG sign "$pkg.prepared.pdf" --role checked --key out/ids/checked/key.pem \
+    --cert out/ids/checked/cert.pem -o "$pkg.signed.pdf" 2>/dev/null || exit 1
+rm -f "$pkg.prepared.pdf"
+echo "   $pkg.signed.pdf"
+
 echo "== Verified: signatures trusted, pages and results recomputed, vessel data approved"
 trust=(--trust out/ids/prepared/cert.pem --trust out/ids/checked/cert.pem
-       --vessel "$vessel" --vessel-trust out/ids/design-office/cert.pem)
+       --vessel-trust out/ids/design-office/cert.pem)
 for c in out/work/*.yaml; do
   name=$(basename "$c" .yaml)
-  $RG verify "out/$name.signed.pdf" "${trust[@]}" > "out/$name.verify.txt" \
+  vessel="out/work/$(sed -n 's/^vessel: *//p' "$c")"  # the vessel file the condition names
+  $RG verify "out/$name.signed.pdf" "${trust[@]}" --vessel "$vessel" > "out/$name.verify.txt" \
     || { echo "   out/$name.signed.pdf: VERIFICATION FAILED (see out/$name.verify.txt)"; exit 1; }
+  echo "   out/$name.signed.pdf: $(tail -n 1 "out/$name.verify.txt")"
 done
-$RG verify out/*.signed.pdf "${trust[@]}" | sed 's/^/   /'
+$RG verify "$pkg.signed.pdf" "${trust[@]}" --vessel "out/work/vessels/$(basename "$ship")" \
+  > "$pkg.verify.txt" \
+  || { echo "   $pkg.signed.pdf: VERIFICATION FAILED (see $pkg.verify.txt)"; exit 1; }
+echo "   $pkg.signed.pdf: $(tail -n 1 "$pkg.verify.txt")"
 echo "   (full reports: out/*.verify.txt)"
 
 echo "== KG margin of each demo condition (from its check summary)"

@@ -31,6 +31,8 @@ INTRO = {
                "results.json.",
     "limits": "The limiting KG / minimum GM curve that `limits --json` prints and every limits "
               "document embeds as limits.json.",
+    "package": "The data document every calculation package embeds as package.json: its "
+               "title, vessel, and each condition's file and results (as `check --json`).",
 }
 
 

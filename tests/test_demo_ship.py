@@ -26,7 +26,8 @@ ROOT = Path(__file__).resolve().parent.parent
 CONDITIONS = ROOT / "conditions"
 HULL_FILE = CONDITIONS / "vessels" / "linnet-demo-hull.yaml"
 SHIP_FILE = CONDITIONS / "vessels" / "linnet-demo.yaml"
-DEMO_CONDITIONS = sorted(CONDITIONS.glob("*.yaml"))
+DEMO_CONDITIONS = sorted(p for p in CONDITIONS.glob("*.yaml")
+                         if f"vessels/{SHIP_FILE.name}" in p.read_text(encoding="utf-8"))
 FAILING = "fails-on-purpose-high-deck-cargo.yaml"
 DEMO_TRIMS = [-3.0, -2.0, -1.0, 0.0, 1.0, 2.0, 3.0, 4.0]  # as `--trims` in scripts/demo.sh
 

@@ -37,6 +37,17 @@ SPEC_CRITERIA = {  # SPEC.md "Criteria": id -> (required, unit)
     "area_0_30": (0.055, "m·rad"), "area_0_40": (0.090, "m·rad"),
     "area_30_40": (0.030, "m·rad"), "gz_30": (0.20, "m"), "gz_max_angle": (25.0, "deg"),
     "gm0": (0.15, "m"), "weather_heel": (None, "deg"), "weather_area": (None, "m·rad"),
+    # SPEC.md "Cargo and ship-type criteria" (IS Code 2008 Part A 3.3 and 3.1)
+    "timber_area_0_40": (0.08, "m·rad"), "timber_gz_max": (0.25, "m"),
+    "timber_gm0": (0.10, "m"), "passenger_crowding_heel": (10.0, "deg"),
+    "passenger_turning_heel": (10.0, "deg"),
+}
+SPEC_SETS = {  # SPEC.md: the ids of each criteria set
+    "is2008.general": ["area_0_30", "area_0_40", "area_30_40", "gz_30", "gz_max_angle", "gm0"],
+    "is2008.weather": ["weather_heel", "weather_area"],
+    "is2008.timber": ["timber_area_0_40", "timber_gz_max", "timber_gm0"],
+    "is2008.passenger": ["passenger_crowding_heel", "passenger_turning_heel"],
+    "grain.2008": ["grain_heel", "grain_residual_area", "grain_gm0"],
 }
 SPEC_GRAIN_CRITERIA = {  # SPEC.md "Cargo and ship-type criteria", grain.2008 (Grain Code A 7)
     "grain_heel": (None, "deg"), "grain_residual_area": (0.075, "m·rad"),
@@ -79,10 +90,13 @@ def test_document_has_every_key_of_spec(documents, path):
     assert len(heel) == len(gz) and heel[0] <= -30 and heel[-1] >= 60
     assert all(np.any(np.isclose(heel, a)) for a in range(-30, 61, 5))
     assert np.all(np.diff(heel) > 0)
-    # SPEC.md: criteria ids, required values and units of IS Code 2008 Part A 2.2 and 2.3.
+    # SPEC.md: criteria ids, required values and units of the sets applied (IS Code 2008 Part A
+    # 2.2 and 2.3, and 3.1 and 3.3 where a condition chooses them).
     by_id = {c["id"]: c for c in doc["criteria"]}
-    grain = "grain.2008" in {c["set"] for c in doc["criteria"]}
-    expected = dict(SPEC_CRITERIA, **(SPEC_GRAIN_CRITERIA if grain else {}))
+    sets = [s["id"] for s in doc["assumptions"]["criteria_sets"]]
+    grain = "grain.2008" in sets
+    expected = {cid: SPEC_CRITERIA[cid] if cid in SPEC_CRITERIA else SPEC_GRAIN_CRITERIA[cid]
+                for sid in sets for cid in SPEC_SETS[sid]}
     assert set(by_id) == set(expected)
     for cid, (required, unit) in expected.items():
         c = by_id[cid]

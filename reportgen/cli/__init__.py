@@ -65,4 +65,4 @@ def main() -> None:
 
 
 # The commands register themselves on `main` when their modules are imported.
-from reportgen.cli import calc, formats, limits, setup, shipdata, signing  # noqa: F401
+from reportgen.cli import calc, formats, limits, package, setup, shipdata, signing  # noqa: F401

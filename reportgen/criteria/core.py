@@ -60,7 +60,8 @@ class State:
     condition's state; weather: the 2.3 quantities, None when no selected set needs them;
     grain: the Grain Code A 7 quantities, None without grain on board;
     kg_fluid_m: KG corrected; displacement_t: the condition's displacement; booklet: the
-    booklet's limiting curve, when a selected set needs it.
+    booklet's limiting curve, when a selected set needs it; passengers: likewise the crowding
+    and turning heels of Part A 3.1.
     """
 
     curve: GZCurve
@@ -74,6 +75,7 @@ class State:
     kg_fluid_m: float | None = None  # m
     displacement_t: float | None = None  # t
     booklet: Any = None  # reportgen.criteria.booklet.Curve, when a set needs it
+    passengers: Any = None  # criteria.passenger.PassengerHeel, when computed (Part A 3.1)
 
 
 def needs(set_ids: list[str]) -> frozenset[str]:

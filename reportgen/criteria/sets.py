@@ -25,6 +25,14 @@ SETS: dict[str, SetInfo] = {
         "reportgen.criteria.weather",
         "IMO 2008 IS Code (MSC.267(85)), Part A, 2.3: severe wind and rolling criterion",
         frozenset({"weather"})),
+    "is2008.timber": SetInfo(
+        "reportgen.criteria.timber",
+        "IMO 2008 IS Code (MSC.267(85)), Part A, 3.3: cargo ships carrying timber deck cargoes"),
+    "is2008.passenger": SetInfo(
+        "reportgen.criteria.passenger",
+        "IMO 2008 IS Code (MSC.267(85)), Part A, 3.1: passenger ships (crowding of passengers "
+        "to one side, turning)",
+        frozenset({"passengers"})),
     "grain.2008": SetInfo(
         "reportgen.criteria.grain",
         "International Grain Code (MSC.23(59)), A 7: intact stability of ships carrying grain "

@@ -46,6 +46,7 @@ class Profile:
     z_above_m: float
     area_below_m2: float
     z_below_m: float | None
+    x_above_m: float | None = None  # centroid of the area above, m from AP (None if empty)
 
 
 def split_profile(profile: Polygon, draft_mid_m: float, trim: float, lpp_m: float) -> Profile:
@@ -66,11 +67,11 @@ def split_profile(profile: Polygon, draft_mid_m: float, trim: float, lpp_m: floa
         area = float(part.area)
         if area > 0.0:
             c = part.centroid
-            out.append((area, float(c.y + draft_mid_m + 0.5 * trim - slope * c.x)))
+            out.append((area, float(c.y + draft_mid_m + 0.5 * trim - slope * c.x), float(c.x)))
         else:
-            out.append((0.0, None))
-    (a_up, z_up), (a_dn, z_dn) = out
-    return Profile(a_up, 0.0 if z_up is None else z_up, a_dn, z_dn)
+            out.append((0.0, None, None))
+    (a_up, z_up, x_up), (a_dn, z_dn, _) = out
+    return Profile(a_up, 0.0 if z_up is None else z_up, a_dn, z_dn, x_up)
 
 
 @dataclass(frozen=True)

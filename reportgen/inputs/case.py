@@ -13,6 +13,7 @@ from reportgen.files import read_input
 from reportgen.inputs import yamlread
 from reportgen.inputs.condition import Condition
 from reportgen.inputs.grain import check_grain
+from reportgen.inputs.special import check_special
 from reportgen.inputs.tablecheck import table_problems
 from reportgen.inputs.vessel import Vessel
 
@@ -112,6 +113,15 @@ def _check_observed(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> N
                          f"the marks, and the vessel file has no draught_marks")
 
 
+def _check_special(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> None:
+    sets = list(cond.criteria) if cond.criteria is not None else list(vessel.criteria)
+    problems = check_special(cond, vessel, sets)
+    if problems:
+        path, text = problems[0]
+        where = yamlread.where(path, yamlread.key_lines(raw))
+        raise InputError(f"{name}: {where}: {text}")
+
+
 def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_name: str,
                     approval: bytes | None = None, cond_label: str | None = None,
                     vessel_label: str | None = None, cond_data: object = None) -> Case:
@@ -134,6 +144,7 @@ def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_n
     _check_fillings(cond, vessel, cond_label, cond_raw)
     _check_criteria(cond, vessel, cond_label, cond_raw)
     _check_observed(cond, vessel, cond_label, cond_raw)
+    _check_special(cond, vessel, cond_label, cond_raw)
     check_grain(cond, vessel, cond_label, cond_raw)
     return Case(cond, vessel, cond_raw, vessel_raw, cond_name, vessel_name, approval)
 

@@ -21,6 +21,7 @@ from reportgen.inputs.fields import (
     WaterDensity,
 )
 from reportgen.inputs.grain import ConditionGrain
+from reportgen.inputs.special import ConditionPassengers
 from reportgen.inputs.vessel import known_sets
 
 CONDITION_FORMAT = "reportgen/condition-1"
@@ -32,6 +33,7 @@ class ConditionInfo(Model):
     voyage: Text | None = None
     date: IsoDate | None = None
     water_density: WaterDensity = 1.025  # t/m³
+    arrival: bool = False  # timber deck cargo water absorption (SPEC, is2008.timber)
 
 
 class Filling(Model):
@@ -69,6 +71,7 @@ class Item(Model):
     tcg: Num = 0.0  # m, + starboard
     wind_area: NonNegative | None = None  # m², adds to the lateral windage
     wind_z: Num | None = None  # m, centroid of wind_area above base
+    timber: bool = False  # timber deck cargo (IS Code 2008 Part A 3.3)
 
     @model_validator(mode="after")
     def _wind(self) -> Item:
@@ -129,6 +132,8 @@ class Condition(Model):
     free_surface: Literal["code", "actual", "maximum"] = "code"
     criteria: Annotated[list[str], AfterValidator(_chosen_sets)] | None = None
     weather: Weather | None = None
+    passengers: ConditionPassengers | None = None  # IS Code 2008 Part A 3.1
+    icing: Literal["full", "half", "none"] = "none"  # IS Code 2008 Part B chapter 6
     signatories: Signatories | None = None
     observed: Observed | None = None  # draughts read alongside (needs the vessel's marks)
     grain: ConditionGrain | None = None  # grain in bulk (SPEC grain.2008)

@@ -30,6 +30,8 @@ from reportgen.inputs.fields import (
 )
 from reportgen.inputs.grain import VesselGrain
 from reportgen.inputs.marks import DraughtMarks, check_marks
+from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
+from reportgen.inputs.tablecheck import table_problems
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -340,6 +342,8 @@ class Vessel(Model):
     limiting_gm: LimitingCurve | None = None  # the same as a minimum GM curve (gm:)
     hull: HullOffsets | None = None
     draught_marks: DraughtMarks | None = None  # x of the marks, m from AP
+    passengers: VesselPassengers | None = None  # IS Code 2008 Part A 3.1
+    icing: VesselIcing | None = None  # IS Code 2008 Part B chapter 6
     grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
     notes: Any = None
 
@@ -381,6 +385,12 @@ class Vessel(Model):
                                  f"tanks of this vessel that name each other")
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
+        problems = table_problems(self)
+        if problems:
+            raise ValueError("implausible tables: " + "; ".join(problems))
+        problems = vessel_problems(self)
+        if problems:
+            raise ValueError(problems[0])
         return self
 
     def _booklet_curve(self) -> None:

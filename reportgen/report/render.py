@@ -38,6 +38,7 @@ from reportgen.docinfo import RESULTS_NAME, ROLES, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
+from reportgen.report.figure_heeling import heeling_figure_svg
 from reportgen.report.figures import gz_figure_svg, weather_figure_svg
 from reportgen.report.grainfigure import grain_figure_svg
 from reportgen.results import Results
@@ -177,25 +178,33 @@ def approval_of(case: Any) -> dict | None:
     return approval.describe()
 
 
+def condition_context(case: Any, results: Results) -> dict[str, Any]:
+    """The values of templates/sheet_condition.html.j2 (a condition's part of a sheet, also
+    of a package) for one condition."""
+    figure_labels, _ = _labels()
+    rows = gz_table(results.gz.heel, results.gz.gz, results.gz.kn, results.angles.side)
+    return {
+        "r": results,
+        "docno": document_number(results.inputs_sha256),
+        "gz_rows": rows,
+        "gz_columns": table_columns(len(rows)),
+        "gz_figure": _svg_data_uri(gz_figure_svg(results, figure_labels)),
+        "weather_figure": (_svg_data_uri(weather_figure_svg(results, figure_labels))
+                           if results.weather is not None else None),
+        "heeling_figure": (_svg_data_uri(heeling_figure_svg(results, figure_labels))
+                           if results.passengers is not None
+                           and results.passengers.crowding_arm is not None else None),
+        "grain_figure": (_svg_data_uri(grain_figure_svg(results, figure_labels))
+                         if results.grain is not None else None),
+        "approval": approval_of(case),
+    }
+
+
 def sheet_html(case: Any, results: Results) -> str:
     """The sheet as HTML text (the input of WeasyPrint), from the results."""
-    figure_labels, _ = _labels()
     created = document_date(results.condition.date).strftime("%Y-%m-%dT%H:%M:%SZ")
-    rows = gz_table(results.gz.heel, results.gz.gz, results.gz.kn, results.angles.side)
     return template_environment().get_template("sheet.html.j2").render(
-        r=results,
-        docno=document_number(results.inputs_sha256),
-        created=created,
-        gz_rows=rows,
-        gz_columns=table_columns(len(rows)),
-        gz_figure=_svg_data_uri(gz_figure_svg(results, figure_labels)),
-        weather_figure=(_svg_data_uri(weather_figure_svg(results, figure_labels))
-                        if results.weather is not None else None),
-        grain_figure=(_svg_data_uri(grain_figure_svg(results, figure_labels))
-                      if results.grain is not None else None),
-        roles=ROLES,
-        approval=approval_of(case),
-    )
+        created=created, roles=ROLES, **condition_context(case, results))
 
 
 def _attachments(case: Any, results_json: str, when: datetime) -> list[weasyprint.Attachment]:

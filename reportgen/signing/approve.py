@@ -13,6 +13,7 @@ into a folder, laid out so that the condition finds its vessel by its own ``vess
 from __future__ import annotations
 
 import asyncio
+import dataclasses
 import posixpath
 from pathlib import Path
 from typing import Any
@@ -120,16 +121,23 @@ def _extract_inputs(sheet_path: Path, out_dir: Path, force: bool = False) -> lis
         inputs = doc.kind.inputs(doc.content, doc.files)
     except InputError as exc:
         raise InputError(f"{sheet_path}: {exc}") from None
-    condition_name = _safe_name(inputs.condition_name, "condition file")
-    try:
-        reference = vessel_reference(inputs)
-        condition_rel, vessel_rel = _layout(condition_name, reference)
-    except InputError as exc:
-        raise InputError(f"{sheet_path}: {exc}") from None
-    files = [(out_dir / condition_rel, inputs.condition), (out_dir / vessel_rel, inputs.vessel)]
-    if inputs.approval is not None:
-        files.append((out_dir / vessel_rel.with_name(vessel_rel.name + APPROVAL_SUFFIX),
-                      inputs.approval))
+    layout: dict[Path, bytes] = {}
+    for name, data in inputs.condition_files():  # a package holds several
+        one = dataclasses.replace(inputs, condition_name=name, condition=data, conditions=(),
+                                  read_as=())
+        try:
+            reference = vessel_reference(one)
+            condition_rel, vessel_rel = _layout(_safe_name(name, "condition file"), reference)
+        except InputError as exc:
+            raise InputError(f"{sheet_path}: {exc}") from None
+        wanted = [(condition_rel, data), (vessel_rel, inputs.vessel)]
+        if inputs.approval is not None:
+            wanted.append((vessel_rel.with_name(vessel_rel.name + APPROVAL_SUFFIX),
+                           inputs.approval))
+        for rel, contents in wanted:
+            if layout.setdefault(rel, contents) != contents:
+                raise InputError(f"{sheet_path}: two embedded files would be written to {rel}")
+    files = [(out_dir / rel, contents) for rel, contents in layout.items()]
     for path, _data in files:
         if path.parent.is_dir():
             check_output(path, force)

@@ -9,13 +9,14 @@ limits document registers its own ``Kind`` here with its own rebuild function.
 
 from __future__ import annotations
 
+import hashlib
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass
 from functools import lru_cache
 from importlib import import_module
 from typing import Any
 
-from reportgen.docinfo import RESULTS_NAME
+from reportgen.docinfo import RESULTS_NAME, TITLE_PREFIX
 from reportgen.errors import InputError
 from reportgen.provenance import approval_name, vessel_fingerprint
 from reportgen.results import RESULTS_FORMAT
@@ -30,6 +31,25 @@ class Inputs:
     vessel_name: str
     vessel: bytes
     approval: bytes | None
+    # a package: every condition file (attachment name, bytes) in order; the first one is
+    # also condition_name/condition
+    conditions: tuple[tuple[str, bytes], ...] = ()
+    # a package: the names each condition was read under (condition, vessel), as its
+    # embedded results record them, and the package's title
+    read_as: tuple[tuple[str, str], ...] = ()
+    title: str | None = None
+
+    def condition_files(self) -> tuple[tuple[str, bytes], ...]:
+        """Every embedded condition file, (attachment name, bytes), in order."""
+        return self.conditions or ((self.condition_name, self.condition),)
+
+    def sha256(self) -> str:
+        """SHA-256 of the condition files' bytes in order, then the vessel file's (SPEC)."""
+        digest = hashlib.sha256()
+        for _name, data in self.condition_files():
+            digest.update(data)
+        digest.update(self.vessel)
+        return digest.hexdigest()
 
 
 @dataclass(frozen=True)
@@ -51,6 +71,7 @@ class Kind:
     inputs: Callable[[Mapping[str, Any], Mapping[str, bytes]], Inputs]
     rebuild: Callable[[Inputs], Rebuilt]
     certified: Callable[[Mapping[str, Any], Inputs | None], dict]
+    title_prefix: str = TITLE_PREFIX  # the PDF title, before the document number
 
 
 def _sheet_inputs(data: Mapping[str, Any], files: Mapping[str, bytes]) -> Inputs:
@@ -128,7 +149,8 @@ def register(kind: Kind) -> None:
     KINDS[kind.name] = kind
 
 
-KIND_MODULES = ("reportgen.signing.limitskind",)  # each registers its Kind when imported
+KIND_MODULES = ("reportgen.signing.limitskind",  # each registers its Kind when imported
+                "reportgen.signing.packagekind")
 
 
 def kind_of(files: Mapping[str, bytes]) -> list[Kind]:

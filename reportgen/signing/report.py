@@ -46,7 +46,14 @@ def _certified_table(certified: dict) -> Table:
     table.add_column()
     table.add_row("Vessel", _t(f"{certified.get('vessel')} ({certified.get('identifier')})"))
     table.add_row("Vessel data fingerprint", _t(f"SHA-256 {certified.get('vessel_sha256')}"))
-    table.add_row("Condition", _t(certified.get("condition")))
+    if certified.get("kind") == "package":
+        table.add_row("Package", _t(certified.get("condition")))
+        for i, c in enumerate(certified.get("conditions") or [], 1):
+            table.add_row(f"Condition {i}", _t(f"{c.get('condition')}, "
+                                               f"{c.get('date') or 'no date'}: "
+                                               f"{'passes' if c.get('passed') else 'FAILS'}"))
+    else:
+        table.add_row("Condition", _t(certified.get("condition")))
     table.add_row("Date of condition", _t(certified.get("date") or "not stated"))
     table.add_row("Verdict", _t(verdict_words(certified),
                                 "green" if certified.get("passed") else "bold red"))

@@ -146,10 +146,10 @@ def read_document(data: bytes, path: Path) -> Document:
     return Document(path, data, reader, kind, files, content, sig_fields, _title(reader))
 
 
-def title_number(title: str | None) -> str | None:
-    """The document number printed in the title, if the title has the sheet's form."""
-    if title and title.startswith(TITLE_PREFIX):
-        return title[len(TITLE_PREFIX):].strip()
+def title_number(title: str | None, prefix: str = TITLE_PREFIX) -> str | None:
+    """The document number printed in the title, if the title has the form of its kind."""
+    if title and title.startswith(prefix):
+        return title[len(prefix):].strip()
     return None
 
 

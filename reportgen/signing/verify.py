@@ -10,7 +10,6 @@ Every failure is one sentence in ``problems``; exit 0 needs none and at least on
 
 from __future__ import annotations
 
-import hashlib
 import json
 from collections.abc import Sequence
 from pathlib import Path
@@ -51,7 +50,7 @@ def differing_keys(a: Any, b: Any, prefix: str = "") -> list[str]:
 def _inputs_check(doc: Document) -> tuple[Inputs | None, dict]:
     content = doc.content
     recorded = content.get("inputs_sha256")
-    docno = title_number(doc.title)
+    docno = title_number(doc.title, doc.kind.title_prefix)
     section: dict[str, Any] = {"recorded_sha256": recorded, "computed_sha256": None,
                                "document_number": docno, "problems": []}
     try:
@@ -60,9 +59,12 @@ def _inputs_check(doc: Document) -> tuple[Inputs | None, dict]:
         section["problems"].append(str(exc))
         section["ok"] = False
         return None, section
-    section.update(condition_file=inputs.condition_name, vessel_file=inputs.vessel_name,
+    names = [name for name, _data in inputs.condition_files()]
+    section.update(condition_file=", ".join(names), vessel_file=inputs.vessel_name,
                    approval_embedded=inputs.approval is not None)
-    computed = hashlib.sha256(inputs.condition + inputs.vessel).hexdigest()
+    if len(names) > 1:
+        section["condition_files"] = names
+    computed = inputs.sha256()
     section["computed_sha256"] = computed
     if computed != recorded:
         section["problems"].append("the SHA-256 of the embedded inputs differs from the "

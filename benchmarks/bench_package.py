@@ -1,0 +1,72 @@
+"""Timings of the calculation package (prints seconds; no assertions).
+
+- imports: a fresh interpreter importing reportgen's command line with weasyprint,
+  matplotlib, numpy and scipy (median of 3 runs), the yardstick of the target;
+- the whole process: `reportgen package conditions/*.yaml -o FILE` in a fresh interpreter
+  (reading, evaluating, two layouts, writing the PDF/A-3 file).
+
+Target (the package issue): the whole process within the import time + 0.5 s per condition.
+
+Run: .venv/bin/python benchmarks/bench_package.py
+"""
+
+from __future__ import annotations
+
+import statistics
+import subprocess
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[1]
+CONDITIONS = sorted((ROOT / "conditions").glob("*.yaml"))
+IMPORTS = ("import time; t = time.perf_counter(); "
+           "import reportgen.cli, weasyprint, matplotlib, numpy, scipy; "
+           "print(time.perf_counter() - t)")
+PER_CONDITION_S = 0.5
+
+
+def import_seconds(runs: int = 3) -> float:
+    """Median wall time of the imports in a fresh interpreter, s."""
+    times = []
+    for _ in range(runs):
+        out = subprocess.run([sys.executable, "-c", IMPORTS], capture_output=True, text=True,
+                             check=True)
+        times.append(float(out.stdout.strip().splitlines()[-1]))
+    return statistics.median(times)
+
+
+def package_seconds(conditions: list[Path], out: Path) -> float:
+    """Wall time of the whole `reportgen package` process, s."""
+    start = time.perf_counter()
+    done = subprocess.run([sys.executable, "-m", "reportgen", "package",
+                           *map(str, conditions), "-o", str(out), "--force"],
+                          capture_output=True, text=True, check=False)
+    seconds = time.perf_counter() - start
+    if done.returncode not in (0, 1):
+        raise SystemExit(f"reportgen package failed: {done.stderr}")
+    return seconds
+
+
+def main() -> int:
+    if not CONDITIONS:
+        print("no demo conditions in conditions/*.yaml")
+        return 1
+    imports = import_seconds()
+    print(f"import reportgen.cli, weasyprint, matplotlib, numpy, scipy: {imports:.2f} s "
+          f"(median of 3)")
+    with tempfile.TemporaryDirectory() as folder:
+        total = package_seconds(CONDITIONS, Path(folder) / "package.pdf")
+    n = len(CONDITIONS)
+    target = imports + PER_CONDITION_S * n
+    print(f"package of the {n} demo conditions, whole process: {total:.2f} s "
+          f"({(total - imports) / n:.2f} s per condition beyond the imports)")
+    verdict = "meets" if total <= target else "misses"
+    print(f"target: import time + {PER_CONDITION_S} s per condition = {target:.2f} s "
+          f"({verdict} it)")
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,55 @@
+"""The command that gathers several conditions of one vessel into one document: package."""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+import click
+
+from reportgen.cli import main, progress
+
+
+@main.command(epilog="""\b
+Examples:
+  reportgen package conditions/*.yaml -o out/package.pdf
+  reportgen package departure.yaml arrival.yaml -o voyage-12.pdf --title "Voyage 12"
+\b
+Every condition must name a vessel file with the same bytes. Exit status: 0 the package is
+written and every condition passes; 1 written, but a condition fails a criterion; 2 bad input
+or an output that cannot be written (nothing is written).""")
+@click.argument("conditions", nargs=-1, required=True, type=click.Path(path_type=Path))
+@click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
+              help="The PDF to write.")
+@click.option("--title", default=None, help="The package's title (default: the vessel's "
+              "loading conditions).")
+@click.option("--force", is_flag=True, help="Replace an existing file.")
+def package(conditions: tuple[Path, ...], output: Path, title: str | None,
+            force: bool) -> None:
+    """Write one calculation package of several conditions (PDF/A-3, inputs embedded)."""
+    from reportgen.files import check_output
+    from reportgen.inputs import load_case
+    from reportgen.pipeline import evaluate
+    from reportgen.report.package import make_package, write_package
+
+    check_output(output, force)
+    with progress("package", 2 * len(conditions) + 1) as advance:
+        cases = []
+        for path in conditions:
+            cases.append(load_case(path))
+            advance()
+
+        def counted(case):
+            results = evaluate(case)
+            advance()
+            return results
+
+        pkg = make_package(cases, title, evaluate=counted)
+        write_package(pkg, output, force=force)
+        advance()
+    failed = [m.results.condition.title for m in pkg.members if not m.results.passed]
+    verdict = ("every condition meets every criterion" if not failed else
+               f"{len(failed)} of {len(pkg.members)} conditions FAIL at least one criterion")
+    click.echo(f"{output}: package of {len(pkg.members)} conditions written; {verdict}",
+               err=True)
+    sys.exit(1 if failed else 0)
