@@ -70,6 +70,7 @@ ER_AFT, ER_FORE = 5.0, 18.0  # engine room bulkheads
 HOLD_1 = (18.0, 53.0)  # hold bulkheads, x from AP
 HOLD_2 = (53.0, 90.5)
 COLLISION_BHD = 90.5
+DRAUGHT_MARKS = {"aft": 2.5, "mid": 48.5, "fore": 95.0}  # x of the marks, m from AP
 # Grain (International Grain Code, Part B; reportgen.hull.grainholds): invented hatchways 9 m
 # wide; Vd1 = 430 mm for a boundary distance of 5.0 m (table B 1-1) with girders 600 mm deep.
 GRAIN_HATCH_HALF = 4.5
@@ -393,6 +394,8 @@ def vessel_text() -> str:
         + "# exposed decks, hatch covers and house tops (invented)",
         "calculation: {method: tables, wind_lever: half_draft, full_percent: 98.0, "
         + "gz_beyond_flooding: exclude}",
+        "draught_marks: {" + ", ".join(f"{k}: {_f(v, 2)}" for k, v in DRAUGHT_MARKS.items())
+        + "}",
         *_grain_lines(hull),
         "hull:",
         "  density: 1.025",

@@ -5,6 +5,7 @@ from __future__ import annotations
 from dataclasses import asdict
 
 from reportgen import NAME, __version__
+from reportgen import draughts as marks_rules
 from reportgen.assemble_extras import icing_section, passengers_section, timber_section
 from reportgen.criteria.core import Check
 from reportgen.criteria.sets import SETS
@@ -166,6 +167,9 @@ def results(up: Upright, k: AtKG, fsc: float, limits: dict | None = None) -> Res
         "angles": angles_section(up, k),
         "weather": weather_section(k.weather),
         "load_line": load_line_section(up),
+        "draught_marks": None if up.at_marks is None else marks_rules.marks_section(
+            up.case.vessel.draught_marks.model_dump(), up.at_marks),
+        "observed": None if up.survey is None else marks_rules.observed_section(up.survey),
         "timber": timber_section(up.extras),
         "passengers": passengers_section(up.extras, k.state.passengers),
         "icing": icing_section(up.extras),

@@ -14,12 +14,14 @@ from typing import Any, Literal
 
 from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_validator
 
+from reportgen.results_draughts import DraughtMarks, Observed
 from reportgen.results_special import Icing, Passengers, Timber
 
 RESULTS_FORMAT = "reportgen/results-1"
 DECIMALS = 6  # every float in the document is rounded to this many decimals
 OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison", "timber",
-                     "passengers", "icing")  # left out of the JSON when None
+                     "passengers", "icing", "draught_marks",
+                     "observed")  # left out of the JSON when None
 
 
 def clean(value: Any) -> Any:
@@ -328,6 +330,8 @@ class Results(Section):
     angles: Angles
     weather: Weather | None = None
     load_line: LoadLine | None = None
+    draught_marks: DraughtMarks | None = None
+    observed: Observed | None = None
     grain: Grain | None = None
     limits: Limits | None = None
     timber: Timber | None = None

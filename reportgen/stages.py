@@ -9,12 +9,13 @@ arrays and plain values.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 from scipy.interpolate import PPoly
 
 from reportgen import angles as angle_rules
+from reportgen import draughts as marks_rules
 from reportgen import extras as allowance_stage
 from reportgen import grain as grain_rules
 from reportgen import plausible
@@ -64,6 +65,8 @@ class Upright:
     warnings: tuple[str, ...]
     grain: GrainCargo | None = None  # grain in bulk (Grain Code), None without
     extras: allowance_stage.Extras = NO_EXTRAS  # timber, passengers, ice
+    at_marks: dict[str, float] | None = None  # extreme draught at each mark, m
+    survey: marks_rules.Survey | None = None  # the draughts read alongside, worked
 
 
 @dataclass(frozen=True)
@@ -205,6 +208,29 @@ def _load_line(case: Case, vd: VesselData, fl: Floating) -> tuple[LoadLine | Non
     return ll, [text]
 
 
+def _marks(case: Case, vd: VesselData, loading: Loading, fl: Floating):
+    """(extreme draughts at the marks, the survey of the draughts read) or Nones."""
+    v, obs = case.vessel, case.condition.observed
+    if v.draught_marks is None:
+        return None, None
+    p = v.particulars
+    x = v.draught_marks.model_dump()
+    at = marks_rules.draughts_at_marks(x, fl.draughts.mid, fl.trim, p.length_bp,
+                                       p.keel_thickness)
+    if obs is None:
+        return at, None
+    if vd.hydro is None:
+        raise InputError("observed: the displacement at the draughts read comes from the "
+                         "hydrostatic table, and the vessel file has none (make it with "
+                         "reportgen tables)")
+    readings = {k: (getattr(obs, k).port, getattr(obs, k).starboard) for k in x}
+    stated = obs.density is not None
+    rho = obs.density if stated else case.condition.condition.water_density
+    s = marks_rules.survey(readings, x, at, vd.hydro, p.length_bp, p.breadth, p.depth,
+                           p.keel_thickness, rho, loading.totals.displacement, obs.tolerance)
+    return at, s if stated else replace(s, density_stated=False)
+
+
 def _scan_heels(method: str, v) -> list[float] | None:
     """The heels KN is known at: the hull route's scan, or the cross curves' heels."""
     if method == "hull":
@@ -274,8 +300,11 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
         warnings += grain_rules.cargo_warnings(
             "grain.2008" in sets, _scan_heels(method, v),
             has_list(loading.totals.tcg))
+    at_marks, survey = _marks(case, vd, loading, fl)
+    if survey is not None:
+        warnings += marks_rules.survey_warnings(survey, c.condition.water_density)
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
-                   tuple(warnings), cargo, extras)
+                   tuple(warnings), cargo, extras, at_marks=at_marks, survey=survey)
 
 
 def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:

@@ -50,6 +50,38 @@ def _heel_text(heel: float | None) -> str:
     return f"{abs(heel):.2f}° to {'starboard' if heel > 0 else 'port'}"
 
 
+def _observed_lines(r: Results) -> list[str]:
+    """The draughts at the marks and the draught survey of the readings (reportgen.draughts)."""
+    lines = []
+    if r.draught_marks is not None:
+        m = r.draught_marks
+        lines.append(f"  At the marks (extreme): aft {m.aft.draft:.3f} m   midships "
+                     f"{m.mid.draft:.3f} m   fore {m.fore.draft:.3f} m   (x {m.aft.x:g}, "
+                     f"{m.mid.x:g}, {m.fore.x:g} m from AP)")
+    o = r.observed
+    if o is None:
+        return lines
+    if o.basis == "even_keel":
+        table = (f"Δ at the quarter mean {o.displacement_table:.1f} t   first trim correction "
+                 f"{o.first_trim_correction:+.1f} t   second {o.second_trim_correction:+.1f} t")
+    else:
+        table = f"Δ of the table at the quarter mean and the trim read {o.displacement_table:.1f} t"
+    verdict = f"within {o.tolerance:g} %" if o.within else f"BEYOND {o.tolerance:g} %"
+    lines += [
+        "\nDraughts read alongside (draught survey, UN/ECE code steps)",
+        (f"  Read (mean of port and starboard): aft {o.aft.mean:.3f} m   midships "
+         f"{o.mid.mean:.3f} m   fore {o.fore.mean:.3f} m"),
+        (f"  At the perpendiculars (moulded): aft {o.draft_aft:.3f} m   midships "
+         f"{o.draft_mean:.3f} m   fore {o.draft_fore:.3f} m"),
+        (f"  Trim {o.trim:+.3f} m   List {o.list:+.2f}°   Hog (+)/sag (−) {o.hog:+.3f} m   "
+         f"Quarter mean {o.quarter_mean:.3f} m"),
+        f"  {table}   density {o.density_correction:+.1f} t",
+        (f"  Δ from the draughts {o.displacement:.1f} t   from the loading {o.calculated:.1f} t"
+         f"   difference {o.difference.t:+.1f} t ({o.difference.percent:+.2f} %): {verdict}"),
+    ]
+    return lines
+
+
 def margin_text(r: Results) -> str:
     """The KG margin in words (results `limits`, SPEC.md "Limits")."""
     m = r.limits
@@ -114,6 +146,8 @@ def render_summary(r: Results) -> str:
     con.print(f"  KMt {hy.kmt:.3f} m   KG {hy.kg_solid:.3f} m   FSC {hy.fsc:.3f} m   "
               f"KG corrected {hy.kg_fluid:.3f} m")
     con.print(f"  GM {hy.gm_solid:.3f} m   GM corrected {hy.gm_fluid:.3f} m")
+    for line in _observed_lines(r):
+        con.print(line, markup=False)
     con.print(f"\nAngles (towards {an.side})")
     flood = f"{an.flooding:.1f}° ({an.flooding_source}"
     flood += f", {an.flooding_opening})" if an.flooding_opening else ")"

@@ -106,6 +106,13 @@ def _check_criteria(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> N
                              f"permitted_criteria: {', '.join(allowed)})")
 
 
+def _check_observed(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> None:
+    if cond.observed is not None and vessel.draught_marks is None:
+        where = yamlread.where(("observed",), yamlread.key_lines(raw))
+        raise InputError(f"{name}: {where}: draughts read at the marks need the positions of "
+                         f"the marks, and the vessel file has no draught_marks")
+
+
 def _check_special(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> None:
     sets = list(cond.criteria) if cond.criteria is not None else list(vessel.criteria)
     problems = check_special(cond, vessel, sets)
@@ -136,6 +143,7 @@ def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_n
                          f"table; make the tables first with 'reportgen tables'")
     _check_fillings(cond, vessel, cond_label, cond_raw)
     _check_criteria(cond, vessel, cond_label, cond_raw)
+    _check_observed(cond, vessel, cond_label, cond_raw)
     _check_special(cond, vessel, cond_label, cond_raw)
     check_grain(cond, vessel, cond_label, cond_raw)
     return Case(cond, vessel, cond_raw, vessel_raw, cond_name, vessel_name, approval)

@@ -95,6 +95,22 @@ class Weather(Model):
         return self
 
 
+class Reading(Model):
+    port: Positive  # extreme draught read at the mark on the port side, m
+    starboard: Positive  # m
+
+
+class Observed(Model):
+    """The draughts read at the marks (extreme, m) and the water alongside (SPEC.md)."""
+
+    aft: Reading
+    mid: Reading
+    fore: Reading
+    density: WaterDensity | None = None  # t/m³, of the water alongside (default: the
+    # condition's water_density)
+    tolerance: Annotated[float, Field(gt=0, le=5)] = 0.5  # % of displacement
+
+
 class Signatories(Model):
     prepared_by: Text | None = None
     checked_by: Text | None = None
@@ -119,5 +135,6 @@ class Condition(Model):
     passengers: ConditionPassengers | None = None  # IS Code 2008 Part A 3.1
     icing: Literal["full", "half", "none"] = "none"  # IS Code 2008 Part B chapter 6
     signatories: Signatories | None = None
+    observed: Observed | None = None  # draughts read alongside (needs the vessel's marks)
     grain: ConditionGrain | None = None  # grain in bulk (SPEC grain.2008)
     notes: Any = None

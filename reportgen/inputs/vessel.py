@@ -29,6 +29,7 @@ from reportgen.inputs.fields import (
     increasing,
 )
 from reportgen.inputs.grain import VesselGrain
+from reportgen.inputs.marks import DraughtMarks, check_marks
 from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
 from reportgen.inputs.tablecheck import table_problems
 
@@ -340,6 +341,7 @@ class Vessel(Model):
     limiting_kg: LimitingCurve | None = None  # the booklet's curve (criteria set booklet.limits)
     limiting_gm: LimitingCurve | None = None  # the same as a minimum GM curve (gm:)
     hull: HullOffsets | None = None
+    draught_marks: DraughtMarks | None = None  # x of the marks, m from AP
     passengers: VesselPassengers | None = None  # IS Code 2008 Part A 3.1
     icing: VesselIcing | None = None  # IS Code 2008 Part B chapter 6
     grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
@@ -358,6 +360,7 @@ class Vessel(Model):
                              "offsets, and this file has none; give hull offsets (hull:) or the "
                              "booklet's flooding_angle table (no approximation of θf is safe "
                              "enough to print)")
+        check_marks(self.draught_marks, self.particulars.length_bp)
         self._booklet_curve()
         named = getattr(self.flooding_angle, "opening", None) or []
         unknown = {n for row in named for n in (row if isinstance(row, list) else [row])} - {

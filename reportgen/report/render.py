@@ -61,6 +61,8 @@ DECIMALS = {
     "lever4": 4,  # m, the small wind levers
     "fsm": 1,  # t·m
     "percent": 1,  # %
+    "percent2": 2,  # %, the draught survey's difference and tolerance
+    "mct2": 2,  # t·m/cm, the draught survey's MCT (the second trim correction by hand)
     "volume": 1,  # m³
     "density": 4,  # t/m³
     "angle": 1,  # deg

@@ -1,0 +1,29 @@
+"""The vessel file's `draught_marks` (SPEC.md, "Draught marks and observed draughts"): x of
+the aft, midships and forward marks, m from AP; the marks read extreme draughts."""
+
+from __future__ import annotations
+
+from pydantic import model_validator
+
+from reportgen.inputs.fields import Model, Num
+
+
+class DraughtMarks(Model):
+    """x of the draught marks, m from AP."""
+
+    aft: Num
+    mid: Num
+    fore: Num
+
+    @model_validator(mode="after")
+    def _order(self) -> DraughtMarks:
+        if not self.aft < self.mid < self.fore:
+            raise ValueError("the marks must lie aft < mid < fore (x from AP, m)")
+        return self
+
+
+def check_marks(marks: DraughtMarks | None, lpp_m: float) -> None:
+    """ValueError when a mark lies off the ship (x outside −0.05·Lpp … 1.05·Lpp, SPEC.md)."""
+    if marks is not None and not (-0.05 * lpp_m <= marks.aft and marks.fore <= 1.05 * lpp_m):
+        raise ValueError(f"draught_marks: the marks must lie on the ship, x from "
+                         f"{-0.05 * lpp_m:g} to {1.05 * lpp_m:g} m (−0.05·Lpp to 1.05·Lpp)")
