@@ -25,13 +25,13 @@ from reportgen.inputs.fields import (
     Point2,
     Positive,
     Text,
-    equal_lengths,
     increasing,
 )
 from reportgen.inputs.grain import VesselGrain
 from reportgen.inputs.marks import DraughtMarks, check_marks
 from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
 from reportgen.inputs.tablecheck import table_problems
+from reportgen.inputs.tanks import Tank, TankTable, default_role  # noqa: F401 (re-exported)
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
@@ -204,67 +204,6 @@ class Windage(Model):
         if not poly.is_valid or poly.area <= 0:
             raise ValueError("profile must be a simple closed polygon with positive area")
         return self
-
-
-class TankTable(Model):
-    sounding: Increasing  # m
-    volume: Increasing  # m³
-    lcg: Column  # m from AP
-    vcg: Column  # m above base
-    tcg: Column  # m, + starboard
-    fsi: list[NonNegative]  # m⁴
-
-    @model_validator(mode="after")
-    def _rows(self) -> TankTable:
-        equal_lengths(self, ["sounding", "volume", "lcg", "vcg", "tcg", "fsi"])
-        if self.volume[0] < 0:
-            raise ValueError("volume must not be negative")
-        return self
-
-
-def default_role(content: str) -> Literal["fixed", "consumable"]:
-    """IS Code 2008 Part B 3.1.3 (SPEC.md): ballast and cargo tanks hold a fixed filling,
-    every other content is a consumable."""
-    return "fixed" if content.strip().lower() in ("ballast", "cargo") else "consumable"
-
-
-def _extent(values: list[float]) -> list[float]:
-    if len(values) != 2 or not values[0] < values[1]:
-        raise ValueError("give [from, to] with from < to (m)")
-    return values
-
-
-Extent = Annotated[list[Num], AfterValidator(_extent)]
-
-
-class TankGeometry(Model):
-    """A tank as a box (m, SPEC axes) clipped by the hull: `reportgen tables` makes its table."""
-
-    x: Extent  # m from AP
-    y: Extent  # m from the centreline, + starboard
-    z: Extent  # m above base
-
-
-class Tank(Model):
-    id: Text
-    name: Text
-    content: Text
-    role: Literal["fixed", "consumable"] | None = None  # default by content (default_role)
-    pair: Text | None = None  # id of its transverse twin (Part B 3.1.4), given on both
-    density: Density  # t/m³
-    geometry: TankGeometry | None = None  # the box its table is made from (`tables`)
-    table: TankTable | None = None  # required unless geometry is given
-    ullage_reference: Positive | None = None  # m above the sounding zero
-
-    @model_validator(mode="after")
-    def _table_or_geometry(self) -> Tank:
-        if self.table is None and self.geometry is None:
-            raise ValueError("give the tank's table, or its geometry for `reportgen tables`")
-        return self
-
-    @property
-    def fs_role(self) -> Literal["fixed", "consumable"]:
-        return self.role if self.role is not None else default_role(self.content)
 
 
 class Station(Model):
