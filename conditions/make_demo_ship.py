@@ -352,6 +352,17 @@ def _grain_lines(hull: Hull) -> list[str]:
     return lines
 
 
+# The demo ship's limiting KG curve (IS Code 2008 Part A 2.2 and 2.3), as printed by
+# `reportgen limits conditions/vessels/linnet-demo.yaml --booklet-block` on the tables made
+# from these offsets at trims -3..4 m; held as the booklet's curve (criteria set booklet.limits).
+LIMITING_KG_LINES = [
+    'limiting_kg:',
+    '  source: "made by reportgen limits 0.1.0 from linnet-demo.yaml (SHA-256 19f4a8ef9388), upright at trim 0 m, criteria is2008.general, is2008.weather"',
+    '  displacement: [2056.872, 2374.78, 2692.689, 3010.597, 3328.505, 3646.414, 3964.322, 4282.23, 4600.139, 4918.047, 5235.955, 5553.863, 5871.772, 6189.68, 6507.588, 6825.497, 7143.405, 7461.313, 7779.222, 8097.13]',
+    '  kg: [6.19449, 6.612832, 6.938684, 7.049056, 6.945357, 6.716691, 6.522034, 6.368643, 6.254371, 6.171145, 6.107893, 6.049215, 5.998306, 5.916032, 5.77679, 5.459115, 5.195836, 4.966279, 4.763376, 4.601667]',
+]
+
+
 def vessel_text() -> str:
     """The whole -hull.yaml vessel file as text (deterministic)."""
     st = stations()
@@ -368,6 +379,8 @@ def vessel_text() -> str:
         "  grain: hold volumes, centres and volumetric heeling moments computed from the hold "
         + "boundaries inside the hull offsets by the International Grain Code's assumptions "
         + "(Part B) by conditions/make_demo_ship.py",
+        "  limiting_kg: the limiting KG curve made by `reportgen limits` from this file's "
+        + "tables (general and weather criteria, upright at trim 0)",
         "particulars:",
         f"  length_bp: {_f(LPP, 2)}",
         f"  breadth: {_f(BREADTH, 2)}",
@@ -388,8 +401,9 @@ def vessel_text() -> str:
     for t in tank_defs():
         lines += _tank_lines(t, hull)
     lines += [
-        "criteria: [is2008.general, is2008.weather]",
+        "criteria: [is2008.general, is2008.weather, booklet.limits]",
         "permitted_criteria: [is2008.timber, grain.2008]",
+        *LIMITING_KG_LINES,
         "icing: {deck_area: 1350.0, deck_lcg: 47.0, deck_vcg: 9.6}  "
         + "# exposed decks, hatch covers and house tops (invented)",
         "calculation: {method: tables, wind_lever: half_draft, full_percent: 98.0, "
