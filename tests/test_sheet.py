@@ -162,12 +162,14 @@ def test_printed_numbers_equal_the_results_document(failing):
     gm_printed = float(_value_after(lines, "GM fluid = KMt − KG fluid").replace("−", "-"))
     assert abs(gm_printed - h["gm_fluid"]) <= 0.0005
     # every criterion row: required (with its sense), attained, margin and the word
-    rows = [line for line in lines if "IS Code 2008, Part A" in line and "FAILED" in line]
+    rows = [line for line in lines if line.endswith("✗ FAILED")]
     assert len(rows) == sum(not c["passed"] for c in d["criteria"])
     for c in d["criteria"]:
         quantity = {"m·rad": "area", "m": "lever", "deg": "angle"}[c["unit"]]
         attained = format_number(c["attained"], quantity)
-        assert any(c["reference"] in line and f" {attained} " in line for line in lines), c["id"]
+        # (the booklet curve's reference wraps in its column: its number row is checked alone)
+        assert any((c["reference"] in line or c["set"] == "booklet.limits")
+                   and f" {attained} " in line for line in lines), c["id"]
 
 
 def test_gz_table_prints_every_5_degrees(passing):

@@ -112,6 +112,8 @@ def _edited_vessel(text: str) -> str:
 
     data["cross_curves"]["kn"] = edit(data["cross_curves"]["kn"], lambda v: v * 1.25)
     data["hydrostatics"]["kmt"] = edit(data["hydrostatics"]["kmt"], lambda v: v + 0.05)
+    if "limiting_kg" in data:  # the forger raises the booklet's curve as well
+        data["limiting_kg"]["kg"] = [v + 1.0 for v in data["limiting_kg"]["kg"]]
     return yaml.safe_dump(data, sort_keys=False)
 
 
