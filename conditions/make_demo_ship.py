@@ -357,7 +357,7 @@ def _grain_lines(hull: Hull) -> list[str]:
 # from these offsets at trims -3..4 m; held as the booklet's curve (criteria set booklet.limits).
 LIMITING_KG_LINES = [
     'limiting_kg:',
-    '  source: "made by reportgen limits 0.1.0 from linnet-demo.yaml (SHA-256 19f4a8ef9388), upright at trim 0 m, criteria is2008.general, is2008.weather"',
+    '  source: "reportgen limits, upright at trim 0"',
     '  displacement: [2056.872, 2374.78, 2692.689, 3010.597, 3328.505, 3646.414, 3964.322, 4282.23, 4600.139, 4918.047, 5235.955, 5553.863, 5871.772, 6189.68, 6507.588, 6825.497, 7143.405, 7461.313, 7779.222, 8097.13]',
     '  kg: [6.19449, 6.612832, 6.938684, 7.049056, 6.945357, 6.716691, 6.522034, 6.368643, 6.254371, 6.171145, 6.107893, 6.049215, 5.998306, 5.916032, 5.77679, 5.459115, 5.195836, 4.966279, 4.763376, 4.601667]',
 ]

@@ -53,9 +53,7 @@ def checks(s: State) -> list[Check]:
         return [Check("kg_limit", "KG within the booklet's limiting KG", "no curve given",
                       None, None, "m", False, SET, "at_most")]
     required = c.at(disp)
-    # the curve's own source stays in the vessel file (limiting_kg.source), which the sheet
-    # embeds; the vessel's `source` block, printed on the sheet, says where the curve is from
-    ref = "booklet curve, linear in displacement"
+    ref = f"{c.source} (linear in displacement)"
     if c.kind == "kg":
         attained = s.kg_fluid_m
         passed = required is not None and attained is not None and attained <= required
