@@ -17,6 +17,9 @@ Examples:
   reportgen limits conditions/vessels/linnet-demo.yaml --trim 1.0 --json > limits.json
   reportgen limits conditions/vessels/linnet-demo.yaml -o out/limits.pdf
 \b
+With -o, the vessel's approval VESSEL.yaml.p7s, when it lies beside the vessel file, is
+embedded and the document prints who approved the data (as a sheet does).
+\b
 Exit status: 0 the limits were found (and written); 2 bad input (nothing is written).""")
 @click.argument("vessel", type=click.Path(path_type=Path))
 @click.option("--trim", "trim", type=float, default=0.0, show_default=True,
@@ -37,15 +40,18 @@ def limits(vessel: Path, trim: float, as_json: bool, output: Path | None, bookle
 
     raw = read_input(vessel, "vessel data file")
     model = parse_vessel(raw, str(vessel))
+    approval = None
     if output is not None:
         check_output(output, force)
+        approval = _approval_beside(vessel, raw)
     count = len(displacements(vessel_data(model))) if model.has_tables else None
     with progress("limits", count) as advance:
         doc = limiting_curve(model, raw, vessel.name, trim, advance)
     if output is not None:
         from reportgen.report.limitsdoc import write_limits
 
-        write_limits(raw, doc, output, force=force, vessel_sets=list(model.criteria))
+        write_limits(raw, doc, output, force=force, vessel_sets=list(model.criteria),
+                     approval=approval)
         click.echo(f"{output}: limits document written", err=True)
     if as_json:
         click.echo(to_json(doc), nl=False)
@@ -58,6 +64,21 @@ def limits(vessel: Path, trim: float, as_json: bool, output: Path | None, bookle
 
         click.echo(render_limits(doc))
     sys.exit(0)
+
+
+def _approval_beside(vessel: Path, raw: bytes) -> bytes | None:
+    """VESSEL.yaml.p7s beside the vessel file (SPEC "Verification": the document embeds it and
+    prints who approved the data), checked against the vessel bytes now; None without one."""
+    from reportgen.docinfo import APPROVAL_SUFFIX
+    from reportgen.files import read_input
+    from reportgen.report.render import approval_described
+
+    path = vessel.with_name(vessel.name + APPROVAL_SUFFIX)
+    if not path.is_file():
+        return None
+    p7s = read_input(path, "vessel data approval")
+    approval_described(p7s, raw, vessel.name)  # refused here, before the curve is computed
+    return p7s
 
 
 @main.command(epilog="""\b

@@ -250,17 +250,23 @@ def approve(vessel_file: Path, key_path: Path | None, cert_path: Path | None,
 
 
 @main.command(epilog="""\b
-Example:
+Examples:
   reportgen extract out/ballast-signed.pdf -o out/ballast-inputs
   reportgen check out/ballast-inputs/ballast-departure.yaml --json
+  reportgen extract out/limits-signed.pdf -o out/limits-inputs
+  (a limits document gives its vessel file; the command to re-run it is printed on stderr)
 """ + EXIT_CODES)
 @click.argument("sheet_pdf", metavar="SHEET.pdf", type=click.Path(path_type=Path))
 @click.option("-o", "--output", "out_dir", required=True, type=click.Path(path_type=Path),
-              help="Folder to write the condition and vessel files (and approval) into.")
+              help="Folder to write the condition and vessel files (and approval) into "
+                   "(a limits document: its vessel file and approval).")
 @click.option("--force", is_flag=True, help="Replace existing files.")
 def extract(sheet_pdf: Path, out_dir: Path, force: bool) -> None:
-    """Write a sheet's embedded input files, ready to check again."""
-    from reportgen.signing.approve import extract_inputs
+    """Write a document's embedded input files, ready to run again."""
+    from reportgen.signing.approve import extract_and_hint
 
-    for path in extract_inputs(sheet_pdf, out_dir, force=force):
+    written, hint = extract_and_hint(sheet_pdf, out_dir, force=force)
+    for path in written:
         click.echo(str(path))
+    if hint is not None:
+        click.echo(f"re-run: {hint}", err=True)

@@ -1,7 +1,9 @@
 """The limits document: limits-1 -> HTML (templates/limits.html.j2) -> PDF/A-3b (WeasyPrint).
 
-Made like the calculation sheet (reportgen.report.render): the vessel file byte for byte and
-``limits.json`` embedded as PDF/A-3 associated files, three empty signature fields over the
+Made like the calculation sheet (reportgen.report.render): the vessel file byte for byte,
+its approval (VESSEL.yaml.p7s, SPEC "Verification") when given, and ``limits.json`` embedded as
+PDF/A-3 associated files, who approved the vessel data and when printed (or "vessel data not
+approved"), three empty signature fields over the
 signature block, the rendering stack in the document information, a fixed date (1970-01-01:
 the vessel file states none), so that equal inputs give equal bytes and ``verify`` can render
 it again and compare (reportgen.signing.recompute, kind "limits").
@@ -19,6 +21,7 @@ import weasyprint
 from reportgen.criteria.sets import SETS
 from reportgen.docinfo import ROLES, document_number
 from reportgen.files import check_output, write_atomic
+from reportgen.provenance import approval_name
 from reportgen.limitcurve import LIMITS_NAME, NOT_ON_CURVE, REQUEST_NAME, to_json
 from reportgen.report import fonts
 from reportgen.report.limitsfig import limits_figure_svg
@@ -29,6 +32,7 @@ from reportgen.report.render import (
     _source_date_epoch,
     _stylesheet,
     _svg_data_uri,
+    approval_described,
     template_environment,
 )
 
@@ -39,8 +43,10 @@ def _labels() -> tuple[dict[str, str], dict[str, str]]:
     return dict(module.figure_labels), dict(module.attachment_labels)
 
 
-def limits_html(doc: dict, vessel_sets: list[str] | None = None) -> str:
-    """The limits document as HTML text (the input of WeasyPrint)."""
+def limits_html(doc: dict, vessel_sets: list[str] | None = None,
+                approval: dict | None = None) -> str:
+    """The limits document as HTML text (the input of WeasyPrint); ``approval``: who approved
+    the vessel data (reportgen.report.render.approval_described), None when nobody did."""
     figure_labels, _ = _labels()
     titles = {c["id"]: c["title"] for c in doc.get("criteria_list", [])}
     return template_environment().get_template("limits.html.j2").render(
@@ -53,13 +59,17 @@ def limits_html(doc: dict, vessel_sets: list[str] | None = None) -> str:
         request=REQUEST_NAME,
         figure=_svg_data_uri(limits_figure_svg(doc, figure_labels)),
         roles=ROLES,
+        approval=approval,
     )
 
 
 def render_limits(vessel_name: str, vessel_bytes: bytes, doc: dict,
-                  vessel_sets: list[str] | None = None) -> bytes:
-    """The limits document as PDF/A-3b bytes; equal inputs give equal bytes."""
+                  vessel_sets: list[str] | None = None, approval: bytes | None = None) -> bytes:
+    """The limits document as PDF/A-3b bytes; equal inputs give equal bytes. ``approval``: the
+    vessel file's VESSEL.yaml.p7s, embedded and printed (refused when it does not sign
+    ``vessel_bytes``)."""
     _, words = _labels()
+    approved = approval_described(approval, vessel_bytes, vessel_name)
     data = to_json(doc)
     when = FIXED_EPOCH
     made = {"created": when, "modified": when}
@@ -68,8 +78,10 @@ def render_limits(vessel_name: str, vessel_bytes: bytes, doc: dict,
                               description=words["vessel"], relationship="Source", **made),
         weasyprint.Attachment(string=data.encode("utf-8"), name=LIMITS_NAME,
                               description=words["limits"], relationship="Data", **made),
-    ]
-    document = weasyprint.HTML(string=limits_html(doc, vessel_sets)).render(
+    ] + ([weasyprint.Attachment(string=approval, name=approval_name(vessel_name),
+                                description=words["approval"], relationship="Source", **made)]
+         if approval is not None else [])
+    document = weasyprint.HTML(string=limits_html(doc, vessel_sets, approved)).render(
         stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT, font_config=fonts.font_config())
     identifier = hashlib.sha256((doc["inputs_sha256"] + data).encode("utf-8")).hexdigest()
     with _source_date_epoch(when):
@@ -79,9 +91,10 @@ def render_limits(vessel_name: str, vessel_bytes: bytes, doc: dict,
 
 
 def write_limits(vessel_bytes: bytes, doc: dict, out_path: str | os.PathLike,
-                 force: bool = False, vessel_sets: list[str] | None = None) -> None:
+                 force: bool = False, vessel_sets: list[str] | None = None,
+                 approval: bytes | None = None) -> None:
     """Write the limits document atomically; never replaces a file without ``force``."""
     target = Path(out_path)
     check_output(target, force)
     write_atomic(target, render_limits(doc["inputs"]["vessel_file"], vessel_bytes, doc,
-                                       vessel_sets), force=force)
+                                       vessel_sets, approval), force=force)

@@ -162,20 +162,25 @@ def _svg_data_uri(svg: str) -> str:
     return "data:image/svg+xml;base64," + base64.b64encode(svg.encode("utf-8")).decode("ascii")
 
 
-def approval_of(case: Any) -> dict | None:
-    """Who approved the case's vessel data and when (reportgen.provenance), or None.
+def approval_described(p7s: bytes | None, vessel_bytes: bytes, vessel_name: str) -> dict | None:
+    """Who approved the vessel data and when (reportgen.provenance), or None without ``p7s``.
 
-    An approval that does not sign exactly these vessel bytes is refused (InputError): the
-    sheet must not print an approval that is not there.
+    An approval that does not sign exactly these vessel bytes is refused (InputError): a
+    document must not print an approval that is not there.
     """
-    p7s = getattr(case, "vessel_approval", None)
     if p7s is None:
         return None
-    approval = provenance.read_approval(p7s, case.vessel_bytes)
+    approval = provenance.read_approval(p7s, vessel_bytes)
     if not approval.intact:
-        raise InputError(f"{case.vessel_name}{provenance.APPROVAL_SUFFIX}: {approval.problem}; "
+        raise InputError(f"{vessel_name}{provenance.APPROVAL_SUFFIX}: {approval.problem}; "
                          f"remove it or approve the vessel data again")
     return approval.describe()
+
+
+def approval_of(case: Any) -> dict | None:
+    """``approval_described`` of the case's vessel data (its VESSEL.yaml.p7s, if any)."""
+    return approval_described(getattr(case, "vessel_approval", None), case.vessel_bytes,
+                              case.vessel_name)
 
 
 def condition_context(case: Any, results: Results) -> dict[str, Any]:

@@ -7,7 +7,9 @@ attribute (RFC 5652, 11.3): the design office or class approves a vessel data se
 
 ``extract_inputs`` writes a document's embedded condition file, vessel file (and approval)
 into a folder, laid out so that the condition finds its vessel by its own ``vessel:`` path:
-``reportgen check`` on the written condition then gives the document's results.
+``reportgen check`` on the written condition then gives the document's results. A limits
+document has no condition: its vessel file (and approval) go to the top of the folder, and
+``reportgen limits`` on it at the document's trim gives the document's limits.
 """
 
 from __future__ import annotations
@@ -15,6 +17,7 @@ from __future__ import annotations
 import asyncio
 import dataclasses
 import posixpath
+import shlex
 from pathlib import Path
 from typing import Any
 
@@ -22,8 +25,8 @@ from reportgen.errors import InputError
 from reportgen.files import check_output, command_scope, make_folder, read_input, write_atomic
 from reportgen.provenance import APPROVAL_SUFFIX, read_approval
 from reportgen.signing import identity as ids
-from reportgen.signing.recompute import check_vessel, vessel_reference
-from reportgen.signing.sheetfile import read_document
+from reportgen.signing.recompute import Inputs, check_vessel, vessel_reference
+from reportgen.signing.sheetfile import Document, read_document
 from reportgen.signing.trust import signing_usage_problems, validity_problem
 
 MAX_CONDITION_DEPTH = 8  # "../" levels a condition's vessel path may climb when extracted
@@ -110,8 +113,32 @@ def _layout(condition_name: str, vessel_ref: str) -> tuple[Path, Path]:
     return condition, vessel
 
 
-def _extract_inputs(sheet_path: Path, out_dir: Path, force: bool = False) -> list[Path]:
-    """Write the embedded input files of a document into ``out_dir``; the written paths.
+def _limits_layout(sheet_path: Path, inputs: Inputs) -> dict[Path, bytes]:
+    """A limits document's inputs: its vessel file (and approval) at the top of the folder;
+    the request (the trim) is not a file that `reportgen limits` reads (see ``rerun_hint``)."""
+    try:
+        vessel = Path(_safe_name(inputs.vessel_name, "vessel file"))
+    except InputError as exc:
+        raise InputError(f"{sheet_path}: {exc}") from None
+    layout = {vessel: inputs.vessel}
+    if inputs.approval is not None:
+        layout[vessel.with_name(vessel.name + APPROVAL_SUFFIX)] = inputs.approval
+    return layout
+
+
+def rerun_hint(doc: Document, written: list[Path]) -> str | None:
+    """The command that makes a limits document's limits again from the extracted vessel file
+    (its trim is in limits.json, not in a file); None for other documents."""
+    if doc.kind.name != "limits":
+        return None
+    trim = float(doc.content["trim"])  # checked by the kind's inputs()
+    return f"reportgen limits {shlex.quote(str(written[0]))} --trim {trim:g}"
+
+
+def _extract_inputs(sheet_path: Path, out_dir: Path,
+                    force: bool = False) -> tuple[list[Path], str | None]:
+    """Write the embedded input files of a document into ``out_dir``: the written paths and,
+    for a limits document, the command that re-runs it (``rerun_hint``).
 
     Existing files are kept unless ``force``; nothing outside ``out_dir`` is written.
     """
@@ -121,6 +148,8 @@ def _extract_inputs(sheet_path: Path, out_dir: Path, force: bool = False) -> lis
         inputs = doc.kind.inputs(doc.content, doc.files)
     except InputError as exc:
         raise InputError(f"{sheet_path}: {exc}") from None
+    if doc.kind.name == "limits":
+        return _write_layout(_limits_layout(sheet_path, inputs), out_dir, force, doc)
     layout: dict[Path, bytes] = {}
     for name, data in inputs.condition_files():  # a package holds several
         one = dataclasses.replace(inputs, condition_name=name, condition=data, conditions=(),
@@ -137,6 +166,11 @@ def _extract_inputs(sheet_path: Path, out_dir: Path, force: bool = False) -> lis
         for rel, contents in wanted:
             if layout.setdefault(rel, contents) != contents:
                 raise InputError(f"{sheet_path}: two embedded files would be written to {rel}")
+    return _write_layout(layout, out_dir, force, doc)
+
+
+def _write_layout(layout: dict[Path, bytes], out_dir: Path, force: bool,
+                  doc: Document) -> tuple[list[Path], str | None]:
     files = [(out_dir / rel, contents) for rel, contents in layout.items()]
     for path, _data in files:
         if path.parent.is_dir():
@@ -144,7 +178,8 @@ def _extract_inputs(sheet_path: Path, out_dir: Path, force: bool = False) -> lis
     for path, data in files:
         make_folder(path.parent)
         write_atomic(path, data, force=force)
-    return [path for path, _data in files]
+    written = [path for path, _data in files]
+    return written, rerun_hint(doc, written)
 
 
 def approve_vessel(vessel_path: Path, out_path: Path | None = None, **kw: Any) -> dict:
@@ -154,6 +189,12 @@ def approve_vessel(vessel_path: Path, out_path: Path | None = None, **kw: Any) -
 
 
 def extract_inputs(sheet_path: Path, out_dir: Path, force: bool = False) -> list[Path]:
+    """The paths ``extract_and_hint`` writes."""
+    return extract_and_hint(sheet_path, out_dir, force)[0]
+
+
+def extract_and_hint(sheet_path: Path, out_dir: Path,
+                     force: bool = False) -> tuple[list[Path], str | None]:
     """``_extract_inputs`` in a command scope of its own (outputs never replace inputs)."""
     with command_scope():
         return _extract_inputs(sheet_path, out_dir, force)

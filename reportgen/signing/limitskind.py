@@ -1,6 +1,8 @@
 """The limits document as a kind of signed document (reportgen.signing.recompute.Kind).
 
-Its inputs are the embedded vessel file and the request (the trim, from limits.json), whose
+Its inputs are the embedded vessel file (with its approval VESSEL.yaml.p7s when embedded,
+checked by ``verify --vessel-trust`` as for a sheet) and the request (the trim, from
+limits.json), whose
 canonical bytes (reportgen.limitcurve.request_bytes) stand in the condition's place in the
 inputs hash: inputs_sha256 = SHA-256(request bytes + vessel bytes). Verify recomputes the curve
 from the vessel bytes at that trim and renders the document again.
@@ -14,7 +16,7 @@ from typing import Any
 
 from reportgen.docinfo import LIMITS_FORMAT, LIMITS_NAME, LIMITS_REQUEST_NAME
 from reportgen.errors import InputError
-from reportgen.provenance import vessel_fingerprint
+from reportgen.provenance import approval_name, vessel_fingerprint
 from reportgen.signing.recompute import Inputs, Kind, Rebuilt, register
 
 
@@ -31,7 +33,7 @@ def _inputs(data: Mapping[str, Any], files: Mapping[str, bytes]) -> Inputs:
     from reportgen.limitcurve import request_bytes
 
     return Inputs(LIMITS_REQUEST_NAME, request_bytes(float(trim)), vessel_name,
-                  files[vessel_name], None)
+                  files[vessel_name], files.get(approval_name(vessel_name)))
 
 
 def _trim(inputs: Inputs) -> float:
@@ -48,7 +50,7 @@ def _rebuild(inputs: Inputs) -> Rebuilt:
     vessel = parse_vessel(inputs.vessel, inputs.vessel_name)
     doc = limiting_curve(vessel, inputs.vessel, inputs.vessel_name, _trim(inputs))
     return Rebuilt(to_json(doc), render_limits(inputs.vessel_name, inputs.vessel, doc,
-                                               list(vessel.criteria)))
+                                               list(vessel.criteria), inputs.approval))
 
 
 def _certified(data: Mapping[str, Any], inputs: Inputs | None) -> dict:
