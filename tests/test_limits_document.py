@@ -127,3 +127,120 @@ def test_booklet_block_round_trip(small_box, tmp_path):
     r = evaluate_path(write_case(tmp_path, condition_dict([cargo]), vessel))
     c = {c.id: c for c in r.criteria}["kg_limit"]
     assert c.required == pytest.approx(doc["rows"][1]["kg_max"], abs=1e-6)
+
+
+def _cli(*args: str):
+    """The command in this process (click's runner): as a user runs it, without the start-up."""
+    from click.testing import CliRunner
+
+    from reportgen.cli import main
+
+    return CliRunner().invoke(main, list(args))
+
+
+def _page_text(pdf) -> str:
+    from pypdf import PdfReader
+
+    return " ".join(" ".join(p.extract_text() for p in PdfReader(pdf).pages).split())
+
+
+def test_approved_vessel_limits_are_embedded_printed_verified_and_extracted(small_box, tmp_path):
+    """SPEC "Verification" (VESSEL.yaml.p7s beside the vessel file is embedded under the vessel
+    attachment's name plus .p7s, the document prints who approved the data and when, verify
+    --vessel-trust checks it) and SPEC "Command line" (extract gives the embedded input files
+    back, ready to re-run). The signing time printed is checked against the CMS signingTime
+    attribute read independently with asn1crypto (RFC 5652 11.3)."""
+    from asn1crypto import cms
+
+    from reportgen.signing import sign_document
+    from reportgen.signing.identity import keygen
+    from reportgen.signing.sheetfile import embedded_files
+    from reportgen.signing.verify import verify_document
+
+    ship = tmp_path / "ship"
+    ship.mkdir()
+    vessel = ship / "box.yaml"
+    vessel.write_bytes(small_box.read_bytes())
+    keygen("Invented Class Society, approvals", tmp_path / "office")
+    keygen("Invented Preparer", tmp_path / "prep")
+    run = _cli("approve", str(vessel), "--key", str(tmp_path / "office/key.pem"),
+               "--cert", str(tmp_path / "office/cert.pem"))
+    assert run.exit_code == 0, run.stderr
+    p7s = (ship / "box.yaml.p7s").read_bytes()
+    pdf = tmp_path / "limits.pdf"
+    run = _cli("limits", str(vessel), "--trim", "0.5", "-o", str(pdf))
+    assert run.exit_code == 0, run.stderr
+    files = embedded_files(pdf.read_bytes(), pdf)
+    assert files["box.yaml.p7s"] == p7s and files["box.yaml"] == vessel.read_bytes()
+    signed_attrs = cms.ContentInfo.load(p7s)["content"]["signer_infos"][0]["signed_attrs"]
+    when = next(a["values"][0].native for a in signed_attrs if a["type"].native == "signing_time")
+    text = _page_text(pdf)
+    assert "signed by Invented Class Society, approvals" in text
+    assert when.strftime("%Y-%m-%d %H:%M UTC") in text and "not approved" not in text
+
+    signed = tmp_path / "signed.pdf"
+    sign_document(pdf, signed, "prepared", key_path=tmp_path / "prep/key.pem",
+                  cert_path=tmp_path / "prep/cert.pem")
+    report = verify_document(signed, [tmp_path / "prep/cert.pem"],
+                             vessel_trust=[tmp_path / "office/cert.pem"])
+    assert report["ok"], report["problems"]
+    assert report["vessel_data"]["approval"]["trusted"] is True
+    report = verify_document(signed, [tmp_path / "prep/cert.pem"],
+                             vessel_trust=[tmp_path / "prep/cert.pem"])  # not the approver
+    assert not report["ok"]
+
+    out = tmp_path / "back"
+    run = _cli("extract", str(signed), "-o", str(out))
+    assert run.exit_code == 0, run.stderr
+    assert sorted(p.name for p in out.iterdir()) == ["box.yaml", "box.yaml.p7s"]
+    assert (out / "box.yaml.p7s").read_bytes() == p7s
+    assert f"reportgen limits {out / 'box.yaml'} --trim 0.5" in run.stderr
+    again = _cli("limits", str(out / "box.yaml"), "--trim", "0.5", "--json")
+    assert again.exit_code == 0, again.stderr
+    assert again.stdout == files["limits.json"].decode("utf-8")  # re-run gives the same limits
+    run = _cli("extract", str(signed), "-o", str(out))  # never replaced without --force
+    assert run.exit_code == 2 and "Traceback" not in run.stderr
+
+
+def test_unapproved_vessel_limits_say_so(small_box, tmp_path):
+    """SPEC "Verification": without VESSEL.yaml.p7s the document says "vessel data not
+    approved", embeds no approval, and verify --vessel-trust fails; an approval of other bytes
+    beside the vessel file is refused (exit 2, nothing written)."""
+    from reportgen.inputs.case import parse_vessel
+    from reportgen.limitcurve import limiting_curve
+    from reportgen.report.limitsdoc import write_limits
+    from reportgen.signing import sign_document
+    from reportgen.signing.identity import keygen
+    from reportgen.signing.sheetfile import embedded_files
+    from reportgen.signing.verify import verify_document
+
+    raw = small_box.read_bytes()
+    vessel = parse_vessel(raw, "box.yaml")
+    pdf = tmp_path / "limits.pdf"
+    write_limits(raw, limiting_curve(vessel, raw, "box.yaml"), pdf,
+                 vessel_sets=list(vessel.criteria))
+    assert "vessel data not approved" in _page_text(pdf)
+    assert set(embedded_files(pdf.read_bytes(), pdf)) == {"box.yaml", "limits.json"}
+    keygen("Invented Preparer", tmp_path / "prep")
+    signed = tmp_path / "signed.pdf"
+    sign_document(pdf, signed, "prepared", key_path=tmp_path / "prep/key.pem",
+                  cert_path=tmp_path / "prep/cert.pem")
+    report = verify_document(signed, [tmp_path / "prep/cert.pem"],
+                             vessel_trust=[tmp_path / "prep/cert.pem"])
+    assert not report["ok"]
+    assert any("no approval signature" in p for p in report["problems"])
+    out = tmp_path / "back"
+    run = _cli("extract", str(signed), "-o", str(out))
+    assert run.exit_code == 0, run.stderr
+    assert [p.name for p in out.iterdir()] == ["box.yaml"]
+
+    ship = tmp_path / "ship"
+    ship.mkdir()
+    (ship / "box.yaml").write_bytes(raw + b"# edited after approval\n")
+    run = _cli("approve", str(ship / "box.yaml"), "--key", str(tmp_path / "prep/key.pem"),
+               "--cert", str(tmp_path / "prep/cert.pem"))
+    assert run.exit_code == 0, run.stderr
+    (ship / "box.yaml").write_bytes(raw)  # the approval no longer signs these bytes
+    run = _cli("limits", str(ship / "box.yaml"), "-o", str(tmp_path / "bad.pdf"))
+    assert run.exit_code == 2 and "does not sign these vessel data" in run.stderr
+    assert not (tmp_path / "bad.pdf").exists() and "Traceback" not in run.stderr
