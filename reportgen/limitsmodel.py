@@ -22,7 +22,8 @@ class LimitsVessel(Section):
 
 
 class Search(Section):
-    start: F  # m, the KG the search starts from
+    start: F  # m, the KG the walk starts from at the first displacement (at each next one the
+    # search starts on the same steps near the limits already found)
     step_max: F  # m, largest step of the upward walk on KG
     tolerance: F  # m, the final step (kg_max is its passing end)
 

@@ -134,3 +134,80 @@ def test_margin_is_in_the_results_and_the_summary(tmp_path):
     assert r.limits.gm_min == pytest.approx(_kmt(7.0) - r.limits.kg_max, abs=1e-6)
     assert "KG may rise by" in render_summary(r)
     assert "kg_margin" in r.to_dict()["limits"]
+
+
+def test_curve_searched_from_the_neighbour_equals_the_whole_walk_and_the_closed_forms():
+    """The vessel's curve starts each displacement's search near the limits already found
+    (reportgen.limits.largest_kg_near); on the box, whose criteria change from passing to
+    failing once as KG rises, it gives at every displacement exactly the limit of the whole
+    walk from KG 0, and the closed form of θ0 ≤ 16° (IS Code 2008 2.3.1.2, lw1 of 2.3.2.2 on
+    the wall-sided GZ) within 1 mm at T = 5 and 7 m."""
+    from eval_box import DRAFTS, kn_table
+
+    keep = [i for i, t in enumerate(DRAFTS) if t in (2.0, 3.0, 4.0, 5.0, 7.0, 9.0, 11.5)]
+    d = yaml.safe_load(yaml.safe_dump(_vessel(TALL)[0].model_dump(mode="json",
+                                                                  exclude_none=True)))
+    d["cross_curves"] = {"trim": "free", "heel": d["cross_curves"]["heel"],
+                         "displacement": [RHO * L * B * DRAFTS[i] for i in keep],
+                         "kn": [list(kn_table()[i]) for i in keep]}
+    raw = yaml.safe_dump(d, sort_keys=False).encode()
+    v = parse_vessel(raw, "box.yaml")
+    doc = limitcurve.limiting_curve(v, raw, "box.yaml")
+    assert len(doc["rows"]) == len(keep)
+    vd = limitcurve.vessel_data(v)
+    governing = set()
+    for row in doc["rows"]:
+        up = limitcurve.upright_at(v, raw, "box.yaml", vd, row["displacement"], 0.0,
+                                   limitcurve.curve_sets(v))
+        whole = limits.limit_of(up, 0.0)
+        assert row["kg_max"] == limits.reported(whole.kg_max_m)
+        assert row["governing"] == whole.governing
+        governing.add(row["governing"])
+    assert len(governing) >= 2  # the search crosses from one governing criterion to another
+    by_draft = {round(r["displacement"] / (RHO * L * B), 4): r for r in doc["rows"]}
+    for draft in (5.0, 7.0):
+        assert by_draft[draft]["governing"] == "weather_heel"
+        assert by_draft[draft]["kg_max"] == pytest.approx(_kg_weather_heel(draft, TALL),
+                                                          abs=0.001)
+
+
+@pytest.mark.parametrize("hint", [0.0, 1.0, 3.1, 3.2, 5.0, 9.9])
+def test_search_from_any_hint_finds_a_known_threshold(hint):
+    """A criterion that passes exactly while KG ≤ π m (an analytic threshold): from any
+    starting point the search ends within 1 mm below π, at the same value as the whole walk
+    from KG 0, and a hint near π needs fewer evaluations than the walk."""
+    from reportgen.criteria.core import Check
+
+    calls = []
+
+    def evaluate(kg: float) -> list[Check]:
+        calls.append(kg)
+        return [Check("kg_pi", "KG at most π", "analytic", math.pi, kg, "m", kg <= math.pi,
+                      "test", "at_most")]
+
+    found = limits.largest_kg_near(evaluate, hint, 10.0)
+    n_near = len(calls)
+    calls.clear()
+    walked = limits.largest_kg(evaluate, 0.0, 10.0)
+    assert found == walked
+    assert math.pi - 0.001 <= found.kg_max_m <= math.pi and found.governing == "kg_pi"
+    if abs(hint - math.pi) < 0.2:
+        assert n_near < len(calls)
+
+
+def test_reused_kn_is_the_same_spline():
+    """ReusedKN gives scipy's PPoly derivative and antiderivative values (scipy as the
+    reference) and makes each once."""
+    import numpy as np
+    from scipy.interpolate import CubicSpline
+
+    heel = np.arange(0.0, 91.0, 5.0)
+    spline = CubicSpline(heel, np.sin(np.radians(heel)) * 9.0)
+    plain = spline  # a PPoly
+    reused = limits.ReusedKN.construct_fast(plain.c, plain.x, plain.extrapolate, plain.axis)
+    x = np.linspace(0.0, 90.0, 37)
+    for nu in (1, 2):
+        assert np.array_equal(reused.derivative(nu)(x), plain.derivative(nu)(x))
+        assert reused.derivative(nu) is reused.derivative(nu)
+    assert np.array_equal(reused.antiderivative()(x), plain.antiderivative()(x))
+    assert np.array_equal(reused(x), plain(x))
