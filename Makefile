@@ -39,4 +39,4 @@ bench: $(STAMP)
 	[ $$missed = 0 ] || { echo "some benchmark targets were missed (see above)"; exit 1; }
 
 clean:
-	rm -rf out/*.pdf out/*.txt out/*.yaml out/ids out/work build *.egg-info
+	rm -rf out/*.pdf out/*.txt out/*.yaml out/ids out/work out/limits-inputs build *.egg-info

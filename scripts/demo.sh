@@ -138,12 +138,27 @@ for c in conditions/*.yaml; do
   printf '   %-40s %s\n' "$name" "$(grep -m1 '^KG margin' "out/$name.txt" | sed 's/^KG margin: //')"
 done
 
-echo "== Limiting KG curve of the demo ship (signed by the demo design office, verified)"
-$RG limits "$ship" > out/limits.txt || exit 1
-$RG limits "$ship" -o out/limits.pdf --force 2>/dev/null || exit 1
+echo "== Limiting KG curve of the demo ship (approved data embedded; signed by the demo design office, verified)"
+approved_ship=out/work/vessels/$(basename "$ship")  # with its approval beside it
+$RG limits "$approved_ship" > out/limits.txt || exit 1
+# the booklet curve the demo ship carries (limiting_kg, criteria set booklet.limits) is the
+# curve reportgen limits makes from its tables
+while IFS= read -r line; do
+  grep -qxF -- "$line" "$ship" \
+    || { echo "   $ship: its limiting_kg differs from what reportgen limits makes: $line"; exit 1; }
+done < <($RG limits "$ship" --booklet-block | grep -E '^  (displacement|kg): ')
+$RG limits "$approved_ship" -o out/limits.pdf --force 2>/dev/null || exit 1
 rm -f out/limits-signed.pdf
 $RG sign out/limits.pdf --role prepared --key out/ids/design-office/key.pem \
     --cert out/ids/design-office/cert.pem -o out/limits-signed.pdf 2>/dev/null || exit 1
-$RG verify out/limits-signed.pdf --trust out/ids/design-office/cert.pem > out/limits.verify.txt \
+$RG verify out/limits-signed.pdf --trust out/ids/design-office/cert.pem \
+    --vessel-trust out/ids/design-office/cert.pem --vessel "$ship" > out/limits.verify.txt \
   || { echo "   out/limits-signed.pdf: VERIFICATION FAILED (see out/limits.verify.txt)"; exit 1; }
-echo "   out/limits.txt, out/limits.pdf, out/limits-signed.pdf (verified: out/limits.verify.txt)"
+echo "   out/limits.txt, out/limits.pdf, out/limits-signed.pdf (verified: out/limits.verify.txt);"
+echo "   the booklet curve in $ship is the curve reportgen limits makes"
+rm -rf out/limits-inputs
+$RG extract out/limits-signed.pdf -o out/limits-inputs > /dev/null 2>&1 || exit 1
+cmp -s "out/limits-inputs/$(basename "$ship")" "$ship" \
+  && cmp -s "out/limits-inputs/$(basename "$ship").p7s" "$approved_ship.p7s" \
+  || { echo "   out/limits-inputs: the extracted inputs differ from the vessel file and its approval"; exit 1; }
+echo "   out/limits-inputs: the vessel file and its approval extracted from the signed limits"
