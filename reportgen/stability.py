@@ -92,62 +92,82 @@ class CrossCurves:
         return PPoly.construct_fast(np.ascontiguousarray(coef), self._rows.x)
 
 
+class KNCurve:
+    """KN(θ°) of one displacement and trim (m), θ over −θmax..θmax: the spline, with its
+    derivatives, its antiderivative and its values on the GRID_STEP_DEG grid made once, so
+    that the GZ curve at another KG (the limits search) costs a few array operations."""
+
+    def __init__(self, spline: PPoly, heel_max_deg: float) -> None:
+        self.spline = spline
+        self.heel_max_deg = float(heel_max_deg)
+        self.d1 = spline.derivative()
+        self.d2 = spline.derivative(2)
+        self.integral = spline.antiderivative()  # ∫KN dθ°, m·deg
+        n = round(2.0 * self.heel_max_deg / GRID_STEP_DEG) + 1
+        self.grid_heel = np.linspace(-self.heel_max_deg, self.heel_max_deg, n)
+        self.grid_kn = spline(self.grid_heel)
+        self.grid_sin = np.sin(self.grid_heel * DEG)
+        self.grid_cos = np.cos(self.grid_heel * DEG)
+
+    def __call__(self, heel_deg: float | np.ndarray) -> np.ndarray:
+        return self.spline(heel_deg)
+
+
+def kn_curve(spline: PPoly, heel_max_deg: float) -> KNCurve:
+    """The KN curve of a spline in heel (deg) defined to heel_max_deg."""
+    return KNCurve(spline, heel_max_deg)
+
+
 @dataclass(frozen=True)
 class GZCurve:
     """GZ(θ) = KN(θ) − KG_fluid·sin θ − TCG·cos θ (m), θ in degrees, + to starboard."""
 
-    kn: PPoly
+    kn: KNCurve
     kg_fluid_m: float
     tcg_m: float
-    heel_max_deg: float
+
+    @property
+    def heel_max_deg(self) -> float:
+        return self.kn.heel_max_deg
 
     def __call__(self, heel_deg: float | np.ndarray) -> np.ndarray:
         t = np.asarray(heel_deg, dtype=float) * DEG
-        return self.kn(heel_deg) - self.kg_fluid_m * np.sin(t) - self.tcg_m * np.cos(t)
+        return self.kn.spline(heel_deg) - self.kg_fluid_m * np.sin(t) - self.tcg_m * np.cos(t)
 
     def slope(self, heel_deg: float | np.ndarray) -> np.ndarray:
         """dGZ/dθ, m per degree."""
         t = np.asarray(heel_deg, dtype=float) * DEG
-        return self._dkn(heel_deg) - DEG * (self.kg_fluid_m * np.cos(t)
-                                            - self.tcg_m * np.sin(t))
+        return self.kn.d1(heel_deg) - DEG * (self.kg_fluid_m * np.cos(t)
+                                             - self.tcg_m * np.sin(t))
 
     def curvature(self, heel_deg: float | np.ndarray) -> np.ndarray:
         """d²GZ/dθ², m per degree²."""
         t = np.asarray(heel_deg, dtype=float) * DEG
-        return self._ddkn(heel_deg) + DEG * DEG * (self.kg_fluid_m * np.sin(t)
+        return self.kn.d2(heel_deg) + DEG * DEG * (self.kg_fluid_m * np.sin(t)
                                                    + self.tcg_m * np.cos(t))
 
-    @cached_property
-    def _dkn(self) -> PPoly:
-        return self.kn.derivative()
-
-    @cached_property
-    def _ddkn(self) -> PPoly:
-        return self.kn.derivative(2)
-
-    @cached_property
+    @property
     def kn_integral(self) -> PPoly:
         """∫KN dθ° (m·deg), the antiderivative of the KN spline."""
-        return self.kn.antiderivative()
+        return self.kn.integral
 
     @cached_property
     def grid(self) -> tuple[np.ndarray, np.ndarray]:
         """(heel deg, GZ m) on a GRID_STEP_DEG grid over −θmax..θmax."""
-        n = round(2.0 * self.heel_max_deg / GRID_STEP_DEG) + 1
-        heel = np.linspace(-self.heel_max_deg, self.heel_max_deg, n)
-        return heel, self(heel)
+        k = self.kn
+        return k.grid_heel, k.grid_kn - self.kg_fluid_m * k.grid_sin - self.tcg_m * k.grid_cos
 
     def towards(self, side: Literal["starboard", "port"]) -> GZCurve:
         """The curve with heel measured towards `side`: GZ_side(φ) = s·GZ(s·φ), s = ±1; as KN
         is odd (odd data, symmetric knots), the port curve is KN with TCG reversed."""
         if side == "starboard":
             return self
-        return GZCurve(self.kn, self.kg_fluid_m, -self.tcg_m, self.heel_max_deg)
+        return GZCurve(self.kn, self.kg_fluid_m, -self.tcg_m)
 
 
-def gz_curve(kn: PPoly, kg_fluid_m: float, tcg_m: float, heel_max_deg: float) -> GZCurve:
-    """The GZ curve of a KN spline for KG_fluid and TCG (m)."""
-    return GZCurve(kn, float(kg_fluid_m), float(tcg_m), float(heel_max_deg))
+def gz_curve(kn: KNCurve, kg_fluid_m: float, tcg_m: float) -> GZCurve:
+    """The GZ curve of a KN curve for KG_fluid and TCG (m)."""
+    return GZCurve(kn, float(kg_fluid_m), float(tcg_m))
 
 
 LIST_TCG_TOLERANCE_M = 1e-6  # |TCG| at or below this is no list (rounding of symmetric loads)

@@ -12,7 +12,6 @@ from __future__ import annotations
 from dataclasses import dataclass, replace
 
 import numpy as np
-from scipy.interpolate import PPoly
 
 from reportgen import angles as angle_rules
 from reportgen import draughts as marks_rules
@@ -30,11 +29,13 @@ from reportgen.loading import Loading, condition_loading
 from reportgen.loadline import SALT_WATER_T_M3, LoadLine, load_line, summer_row
 from reportgen.stability import (
     GZCurve,
+    KNCurve,
     equilibrium_heel,
     free_surface_correction,
     gz_curve,
     has_list,
     kg_corrected,
+    kn_curve,
     list_side,
     max_gz,
     metacentric_height,
@@ -55,7 +56,7 @@ class Upright:
     sets: list[str]
     loading: Loading
     floating: Floating
-    kn: PPoly  # KN(θ°) at the condition's displacement and trim, m
+    kn: KNCurve  # KN(θ°) at the condition's displacement and trim, m
     heel_max_deg: float
     angles: angle_rules.Angles
     wind: weather23.Wind | None
@@ -91,7 +92,7 @@ def _floating(case: Case, vd: VesselData, loading: Loading) -> Floating:
     return floating_on_tables(vd.hydro, t.displacement, rho, t.lcg, v.particulars.length_bp)
 
 
-def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[PPoly, float, list[str]]:
+def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[KNCurve, float, list[str]]:
     lpp = case.vessel.particulars.length_bp
     cross = vd.cross
     warnings = []
@@ -101,7 +102,8 @@ def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[PPoly, float, list[st
         warnings.append(f"The cross curves were {basis}, while the condition trims "
                         f"{fl.trim:+.2f} m (more than 0.5 % of Lpp): give cross curves at "
                         f"several trims, or choose calculation.method: hull.")
-    return cross.kn_spline(fl.displacement_table_t, fl.trim), cross.heel_max_deg, warnings
+    kn = kn_curve(cross.kn_spline(fl.displacement_table_t, fl.trim), cross.heel_max_deg)
+    return kn, cross.heel_max_deg, warnings
 
 
 def _hull_angle(case: Case, vd: VesselData, loading: Loading):
@@ -245,7 +247,8 @@ def _float(method: str, case: Case, vd: VesselData, loading: Loading):
     hull or None, warnings) of a loading, by the tables or on the hull."""
     if method == "hull":
         hull = _on_hull(case, vd, loading)
-        return hull.floating, hull.kn, hull.heel_max_deg, hull.immersion, []
+        kn = kn_curve(hull.kn, hull.heel_max_deg)
+        return hull.floating, kn, hull.heel_max_deg, hull.immersion, []
     fl = _floating(case, vd, loading)
     kn, heel_max, kn_warnings = _kn(case, vd, fl)
     return fl, kn, heel_max, None, kn_warnings
@@ -311,7 +314,7 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
     """The GZ curve, GM, weather quantities and checks at KG corrected (m)."""
     tcg = up.loading.totals.tcg
     gm = metacentric_height(up.floating.kmt, kg_fluid_m)
-    curve = gz_curve(up.kn, kg_fluid_m, tcg, up.heel_max_deg)
+    curve = gz_curve(up.kn, kg_fluid_m, tcg)
     side_curve = curve.towards(list_side(tcg))
     heel = equilibrium_heel(curve)
     flooding = up.angles.flooding.deg
