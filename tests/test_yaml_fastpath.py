@@ -10,6 +10,7 @@ from hypothesis import strategies as st
 
 from reportgen.inputs import yamlread
 
+FLOAT_TAG = "tag:yaml.org,2002:float"
 numbers = st.one_of(st.integers(-10**12, 10**12),
                     st.floats(allow_nan=False, allow_infinity=False, width=64))
 
@@ -30,3 +31,16 @@ def test_the_demo_files_read_as_the_safe_loader_reads_them():
     for path in sorted((ROOT / "conditions").rglob("*.yaml")):
         raw = path.read_bytes()
         assert yamlread.parse(raw, path.name) == yaml.safe_load(raw), path.name
+
+
+def test_rows_of_plain_numbers_take_the_fast_path(monkeypatch):
+    """A row of plain numbers never reaches PyYAML's per-scalar constructor (libyaml's parser
+    marks a plain scalar with the style "" where PyYAML's own marks it None: both are plain)."""
+    calls = []
+    table = dict(yamlread._Loader.yaml_constructors)
+    real = table[FLOAT_TAG]
+    table[FLOAT_TAG] = lambda loader, node: calls.append(node) or real(loader, node)
+    monkeypatch.setattr(yamlread._Loader, "yaml_constructors", table)
+    text = "row: [" + ", ".join(f"{i}.5" for i in range(100)) + "]\n"
+    assert yamlread.parse(text.encode(), "t")["row"][-1] == 99.5
+    assert calls == []

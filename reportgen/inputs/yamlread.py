@@ -113,7 +113,7 @@ def _plain_numbers(node: yaml.Node) -> list | None:
         return None
     out = []
     for child in node.value:
-        if not isinstance(child, yaml.ScalarNode) or child.style is not None:
+        if not isinstance(child, yaml.ScalarNode) or child.style:  # plain: None or ""
             return None
         tag, value = child.tag, child.value
         if tag == _FLOAT_TAG and _PLAIN_DECIMAL.fullmatch(value) and "." in value:
