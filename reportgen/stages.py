@@ -170,7 +170,7 @@ def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating,
         finder = _hull_angle(case, vd, loading) if needs_hull else None
     s = angle_rules.Situation(fl.displacement_table_t, fl.trim, fl.draughts.mid, finder)
     deck_points = None
-    if vd.hull is not None and finder is not None:
+    if finder is not None and vd.hull is not None:  # the hull is made only when needed
         from reportgen.hull.tables import deck_edge_points
 
         deck_points = deck_edge_points(vd.hull)

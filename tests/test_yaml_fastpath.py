@@ -22,9 +22,12 @@ def test_rows_of_numbers_read_as_the_safe_loader_reads_them(row):
 
 
 def test_values_that_are_not_plain_decimals_are_left_to_the_full_constructor():
-    text = ("a: [1_000, 0x1F, 017, .inf, -.nan, 1:30, '2.5', 2.5, 1e3, 1.0e3, 007, -0, yes]\n")
-    got, ref = yamlread.parse(text.encode(), "t")["a"], yaml.safe_load(text)["a"]
-    assert [repr(v) for v in got] == [repr(v) for v in ref]
+    text = ("a: [1_000, 0x1F, 017, .inf, -.nan, 1:30, '2.5', 2.5, 1e3, 1.0e3, 007, -0, yes, "
+            "1., +1.5, -01.5, 00, -0.0, 1.5e-3, 1.5E+3, 0b101, 190:20:30.15, 2026-12-03, "
+            "~, null, .5, -.5, 1__2.5]\nb: {1.5: x, 2: y, -3: z}\n")
+    got, ref = yamlread.parse(text.encode(), "t"), yaml.safe_load(text)
+    assert [repr(v) for v in got["a"]] == [repr(v) for v in ref["a"]]
+    assert got["b"] == ref["b"]
 
 
 def test_the_demo_files_read_as_the_safe_loader_reads_them():
