@@ -23,7 +23,7 @@ class PassengerDeck(Model):
     height above base (m), the transverse centre of that area (m from the centreline) and,
     optionally, its longitudinal centre (m from AP; default midships, stated on the sheet)."""
 
-    name: Text
+    name: Text  # the deck's name, printed on the sheet
     area: Positive  # m², on one side
     z: Num  # m above base, the deck
     y_crowded: Annotated[float, Field(gt=0)]  # m, transverse centre of the area on one side
@@ -33,17 +33,17 @@ class PassengerDeck(Model):
 class VesselPassengers(Model):
     mass_each: Annotated[float, Field(gt=0, le=0.5)] = 0.075  # t per person (Part A 3.1)
     vcg_above_deck: Annotated[float, Field(ge=0, le=3)] = 1.0  # m, standing passengers
-    decks: Annotated[list[PassengerDeck], Field(min_length=1)]
+    decks: Annotated[list[PassengerDeck], Field(min_length=1)]  # crowded from the top (Part A 3.1)
 
 
 class ConditionPassengers(Model):
-    number: Annotated[int, Field(ge=0, le=100000)]
+    number: Annotated[int, Field(ge=0, le=100000)]  # passengers on board, crowded at 4 per m²
 
 
 class VesselIcing(Model):
     """The exposed decks on which ice accretes: their area (m²) and centre (m)."""
 
-    deck_area: NonNegative  # m²
+    deck_area: NonNegative  # m², exposed weather decks and gangways
     deck_lcg: Num  # m from AP
     deck_vcg: Num  # m above base
 

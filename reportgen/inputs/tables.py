@@ -28,10 +28,10 @@ class Particulars(Model):
     breadth: Positive  # moulded B, m
     depth: Positive  # moulded depth to the freeboard deck at side, m
     summer_draft: Positive  # moulded summer load line draught, m
-    keel_thickness: NonNegative = 0.0  # m
-    bilge: Literal["round", "sharp"] = "round"
-    bilge_keel_area: NonNegative = 0.0  # Ak, m²
-    service_speed: Positive | None = None  # knots
+    keel_thickness: NonNegative = 0.0  # m; extreme draught = moulded + keel thickness
+    bilge: Literal["round", "sharp"] = "round"  # round | sharp: the factor k of Part A 2.3.4
+    bilge_keel_area: NonNegative = 0.0  # Ak, m²: bilge keels (both sides) + bar keel lateral area
+    service_speed: Positive | None = None  # knots, for the turning heel of Part A 3.1
 
     @model_validator(mode="after")
     def _draft_below_depth(self) -> Particulars:
@@ -77,14 +77,14 @@ class Hydrostatics(Model):
     density: Density = 1.025  # t/m³, the density the table was made at
     trims: Trims | None = None  # m, + by the stern; then columns other than draft are per trim
     draft: Increasing  # moulded, m (at midships when trims are given)
-    displacement: Rows  # t
+    displacement: Rows  # t, at `density`
     lcb: Rows  # m from AP
     lcf: Rows  # m from AP
-    kmt: Rows  # m
-    mct: Rows  # t·m/cm
-    tpc: Rows  # t/cm
-    lwl: Rows | None = None  # m
-    cb: Rows | None = None
+    kmt: Rows  # m, transverse KM above base
+    mct: Rows  # t·m/cm, moment to change trim 1 cm
+    tpc: Rows  # t/cm, tonnes per cm immersion
+    lwl: Rows | None = None  # m, waterline length (default length_bp)
+    cb: Rows | None = None  # block coefficient (default Δ/(ρ·Lwl·B·T)), for X2 of Part A 2.3.4
 
     @model_validator(mode="after")
     def _rows(self) -> Hydrostatics:
@@ -112,10 +112,10 @@ class Hydrostatics(Model):
 
 
 class CrossCurves(Model):
-    trim: Literal["free", "even_keel", "fixed"]
+    trim: Literal["free", "even_keel", "fixed"]  # how the table was made (stated on the sheet)
     trims: Trims | None = None  # m: the upright trims the tables were made at
-    heel: Increasing  # deg
-    displacement: Increasing  # t
+    heel: Increasing  # deg, from 0 to at least 60; negative heels by symmetry
+    displacement: Increasing  # t, strictly increasing, at the hydrostatic table's density
     kn: list[Column] | list[list[Column]]  # m: kn[i][j], or kn[k][i][j] with trims
 
     @model_validator(mode="after")

@@ -43,27 +43,27 @@ VESSEL_FORMAT = "reportgen/vessel-1"
 
 
 class VesselId(Model):
-    name: Text
-    identifier: Text
-    type: Text = "cargo"
+    name: Text  # the ship's name, printed on every document
+    identifier: Text  # the ship's identifier, printed beside its name on every document
+    type: Text = "cargo"  # the ship's type in a free word (general cargo, passenger, ...)
 
 
 class Lightship(Model):
-    mass: Positive  # t
-    lcg: Num  # m from AP
-    vcg: Num  # m above base
-    tcg: Num = 0.0  # m, + starboard
+    mass: Positive  # t, lightship mass
+    lcg: Num  # m from AP, lightship LCG
+    vcg: Num  # m above base, lightship VCG (KG)
+    tcg: Num = 0.0  # m from the centreline, + starboard
 
 
 Angle = Annotated[float, Field(ge=0, le=90)]  # 0: immersed already upright
 
 
 class AngleTable(Model):
-    trims: Trims | None = None  # m, + by the stern
-    displacement: Increasing  # t
+    trims: Trims | None = None  # m, + by the stern: the trims of the rows of `angle`
+    displacement: Increasing  # t, strictly increasing, at the hydrostatic table's density
     angle: list[Angle] | list[list[Angle]]  # deg: angle[i], or angle[k][i] with trims
-    # optional (flooding angle): the governing opening's name at each entry, as `angle`
-    opening: list[Text] | list[list[Text]] | None = None
+    opening: list[Text] | list[list[Text]] | None = None  # governing opening's name by entry
+    # (flooding_angle only) shaped as `angle`; each one of `openings`
 
     @model_validator(mode="after")
     def _rows(self) -> AngleTable:
@@ -73,14 +73,15 @@ class AngleTable(Model):
 
 
 class Opening(Model):
-    name: Text
+    name: Text  # the opening's name, printed when it governs θf
     x: Num  # m from AP
     y: Num  # m from centreline, + starboard
     z: Num  # m above base
 
 
 class Windage(Model):
-    profile: list[Point2]  # [x, z], m: closed polygon of the lateral projection
+    profile: list[Point2]  # [x, z], m: lateral projection of hull and superstructure
+    # a closed polygon (Part A 2.3.2.2: the lateral area A and its centre)
 
     @model_validator(mode="after")
     def _polygon(self) -> Windage:
@@ -110,7 +111,7 @@ class Station(Model):
 
 class HullOffsets(Model):
     density: Density = 1.025  # t/m³, for the tables made from the offsets
-    stations: list[Station]
+    stations: list[Station]  # sections, at least three, x strictly increasing
 
     @model_validator(mode="after")
     def _stations(self) -> HullOffsets:
@@ -121,10 +122,13 @@ class HullOffsets(Model):
 
 
 class Calculation(Model):
-    method: Literal["tables", "hull"] = "tables"
-    wind_lever: Literal["half_draft", "underwater_centre"] = "half_draft"
-    full_percent: Annotated[Percent, Field(ge=90)] = 98.0  # Part B 3.1.2
-    gz_beyond_flooding: Literal["exclude", "include"] = "exclude"
+    method: Literal["tables", "hull"] = "tables"  # read the tables, or compute on the offsets
+    wind_lever: Literal["half_draft", "underwater_centre"] = "half_draft"  # Z of Part A 2.3.2.2
+    # from the centre of A to half the mean draught (half_draft), or to the centre of the
+    # underwater lateral area (underwater_centre)
+    full_percent: Annotated[Percent, Field(ge=90)] = 98.0  # tank full at this % (Part B 3.1.2)
+    gz_beyond_flooding: Literal["exclude", "include"] = "exclude"  # GZ past θf in 2.2.2, 2.2.3
+    # exclude: the curve is credited up to θf only; include: to the end of the table
 
 
 def known_sets(values: list[str]) -> list[str]:
@@ -147,30 +151,31 @@ CriteriaSets = Annotated[list[str], AfterValidator(_some_sets)]
 
 
 class Vessel(Model):
-    format: Literal["reportgen/vessel-1"]
-    vessel: VesselId
+    format: Literal["reportgen/vessel-1"]  # format id: reportgen/vessel-1
+    vessel: VesselId  # the ship's name, identifier and type
     source: dict[str, Text] | None = None  # where the data come from, printed on every sheet
-    particulars: Particulars
-    lightship: Lightship
-    hydrostatics: Hydrostatics | None = None
-    cross_curves: CrossCurves | None = None
-    deck_edge: AngleTable | None = None
-    openings: list[Opening] = Field(default_factory=list)
-    flooding_angle: AngleTable | None = None
-    windage: Windage
-    tanks: list[Tank] = Field(default_factory=list)
-    criteria: CriteriaSets
+    particulars: Particulars  # Lpp, breadth, depth, summer draught, keel, bilge (m, m²)
+    lightship: Lightship  # lightship mass (t) and centre of gravity (m)
+    hydrostatics: Hydrostatics | None = None  # hydrostatic table by draught; goes with cross_curves
+    cross_curves: CrossCurves | None = None  # KN by displacement and heel; goes with hydrostatics
+    deck_edge: AngleTable | None = None  # deck edge immersion angle by displacement (deg)
+    openings: list[Opening] = Field(default_factory=list)  # unprotected openings, for θf
+    # (they need hull offsets or a flooding_angle table)
+    flooding_angle: AngleTable | None = None  # angle of flooding θf by displacement (deg)
+    windage: Windage  # lateral windage profile for the weather criterion (Part A 2.3)
+    tanks: list[Tank] = Field(default_factory=list)  # the ship's tanks: content, density, table
+    criteria: CriteriaSets  # criteria sets every condition is checked against
     permitted_criteria: Annotated[list[str], AfterValidator(known_sets)] = Field(
-        default_factory=list)
-    calculation: Calculation = Calculation()
+        default_factory=list)  # sets a condition may choose instead (its `criteria`)
+    calculation: Calculation = Calculation()  # calculation choices, each stated on the sheet
     limiting_kg: LimitingCurve | None = None  # the booklet's curve (criteria set booklet.limits)
     limiting_gm: LimitingCurve | None = None  # the same as a minimum GM curve (gm:)
-    hull: HullOffsets | None = None
+    hull: HullOffsets | None = None  # hull offsets: for `reportgen tables`, the hull method and θf
     draught_marks: DraughtMarks | None = None  # x of the marks, m from AP
-    passengers: VesselPassengers | None = None  # IS Code 2008 Part A 3.1
-    icing: VesselIcing | None = None  # IS Code 2008 Part B chapter 6
+    passengers: VesselPassengers | None = None  # passenger decks (IS Code 2008 Part A 3.1)
+    icing: VesselIcing | None = None  # decks that ice up (IS Code 2008 Part B chapter 6)
     grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
-    notes: Any = None
+    notes: Any = None  # free text or data, not read by the calculation
 
     @model_validator(mode="after")
     def _whole(self) -> Vessel:
