@@ -12,29 +12,18 @@ Run: .venv/bin/python benchmarks/bench_package.py
 
 from __future__ import annotations
 
-import statistics
 import subprocess
 import sys
 import tempfile
 import time
 from pathlib import Path
 
+from timing import import_seconds
+
 ROOT = Path(__file__).resolve().parents[1]
 CONDITIONS = sorted((ROOT / "conditions").glob("*.yaml"))
-IMPORTS = ("import time; t = time.perf_counter(); "
-           "import reportgen.cli, weasyprint, matplotlib, numpy, scipy; "
-           "print(time.perf_counter() - t)")
+IMPORTS = "reportgen.cli, weasyprint, matplotlib, numpy, scipy"
 PER_CONDITION_S = 0.5
-
-
-def import_seconds(runs: int = 3) -> float:
-    """Median wall time of the imports in a fresh interpreter, s."""
-    times = []
-    for _ in range(runs):
-        out = subprocess.run([sys.executable, "-c", IMPORTS], capture_output=True, text=True,
-                             check=True)
-        times.append(float(out.stdout.strip().splitlines()[-1]))
-    return statistics.median(times)
 
 
 def package_seconds(conditions: list[Path], out: Path) -> float:
@@ -53,7 +42,7 @@ def main() -> int:
     if not CONDITIONS:
         print("no demo conditions in conditions/*.yaml")
         return 1
-    imports = import_seconds()
+    imports = import_seconds(IMPORTS)
     print(f"import reportgen.cli, weasyprint, matplotlib, numpy, scipy: {imports:.2f} s "
           f"(median of 3)")
     with tempfile.TemporaryDirectory() as folder:

@@ -6,11 +6,7 @@ For each displacement of the cross curves that lies within the hydrostatic table
 put upright (TCG 0) at that displacement and trim T, in water of the table's density, with the
 vessel's windage profile and nothing else on board, and made by the same `stages.upright` as a
 condition (so the KN, the flooding and deck-edge angles, the wind and roll quantities are taken
-exactly as a condition's would be), once per displacement; `reportgen.limits.limit_near` then
-searches KG on the steps of the walk from KG 0, starting at the first displacement from KG 0 and
-at each next one from the limits found before it (``hint``), which takes about a third of the
-evaluations of the whole walk and gives the same limit where the steps from 0 change from
-passing to failing once.
+exactly as a condition's would be); `reportgen.limits.limit_of` then searches KG from 0 upward.
 The criteria are the vessel's `criteria` without `booklet.limits` (the booklet's own curve
 cannot limit the curve that would replace it) and without `grain.2008` (its heeling moment is a
 property of a grain cargo, which an empty ship at a displacement does not have).
@@ -98,7 +94,7 @@ def upright_at(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, vd: Vessel
     h = vd.hydro
     lcg = lcg_for_trim(h, disp_t, trim_m, vessel.particulars.length_bp)
     ship = vessel.model_copy(update={"lightship": Lightship.model_construct(
-        mass=disp_t, lcg=lcg, vcg=0.0, tcg=0.0), "tanks": []})  # every tank empty, no FSM
+        mass=disp_t, lcg=lcg, vcg=0.0, tcg=0.0)})
     try:
         cond = Condition.model_validate({
             "format": "reportgen/condition-1", "vessel": vessel_name,
@@ -122,30 +118,16 @@ def upright_at(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, vd: Vessel
     return stages.upright(case, vd)
 
 
-def row(up: stages.Upright, hint_m: float = 0.0) -> tuple[dict, limits.KGLimit]:
-    """One row of the curve (displacement, draught, KMt, kg_max, gm_min, governing, angles),
-    its limit searched from ``hint_m`` (m, ``limits.limit_near``), and that limit."""
-    lim = limits.limit_near(up, hint_m)
+def row(up: stages.Upright) -> dict:
+    """One row of the curve: displacement, draught, KMt, kg_max, gm_min, governing, angles."""
+    lim = limits.limit_of(up, 0.0)
     kg_max = limits.reported(lim.kg_max_m)
     fl = up.floating
     return {"displacement": fl.displacement_table_t, "draft_mean": fl.draughts.mid,
             "kmt": fl.kmt, "kg_max": kg_max,
             "gm_min": None if kg_max is None else fl.kmt - kg_max,
             "governing": lim.governing,
-            "flooding": up.angles.flooding.deg, "deck_edge": up.angles.deck_edge.deg}, lim
-
-
-def hint(found: list[tuple[float, float | None]], disp_t: float) -> float:
-    """Where to start the search at ``disp_t`` (t): the limits (displacement t, KG m) found at
-    the displacements before, extrapolated linearly from the last two; KG 0 (the whole walk)
-    at the first displacement and after one without a limit."""
-    if not found or found[-1][1] is None:
-        return 0.0
-    d1, kg1 = found[-1]
-    if len(found) < 2 or found[-2][1] is None:
-        return kg1
-    d0, kg0 = found[-2]
-    return max(0.0, kg1 + (kg1 - kg0) * (disp_t - d1) / (d1 - d0))
+            "flooding": up.angles.flooding.deg, "deck_edge": up.angles.deck_edge.deg}
 
 
 def _warnings(up: stages.Upright) -> list[str]:
@@ -168,25 +150,21 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
     if not disps:
         raise InputError(f"{vessel_name}: no displacement of the cross curves lies within the "
                          f"hydrostatic table")
-    skipped: list[float] = []
-    found: list[tuple[float, float | None]] = []
+    skipped = []
     for d in disps:
         try:
             up = upright_at(vessel, vessel_bytes, vessel_name, vd, d, trim_m, sets)
-            one, lim = row(up, hint(found, d))
+            rows.append(row(up))
         except ImpossibleTrim:
             skipped.append(d)
-            found = []  # a gap: the next displacement walks from KG 0
             continue
         except InputError as exc:
             raise InputError(f"{vessel_name}: limits at {d:.1f} t, trim {trim_m:g} m: {exc}"
                              ) from None
-        rows.append(one)
-        found.append((d, lim.kg_max_m))
         warnings += [w for w in _warnings(up) if w not in warnings]
         if not named:
             named = [{"id": c.id, "title": c.title, "reference": c.reference, "set": c.set,
-                      "limit": c.limit} for c in stages.at_kg(up, 0.0).checks]
+                      "limit": c.limit} for c in stages.checked(up, 0.0).checks]
         if advance is not None:
             advance()
     if not rows:

@@ -2,18 +2,14 @@
 
 Units: KG, GM, draughts and trims in m, displacement and mass in t, density in t/m³.
 
-A limit is a search on KG corrected for free surface over `stages.at_kg`, re-using the condition's
-`stages.upright` (everything that does not depend on KG is made once, the KN spline's
-derivatives and antiderivative too: ``ReusedKN``). The IS Code 2008 does not
+A limit is a search on KG corrected for free surface over `stages.checked`, re-using the condition's
+`stages.upright` (everything that does not depend on KG is made once). The IS Code 2008 does not
 say how a limiting KG is to be found, nor what to do where a criterion passes again above a KG
 at which it failed; this module takes the conservative reading (stated on every document):
 
-- the search starts at the condition's own KG and walks in steps of at most
-  ``SCAN_STEP_MAX_M``, upwards while every criterion passes (downwards while one fails); the
-  limit is the first failure met, so a criterion that passes again higher up never lifts the
-  limit. The vessel's curve stands on the steps of the walk from KG 0 (``largest_kg_near``): the
-  whole walk at its first displacement, and at each next one from the step where the limits
-  already found point (reportgen.limitcurve.hint);
+- the search starts at the condition's own KG (KG 0 for the vessel's curve) and walks upwards in
+  steps of at most ``SCAN_STEP_MAX_M``; the limit is the first failure met, so a criterion that
+  passes again higher up never lifts the limit;
 - the step between the last passing and the first failing KG is then narrowed (scipy's brentq
   on the smallest relative criterion margin, then bisection) until it is at most
   ``TOLERANCE_M``; ``kg_max`` is the passing end, so every criterion passes at ``kg_max``;
@@ -26,13 +22,11 @@ that can still be added at a point.
 
 from __future__ import annotations
 
-import bisect
 import math
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 
 import numpy as np
-from scipy.interpolate import PPoly
 from scipy.optimize import brentq
 
 from reportgen import stages
@@ -137,12 +131,6 @@ def largest_kg(evaluate: Evaluate, start_m: float, ceiling_m: float,
             else:
                 hi = nxt
             step = min(2.0 * step, SCAN_STEP_MAX_M)
-    return narrowed(at, lo, hi)
-
-
-def narrowed(at: Evaluate, lo: float, hi: float) -> KGLimit:
-    """The step [lo, hi] (m; every criterion passes at lo, one fails at hi) narrowed to at most
-    TOLERANCE_M: brentq on the smallest relative margin, then bisection; the passing end."""
     bracket = [lo, hi]
 
     def f(kg: float) -> float:
@@ -156,69 +144,6 @@ def narrowed(at: Evaluate, lo: float, hi: float) -> KGLimit:
     while bracket[1] - bracket[0] > TOLERANCE_M:
         f(0.5 * (bracket[0] + bracket[1]))
     return KGLimit(bracket[0], governing(at(bracket[1])), bracket[1])
-
-
-def steps_from_zero(ceiling_m: float) -> list[float]:
-    """The KGs (m) the walk from KG 0 stands on: 0, then steps doubling from SCAN_STEP_FIRST_M
-    to SCAN_STEP_MAX_M, the last one at the ceiling (the same sums as ``largest_kg``'s walk,
-    so the same floating-point values)."""
-    kgs, step = [0.0], SCAN_STEP_FIRST_M
-    while kgs[-1] < ceiling_m:
-        kgs.append(min(kgs[-1] + step, ceiling_m))
-        step = min(2.0 * step, SCAN_STEP_MAX_M)
-    return kgs
-
-
-def largest_kg_near(evaluate: Evaluate, hint_m: float, ceiling_m: float) -> KGLimit:
-    """The largest passing KG (m) on the steps of the walk from KG 0 (``steps_from_zero``),
-    searched from the step at or below ``hint_m`` (a neighbouring displacement's limit): up
-    while the steps pass, down while they fail, to a passing step with a failing one above it,
-    then ``narrowed``. Where the steps from 0 change from passing to failing only once, this is
-    ``largest_kg(evaluate, 0, ceiling_m)`` exactly, with fewer evaluations; the steps below the
-    start are not evaluated (stated on the limits document)."""
-    seen: dict[float, Sequence[Check]] = {}
-
-    def at(kg: float) -> Sequence[Check]:
-        if kg not in seen:
-            seen[kg] = evaluate(kg)
-        return seen[kg]
-
-    kgs = steps_from_zero(ceiling_m)
-    k = min(max(bisect.bisect_right(kgs, hint_m) - 1, 0), len(kgs) - 1)
-    if passes(at(kgs[k])):
-        while k + 1 < len(kgs) and passes(at(kgs[k + 1])):
-            k += 1
-        if k + 1 == len(kgs):
-            return KGLimit(kgs[k], None)
-        return narrowed(at, kgs[k], kgs[k + 1])
-    while k > 0 and not passes(at(kgs[k - 1])):
-        k -= 1
-    if k == 0:
-        return KGLimit(None, governing(at(0.0)))
-    return narrowed(at, kgs[k - 1], kgs[k])
-
-
-class ReusedKN(PPoly):
-    """KN(θ°) whose derivatives and antiderivative are made once: they do not depend on KG, and
-    a search evaluates GZ = KN − KG·sin θ (reportgen.stability.GZCurve) at many KGs."""
-
-    def derivative(self, nu: int = 1) -> PPoly:
-        return self._made("derivative", nu)
-
-    def antiderivative(self, nu: int = 1) -> PPoly:
-        return self._made("antiderivative", nu)
-
-    def _made(self, how: str, nu: int) -> PPoly:
-        made = self.__dict__.setdefault("_reused", {})
-        if (how, nu) not in made:
-            made[how, nu] = getattr(super(), how)(nu)
-        return made[how, nu]
-
-
-def reusing(up: stages.Upright) -> stages.Upright:
-    """The upright stage with its KN spline as a ``ReusedKN`` (the same numbers)."""
-    kn = up.kn
-    return replace(up, kn=ReusedKN.construct_fast(kn.c, kn.x, kn.extrapolate, kn.axis))
 
 
 def capsize_kg(up: stages.Upright) -> float:
@@ -238,15 +163,7 @@ def ceiling(up: stages.Upright) -> float:
 def limit_of(up: stages.Upright, start_m: float,
              known: dict[float, Sequence[Check]] | None = None) -> KGLimit:
     """The KG limit of an upright stage, walking from ``start_m`` (m)."""
-    up = reusing(up)
-    return largest_kg(lambda kg: stages.at_kg(up, kg).checks, start_m, ceiling(up), known)
-
-
-def limit_near(up: stages.Upright, hint_m: float) -> KGLimit:
-    """The KG limit of an upright stage on the steps from KG 0, searched from ``hint_m`` (m)
-    (``largest_kg_near``): the vessel's curve, from one displacement to the next."""
-    up = reusing(up)
-    return largest_kg_near(lambda kg: stages.at_kg(up, kg).checks, hint_m, ceiling(up))
+    return largest_kg(lambda kg: stages.checked(up, kg).checks, start_m, ceiling(up), known)
 
 
 def condition_limits(up: stages.Upright, k: stages.AtKG) -> dict:
