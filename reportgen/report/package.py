@@ -38,6 +38,7 @@ from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
 from reportgen.report import render as sheet
 from reportgen.report.appendix import vessel_appendix
+from reportgen.report.limitsfig import limits_figure_svg
 from reportgen.results import Results
 
 MAX_TITLE_CHARS = 200
@@ -62,6 +63,8 @@ class Package:
     vessel_file: str  # attachment name of the vessel file
     vessel_bytes: bytes
     approval: bytes | None  # VESSEL.yaml.p7s, when given
+    limits: dict | None = None  # the vessel's limiting KG curve at trim 0 (reportgen/limits-1)
+    limits_problem: str | None = None  # why there is no curve, when there is none
 
     @property
     def inputs_sha256(self) -> str:
@@ -160,7 +163,22 @@ def make_package(cases: list[Any], title: str | None = None,
     common_signatories(results)
     text = check_title(title) if title is not None else \
         str(_words().default_title).format(vessel=first.vessel.vessel.name)
-    return Package(text, tuple(members), vessel_file, first.vessel_bytes, approval)
+    curve, problem = vessel_limits(first.vessel, first.vessel_bytes, vessel_file)
+    return Package(text, tuple(members), vessel_file, first.vessel_bytes, approval, curve,
+                   problem)
+
+
+def vessel_limits(vessel: Any, vessel_bytes: bytes, vessel_name: str
+                  ) -> tuple[dict | None, str | None]:
+    """The vessel's limiting KG curve at trim 0 for its criteria, as `reportgen limits
+    VESSEL --json` gives it (SPEC "Package", "Limits"), computed once per package; or None
+    and the reason where the vessel data give no curve (no tables, no Code criteria)."""
+    from reportgen.limitcurve import limiting_curve
+
+    try:
+        return limiting_curve(vessel, vessel_bytes, vessel_name, 0.0), None
+    except InputError as exc:
+        return None, str(exc)
 
 
 def package_document(pkg: Package) -> dict:
@@ -175,6 +193,7 @@ def package_document(pkg: Package) -> dict:
                    "sha256": r0.vessel.sha256, "file": pkg.vessel_file},
         "conditions": [{"file": m.file, "results": m.results.to_dict()}
                        for m in pkg.members],
+        "limits": pkg.limits,
     }
 
 
@@ -209,10 +228,37 @@ def package_date(pkg: Package) -> str:
     return sheet.document_date(max(dates) if dates else None).strftime("%Y-%m-%dT%H:%M:%SZ")
 
 
+def limits_page(pkg: Package) -> dict:
+    """The page of the limiting KG curve (SPEC "Package"): the curve with every condition
+    drawn at its displacement (t) and KG fluid (m), labelled by its number; for each
+    condition the curve's KG max at its displacement (linear in displacement, as the
+    booklet criterion reads a curve; None outside it) beside its own KG max."""
+    from reportgen.criteria.booklet import Curve
+    from reportgen.criteria.sets import SETS
+    from reportgen.report.limitsdoc import figure_labels
+
+    doc = pkg.limits
+    found = [r for r in doc["rows"] if r["kg_max"] is not None] if doc else []
+    curve = Curve("", "kg", tuple(r["displacement"] for r in found),
+                  tuple(r["kg_max"] for r in found)) if found else None
+    rows = [{"number": i, "r": m.results,
+             "curve_kg_max": curve.at(m.results.loading.displacement) if curve else None,
+             "own": m.results.limits} for i, m in enumerate(pkg.members, 1)]
+    if doc is None:
+        return {"d": None, "problem": pkg.limits_problem, "rows": rows}
+    points = [(str(row["number"]), row["r"].loading.displacement,
+               row["r"].hydrostatics.kg_fluid) for row in rows]
+    labels = dict(figure_labels(), points=str(_words().points_label))
+    return {"d": doc, "rows": rows, "problem": None,
+            "figure": sheet._svg_data_uri(limits_figure_svg(doc, labels, points)),
+            "sets": [{"id": s, "title": SETS[s].title} for s in doc["criteria"] if s in SETS],
+            "titles": {c["id"]: c["title"] for c in doc["criteria_list"]}}
+
+
 def page_map(document: weasyprint.Document, count: int) -> dict[str, int]:
-    """The page (1-based) on which each part begins: cover, summary, cond-1 ... cond-N,
-    appendix."""
-    ids = ("part-cover", "part-summary", *(f"cond-{i}" for i in range(1, count + 1)),
+    """The page (1-based) on which each part begins: cover, summary, limits, cond-1 ...
+    cond-N, appendix."""
+    ids = ("part-cover", "part-summary", "part-limits", *(f"cond-{i}" for i in range(1, count + 1)),
            "part-appendix")
     found = sheet.element_rectangles(document, ids)
     missing = [i for i in ids if i not in found]
@@ -234,7 +280,8 @@ def sheet_pages(pages: dict[str, int], count: int) -> list[dict]:
     return rows
 
 
-def package_html(pkg: Package, contexts: list[dict], pages: dict[str, int] | None) -> str:
+def package_html(pkg: Package, contexts: list[dict], pages: dict[str, int] | None,
+                 curve: dict) -> str:
     """The package as HTML text; ``pages`` from a first layout (None: not known yet)."""
     env = sheet.template_environment()
     part = env.get_template("sheet_condition.html.j2")
@@ -246,7 +293,8 @@ def package_html(pkg: Package, contexts: list[dict], pages: dict[str, int] | Non
                                                         strict=True), 1)],
         pages=pages or {}, roles=ROLES,
         signatories=common_signatories([m.results for m in pkg.members]),
-        approval=contexts[0]["approval"], ax=vessel_appendix(pkg.members[0].case.vessel))
+        approval=contexts[0]["approval"], ax=vessel_appendix(pkg.members[0].case.vessel),
+        curve=curve)
 
 
 def _page_css(pages: dict[str, int] | None, count: int) -> weasyprint.CSS:
@@ -260,9 +308,10 @@ def _page_css(pages: dict[str, int] | None, count: int) -> weasyprint.CSS:
 def layout_package(pkg: Package) -> weasyprint.Document:
     """The laid-out pages, laid out until the page map stands still (at most MAX_LAYOUTS)."""
     contexts = [sheet.condition_context(m.case, m.results) for m in pkg.members]
+    curve = limits_page(pkg)
     count, pages, total = len(pkg.members), None, 0
     for _ in range(MAX_LAYOUTS):
-        html = weasyprint.HTML(string=package_html(pkg, contexts, pages))
+        html = weasyprint.HTML(string=package_html(pkg, contexts, pages, curve))
         document = html.render(stylesheets=[_page_css(pages, count)],
                                pdf_variant=sheet.PDF_VARIANT, font_config=fonts.font_config())
         found = page_map(document, count)
