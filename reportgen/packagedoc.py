@@ -33,4 +33,4 @@ class PackageDocument(Section):
     title: str  # the package's title, printed on its cover
     vessel: PackageVessel
     conditions: list[PackageCondition]  # in the order given, as the package prints them
-    limits: LimitsDocument | None  # limiting KG curve, trim 0, as `limits --json`; null: none
+    limits: LimitsDocument | None  # limiting KG curve, trim 0, as `limits --json`; null: no curve

@@ -12,7 +12,8 @@ from reportgen.cli import main, progress
 
 @main.command(epilog="""\b
 Examples:
-  reportgen package conditions/*.yaml -o out/package.pdf
+  reportgen package conditions/full-load-departure.yaml conditions/full-load-arrival.yaml \\
+      -o out/package.pdf
   reportgen package departure.yaml arrival.yaml -o voyage-12.pdf --title "Voyage 12"
 \b
 Every condition must name a vessel file with the same bytes. Exit status: 0 the package is

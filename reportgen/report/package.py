@@ -3,18 +3,21 @@ PDF/A-3b document.
 
 In order: a cover (title, vessel, document number, the contents with each condition's verdict
 and first page, the caution, the signature block), a summary table (one row per condition),
-then each condition's complete sheet: the same part of the page the calculation sheet prints
+the vessel's limiting KG curve at trim 0 with every condition drawn on it, then each
+condition's complete sheet: the same part of the page the calculation sheet prints
 (templates/sheet_condition.html.j2), with its own page count beside the package's. PDF
-bookmarks: the cover, the summary, every condition and its sections.
+bookmarks: the cover, the summary, the curve, every condition and its sections.
 
 Embedded (ISO 19005-3:2012, 6.8): each condition file byte for byte under a name unique in
 the package, the vessel file once (with its approval, VESSEL.yaml.p7s, when given) and
 ``package.json`` (reportgen/package-1), whose ``conditions[i].results`` is the results
-document ``check --json`` prints for that condition.
+document ``check --json`` prints for that condition, and ``limits`` the vessel's limiting
+KG curve as ``reportgen limits --json`` prints it.
 
-Page numbers: the document is laid out twice. The first layout finds the page on which each
-part begins; the second prints those numbers (contents, footers). Only digits on the cover
-and the footers change between the two, and the page map is checked to be the same.
+Page numbers: the document is laid out once. The contents' page numbers are CSS
+target-counter()s of the parts; each condition is a page group of its own (a named page) whose
+counter starts again at 1 and whose footer reads the condition's page count from a marker at
+its end (templates/package_pages.css.j2); WeasyPrint resolves them while it paginates.
 """
 
 from __future__ import annotations
@@ -42,7 +45,6 @@ from reportgen.report.limitsfig import limits_figure_svg
 from reportgen.results import Results
 
 MAX_TITLE_CHARS = 200
-MAX_LAYOUTS = 3  # layouts tried until the page map no longer changes
 
 
 @dataclass(frozen=True)
@@ -255,34 +257,8 @@ def limits_page(pkg: Package) -> dict:
             "titles": {c["id"]: c["title"] for c in doc["criteria_list"]}}
 
 
-def page_map(document: weasyprint.Document, count: int) -> dict[str, int]:
-    """The page (1-based) on which each part begins: cover, summary, limits, cond-1 ...
-    cond-N, appendix."""
-    ids = ("part-cover", "part-summary", "part-limits", *(f"cond-{i}" for i in range(1, count + 1)),
-           "part-appendix")
-    found = sheet.element_rectangles(document, ids)
-    missing = [i for i in ids if i not in found]
-    if missing:
-        raise RuntimeError(f"package template lacks the parts {missing}")
-    return {key: index + 1 for key, (index, _rect) in found.items()}
-
-
-def sheet_pages(pages: dict[str, int], count: int) -> list[dict]:
-    """For every page of every condition: its package page, the condition's number, and the
-    sheet page and sheet page count."""
-    rows = []
-    for i in range(1, count + 1):
-        start = pages[f"cond-{i}"]
-        end = pages[f"cond-{i + 1}" if i < count else "part-appendix"] - 1
-        for page in range(start, end + 1):
-            rows.append({"page": page, "number": i, "sheet_page": page - start + 1,
-                         "sheet_pages": end - start + 1})
-    return rows
-
-
-def package_html(pkg: Package, contexts: list[dict], pages: dict[str, int] | None,
-                 curve: dict) -> str:
-    """The package as HTML text; ``pages`` from a first layout (None: not known yet)."""
+def package_html(pkg: Package, contexts: list[dict], curve: dict) -> str:
+    """The package as HTML text (the input of WeasyPrint)."""
     env = sheet.template_environment()
     part = env.get_template("sheet_condition.html.j2")
     parts = [Markup(part.render(**ctx)) for ctx in contexts]  # autoescaped by the template
@@ -291,34 +267,26 @@ def package_html(pkg: Package, contexts: list[dict], pages: dict[str, int] | Non
         members=[dict(ctx, file=m.file, row=summary_row(m), number=i, part=part)
                  for i, (m, ctx, part) in enumerate(zip(pkg.members, contexts, parts,
                                                         strict=True), 1)],
-        pages=pages or {}, roles=ROLES,
-        signatories=common_signatories([m.results for m in pkg.members]),
+        roles=ROLES, signatories=common_signatories([m.results for m in pkg.members]),
         approval=contexts[0]["approval"], ax=vessel_appendix(pkg.members[0].case.vessel),
         curve=curve)
 
 
-def _page_css(pages: dict[str, int] | None, count: int) -> weasyprint.CSS:
-    rows = sheet_pages(pages, count) if pages else []
+def _page_css(count: int) -> weasyprint.CSS:
     text = sheet.template_environment().get_template("package_pages.css.j2").render(
-        rows=rows, count=count)
+        count=count)
     return fonts.stylesheet(sheet._read_template("sheet.css")
                             + sheet._read_template("package.css") + text)
 
 
 def layout_package(pkg: Package) -> weasyprint.Document:
-    """The laid-out pages, laid out until the page map stands still (at most MAX_LAYOUTS)."""
+    """The laid-out pages, in one layout: the page numbers of the contents and of each
+    condition's own pages come from CSS (target-counter, page groups), which WeasyPrint
+    resolves while it paginates."""
     contexts = [sheet.condition_context(m.case, m.results) for m in pkg.members]
-    curve = limits_page(pkg)
-    count, pages, total = len(pkg.members), None, 0
-    for _ in range(MAX_LAYOUTS):
-        html = weasyprint.HTML(string=package_html(pkg, contexts, pages, curve))
-        document = html.render(stylesheets=[_page_css(pages, count)],
-                               pdf_variant=sheet.PDF_VARIANT, font_config=fonts.font_config())
-        found = page_map(document, count)
-        if found == pages and len(document.pages) == total:
-            return document
-        pages, total = found, len(document.pages)
-    raise RuntimeError("the package's page numbers do not settle")
+    html = weasyprint.HTML(string=package_html(pkg, contexts, limits_page(pkg)))
+    return html.render(stylesheets=[_page_css(len(pkg.members))],
+                       pdf_variant=sheet.PDF_VARIANT, font_config=fonts.font_config())
 
 
 def _attachments(pkg: Package, data_json: str) -> list[weasyprint.Attachment]:
