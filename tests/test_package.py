@@ -307,7 +307,7 @@ def test_signing_a_second_role_with_the_same_certificate_is_refused_clearly(pack
     """SPEC "Verification" 3: the same certificate signing two roles is a failure; sign
     refuses it before writing, with exit status 2 and a message that says so."""
     out = tmp_path / "twice.pdf"
-    result = _run("sign", package["one"], "--role", "checked",
+    result = _run("sign", package["two"], "--role", "reviewed",  # no name given for reviewed
                   "--key", demo_ids["prepared"] / "key.pem",
                   "--cert", demo_ids["prepared"] / "cert.pem", "-o", out)
     assert result.exit_code == 2
