@@ -104,7 +104,7 @@ def _sign_document(in_path: Path, out_path: Path, role: str, *, key_path: Path |
     named = (doc.kind.certified(doc.content, None).get("signatories") or {}).get(f"{role}_by")
     if named and not ids.names_match(name, named):
         raise InputError(f"{who.origin}: the certificate is issued to '{ids.printable(name)}' "
-                         f"but the {doc.kind.words} names '{ids.printable(named)}' for {role}")
+                         f"but the {doc.kind.name} names '{ids.printable(named)}' for {role}")
 
     state = guarded_integrity(doc)
     if state["problems"]:
