@@ -13,28 +13,16 @@ Run: .venv/bin/python benchmarks/bench_sheet.py
 
 from __future__ import annotations
 
-import statistics
-import subprocess
 import sys
 import time
 from pathlib import Path
 
+from timing import import_seconds
+
 ROOT = Path(__file__).resolve().parents[1]
 CONDITIONS = sorted((ROOT / "conditions").glob("*.yaml"))
-IMPORTS = ("import time; t = time.perf_counter(); "
-           "import weasyprint, matplotlib, numpy, scipy; "
-           "print(time.perf_counter() - t)")
+IMPORTS = "weasyprint, matplotlib, numpy, scipy"
 TARGET_FACTOR = 2.5
-
-
-def import_seconds(runs: int = 3) -> float:
-    """Median wall time of importing the four libraries in a fresh interpreter, s."""
-    times = []
-    for _ in range(runs):
-        out = subprocess.run([sys.executable, "-c", IMPORTS], capture_output=True, text=True,
-                             check=True)
-        times.append(float(out.stdout.strip().splitlines()[-1]))
-    return statistics.median(times)
 
 
 def sheet_seconds(condition: Path) -> float:
@@ -53,7 +41,7 @@ def main() -> int:
     if not CONDITIONS:
         print("no demo conditions in conditions/*.yaml")
         return 1
-    imports = import_seconds()
+    imports = import_seconds(IMPORTS)
     print(f"import weasyprint, matplotlib, numpy, scipy: {imports:.2f} s (median of 3)")
     first = CONDITIONS[0]
     cold = sheet_seconds(first)

@@ -16,6 +16,7 @@ has area). Two superstructure tiers and a wheelhouse carry the passenger decks.
 
 from __future__ import annotations
 
+import sys
 from pathlib import Path
 
 import numpy as np
@@ -24,6 +25,12 @@ from shapely.geometry import Polygon
 from shapely.geometry.polygon import orient
 
 ROOT = Path(__file__).resolve().parent.parent
+if str(ROOT) not in sys.path:
+    sys.path.insert(0, str(ROOT))
+
+from reportgen.files import write_atomic
+from reportgen.yamltext import number, pairs
+
 OUT_PATH = ROOT / "conditions" / "vessels" / "plover-ferry-hull.yaml"
 
 LPP = 58.0
@@ -76,13 +83,6 @@ def windage_polygon() -> Polygon:
     return orient(union_all(parts).simplify(0.0005), sign=1.0)
 
 
-def _f(v: float, nd: int) -> str:
-    s = f"{v:.{nd}f}"
-    return "0." + "0" * nd if s == "-0." + "0" * nd else s
-
-
-def _pairs(points: list[tuple[float, float]], nd: int) -> str:
-    return "[" + ", ".join(f"[{_f(a, nd)}, {_f(b, nd)}]" for a, b in points) + "]"
 
 
 def vessel_text() -> str:
@@ -97,26 +97,26 @@ def vessel_text() -> str:
         "  lightship: invented for the demo (no inclining experiment)",
         "  passengers: passenger deck areas invented for the demo",
         "particulars:",
-        f"  length_bp: {_f(LPP, 2)}",
-        f"  breadth: {_f(BREADTH, 2)}",
-        f"  depth: {_f(DEPTH, 2)}",
-        f"  summer_draft: {_f(SUMMER_DRAFT, 3)}",
+        f"  length_bp: {number(LPP, 2)}",
+        f"  breadth: {number(BREADTH, 2)}",
+        f"  depth: {number(DEPTH, 2)}",
+        f"  summer_draft: {number(SUMMER_DRAFT, 3)}",
         "  keel_thickness: 0.012",
         "  bilge: round",
         "  bilge_keel_area: 9.0",
         "  service_speed: 14.0",
-        "lightship: {" + ", ".join(f"{k}: {_f(v, 2)}" for k, v in LIGHTSHIP.items()) + "}",
+        "lightship: {" + ", ".join(f"{k}: {number(v, 2)}" for k, v in LIGHTSHIP.items()) + "}",
         "openings:",
-        *[f"  - {{name: {n}, x: {_f(x, 2)}, y: {_f(y, 2)}, z: {_f(z, 2)}}}"
+        *[f"  - {{name: {n}, x: {number(x, 2)}, y: {number(y, 2)}, z: {number(z, 2)}}}"
           for n, x, y, z in OPENINGS],
         "windage:",
-        "  profile: " + _pairs(profile, 3),
+        "  profile: " + pairs(profile, 3),
         "passengers:",
         "  mass_each: 0.075",
         "  vcg_above_deck: 1.0",
         "  decks:",
-        *[f"    - {{name: {n}, area: {_f(a, 1)}, z: {_f(z, 2)}, y_crowded: {_f(y, 2)}, "
-          f"lcg: {_f(x, 2)}}}" for n, a, z, y, x in PASSENGER_DECKS],
+        *[f"    - {{name: {n}, area: {number(a, 1)}, z: {number(z, 2)}, y_crowded: {number(y, 2)}, "
+          f"lcg: {number(x, 2)}}}" for n, a, z, y, x in PASSENGER_DECKS],
         "criteria: [is2008.general, is2008.weather, is2008.passenger]",
         ("calculation: {method: tables, wind_lever: half_draft, full_percent: 98.0, "
         "gz_beyond_flooding: exclude}"),
@@ -125,8 +125,8 @@ def vessel_text() -> str:
         "  stations:",
     ]
     for x in np.round(np.arange(41) * LPP / 40.0, 4):
-        lines += [f"    - x: {_f(float(x), 4)}",
-                  f"      points: {_pairs(station_points(float(x)), 3)}"]
+        lines += [f"    - x: {number(float(x), 4)}",
+                  f"      points: {pairs(station_points(float(x)), 3)}"]
     lines += [
         "notes:",
         "  owner: Tarnmouth Island Ferries (invented; no such company)",
@@ -139,11 +139,8 @@ def vessel_text() -> str:
 
 
 def write(path: Path = OUT_PATH) -> Path:
-    text = vessel_text()
-    path.parent.mkdir(parents=True, exist_ok=True)
-    tmp = path.with_suffix(path.suffix + ".tmp")
-    tmp.write_text(text, encoding="utf-8")
-    tmp.replace(path)
+    """Write the vessel file to `path` (atomically; an existing file is replaced)."""
+    write_atomic(path, vessel_text().encode("utf-8"), force=True)
     return path
 
 

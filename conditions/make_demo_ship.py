@@ -31,6 +31,7 @@ ROOT = Path(__file__).resolve().parent.parent
 if str(ROOT) not in sys.path:
     sys.path.insert(0, str(ROOT))
 
+from reportgen.files import write_atomic
 from reportgen.hull.compartments import (
     TankBox,
     sounding_grid,
@@ -39,6 +40,7 @@ from reportgen.hull.compartments import (
 )
 from reportgen.hull.grainholds import hold_grain, void_depth_m
 from reportgen.hull.sections import Hull, hull_from_stations
+from reportgen.yamltext import flow, number, pairs
 
 SHIP_SLUG = "linnet-demo"
 OUT_PATH = ROOT / "conditions" / "vessels" / f"{SHIP_SLUG}-hull.yaml"
@@ -272,17 +274,7 @@ OPENINGS = [
 # --- output ---------------------------------------------------------------------------------
 
 
-def _f(v: float, nd: int) -> str:
-    s = f"{v:.{nd}f}"
-    return "0." + "0" * nd if s == "-0." + "0" * nd else s
 
-
-def _row(values: np.ndarray, nd: int) -> str:
-    return "[" + ", ".join(_f(float(v), nd) for v in values) + "]"
-
-
-def _pairs(points: list[tuple[float, float]], nd: int) -> str:
-    return "[" + ", ".join(f"[{_f(a, nd)}, {_f(b, nd)}]" for a, b in points) + "]"
 
 
 def _printable_rows(volume_m3: np.ndarray, nd: int) -> np.ndarray:
@@ -314,20 +306,20 @@ def _tank_lines(t: TankDef, hull: Hull) -> list[str]:
         f"    name: {t.name}",
         f"    content: {t.content}",
         *([f"    pair: {t.pair}"] if t.pair else []),
-        f"    density: {_f(t.density, 3)}",
+        f"    density: {number(t.density, 3)}",
         "    table:",
-        f"      sounding: {_row(tab['sounding'], 3)}",
-        f"      volume: {_row(tab['volume'], 3)}",
-        f"      lcg: {_row(tab['lcg'], 3)}",
-        f"      vcg: {_row(tab['vcg'], 3)}",
-        f"      tcg: {_row(tab['tcg'], 3)}",
-        f"      fsi: {_row(tab['fsi'], 2)}",
+        f"      sounding: {flow(tab['sounding'], 3)}",
+        f"      volume: {flow(tab['volume'], 3)}",
+        f"      lcg: {flow(tab['lcg'], 3)}",
+        f"      vcg: {flow(tab['vcg'], 3)}",
+        f"      tcg: {flow(tab['tcg'], 3)}",
+        f"      fsi: {flow(tab['fsi'], 2)}",
     ]
 
 
 def _box_note(box: TankBox) -> str:
-    return (f"x {_f(box.x_aft, 2)}..{_f(box.x_fore, 2)}, y {_f(box.y_min, 2)}..{_f(box.y_max, 2)},"
-            f" z {_f(box.z_min, 2)}..{_f(box.z_max, 2)} (m; inside the hull)")
+    return (f"x {number(box.x_aft, 2)}..{number(box.x_fore, 2)}, y {number(box.y_min, 2)}..{number(box.y_max, 2)},"
+            f" z {number(box.z_min, 2)}..{number(box.z_max, 2)} (m; inside the hull)")
 
 
 def _grain_lines(hull: Hull) -> list[str]:
@@ -342,11 +334,11 @@ def _grain_lines(hull: Hull) -> list[str]:
         lines += [
             f"    - id: H{k}",
             f"      name: {name}",
-            (f"      filled: {{volume: {_f(f['volume'], 1)}, lcg: {_f(f['lcg'], 3)}, "
-             f"vcg: {_f(f['vcg'], 3)}, vhm: {_f(f['vhm'], 1)}}}"),
-            f"      filled_untrimmed_vhm: {_f(g['untrimmed_vhm'], 1)}",
+            (f"      filled: {{volume: {number(f['volume'], 1)}, lcg: {number(f['lcg'], 3)}, "
+             f"vcg: {number(f['vcg'], 3)}, vhm: {number(f['vhm'], 1)}}}"),
+            f"      filled_untrimmed_vhm: {number(g['untrimmed_vhm'], 1)}",
             "      partly:",
-            *[f"        {key}: {_row(p[key][rows], nd)}"
+            *[f"        {key}: {flow(p[key][rows], nd)}"
               for key, nd in (("volume", 1), ("lcg", 3), ("vcg", 3), ("vhm", 1))],
         ]
     return lines
@@ -359,7 +351,7 @@ LIMITING_KG_LINES = [
     'limiting_kg:',
     '  source: "reportgen limits, upright at trim 0"',
     '  displacement: [2056.872, 2374.78, 2692.689, 3010.597, 3328.505, 3646.414, 3964.322, 4282.23, 4600.139, 4918.047, 5235.955, 5553.863, 5871.772, 6189.68, 6507.588, 6825.497, 7143.405, 7461.313, 7779.222, 8097.13]',
-    '  kg: [6.19449, 6.612832, 6.938684, 7.049056, 6.945357, 6.716691, 6.522034, 6.368643, 6.254371, 6.171145, 6.107893, 6.049215, 5.998306, 5.916032, 5.77679, 5.459115, 5.195836, 4.966279, 4.763376, 4.601667]',
+    '  kg: [6.194594, 6.61279, 6.938698, 7.049075, 6.945358, 6.716665, 6.522034, 6.368643, 6.254371, 6.171145, 6.107866, 6.049196, 5.998216, 5.915954, 5.776791, 5.461092, 5.200233, 4.963973, 4.757504, 4.602243]',
 ]
 
 
@@ -382,19 +374,19 @@ def vessel_text() -> str:
         "  limiting_kg: the limiting KG curve made by `reportgen limits` from this file's "
         + "tables (general and weather criteria, upright at trim 0)",
         "particulars:",
-        f"  length_bp: {_f(LPP, 2)}",
-        f"  breadth: {_f(BREADTH, 2)}",
-        f"  depth: {_f(DEPTH, 2)}",
-        f"  summer_draft: {_f(SUMMER_DRAFT, 3)}",
-        f"  keel_thickness: {_f(KEEL_THICKNESS, 3)}",
+        f"  length_bp: {number(LPP, 2)}",
+        f"  breadth: {number(BREADTH, 2)}",
+        f"  depth: {number(DEPTH, 2)}",
+        f"  summer_draft: {number(SUMMER_DRAFT, 3)}",
+        f"  keel_thickness: {number(KEEL_THICKNESS, 3)}",
         "  bilge: round",
-        f"  bilge_keel_area: {_f(BILGE_KEEL_AREA, 1)}",
-        "lightship: {" + ", ".join(f"{k}: {_f(v, 2)}" for k, v in LIGHTSHIP.items()) + "}",
+        f"  bilge_keel_area: {number(BILGE_KEEL_AREA, 1)}",
+        "lightship: {" + ", ".join(f"{k}: {number(v, 2)}" for k, v in LIGHTSHIP.items()) + "}",
         "openings:",
-        *[f"  - {{name: {n}, x: {_f(x, 2)}, y: {_f(y, 2)}, z: {_f(z, 2)}}}"
+        *[f"  - {{name: {n}, x: {number(x, 2)}, y: {number(y, 2)}, z: {number(z, 2)}}}"
           for n, x, y, z in OPENINGS],
         "windage:",
-        "  profile: " + _pairs(
+        "  profile: " + pairs(
             [(round(x, 3), round(z, 3)) for x, z in windage_polygon().exterior.coords[:-1]], 3),
         "tanks:",
     ]
@@ -408,7 +400,7 @@ def vessel_text() -> str:
         + "# exposed decks, hatch covers and house tops (invented)",
         "calculation: {method: tables, wind_lever: half_draft, full_percent: 98.0, "
         + "gz_beyond_flooding: exclude}",
-        "draught_marks: {" + ", ".join(f"{k}: {_f(v, 2)}" for k, v in DRAUGHT_MARKS.items())
+        "draught_marks: {" + ", ".join(f"{k}: {number(v, 2)}" for k, v in DRAUGHT_MARKS.items())
         + "}",
         *_grain_lines(hull),
         "hull:",
@@ -416,7 +408,7 @@ def vessel_text() -> str:
         "  stations:",
     ]
     for x, pts in st:
-        lines += [f"    - x: {_f(x, 4)}", f"      points: {_pairs(pts, 3)}"]
+        lines += [f"    - x: {number(x, 4)}", f"      points: {pairs(pts, 3)}"]
     lines += [
         "notes:",
         "  owner: Harrowgate Coastal Carriers (invented; no such company)",
@@ -426,7 +418,7 @@ def vessel_text() -> str:
         "    engine room and deckhouse aft. Identifier RG-DEMO-01 is made up.",
         "  holds:",
         *[f"    - {name}: {_box_note(box)}" for name, box in HOLDS],
-        "  engine_room: " + f"x {_f(ER_AFT, 2)}..{_f(ER_FORE, 2)} (m)",
+        "  engine_room: " + f"x {number(ER_AFT, 2)}..{number(ER_FORE, 2)} (m)",
         "  tank_boxes:",
         *[f"    {t.id}: {_box_note(t.box)}" for t in tank_defs()],
     ]
@@ -434,12 +426,8 @@ def vessel_text() -> str:
 
 
 def write(path: Path = OUT_PATH) -> Path:
-    """Write the vessel file to `path` (temporary name, then rename)."""
-    text = vessel_text()
-    path.parent.mkdir(parents=True, exist_ok=True)
-    tmp = path.with_suffix(path.suffix + ".tmp")
-    tmp.write_text(text, encoding="utf-8")
-    tmp.replace(path)
+    """Write the vessel file to `path` (atomically; an existing file is replaced)."""
+    write_atomic(path, vessel_text().encode("utf-8"), force=True)
     return path
 
 

@@ -51,7 +51,7 @@ from dataclasses import dataclass
 import numpy as np
 from scipy.optimize import brentq
 
-from reportgen.stability import DEG, GZCurve, area_mrad
+from reportgen.stability import DEG, GZCurve, area_mrad, on_grid
 
 LAMBDA40_FACTOR = 0.8  # λ40 = 0.8·λ0, A 7 figure
 ARM_END_DEG = 40.0  # λ40 is given at 40°, A 7 figure
@@ -120,17 +120,14 @@ def max_difference_deg(curve: GZCurve, lambda0: float, start_deg: float,
     """The angle (deg) of the greatest GZ − λ on [start, end]: the best grid point, refined
     where d(GZ − λ)/dθ = dGZ/dθ + 0.2·λ0/40° changes sign from + to − between its neighbours
     (scipy's brentq)."""
-    gh, gv = curve.grid
-    inside = (gh > start_deg) & (gh < end_deg)
-    heel = np.concatenate([[start_deg], gh[inside], [end_deg]])
-    f = np.concatenate([curve([start_deg]), gv[inside], curve([end_deg])]) \
-        - heeling_arm_m(lambda0, heel)
+    heel, gz = on_grid(curve, start_deg, end_deg)
+    f = gz - heeling_arm_m(lambda0, heel)
     i = int(np.argmax(f))
     if 0 < i < len(heel) - 1:
         fall = lambda0 * (1.0 - LAMBDA40_FACTOR) / ARM_END_DEG  # −dλ/dθ, m per degree
 
         def rate(h: float) -> float:
-            return float(curve.slope(h)) + fall
+            return curve.local(h)[1] + fall
 
         a, b = float(heel[i - 1]), float(heel[i + 1])
         if rate(a) > 0.0 > rate(b):

@@ -164,7 +164,7 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
         warnings += [w for w in _warnings(up) if w not in warnings]
         if not named:
             named = [{"id": c.id, "title": c.title, "reference": c.reference, "set": c.set,
-                      "limit": c.limit} for c in stages.at_kg(up, 0.0).checks]
+                      "limit": c.limit} for c in stages.checked(up, 0.0).checks]
         if advance is not None:
             advance()
     if not rows:

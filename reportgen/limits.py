@@ -2,7 +2,7 @@
 
 Units: KG, GM, draughts and trims in m, displacement and mass in t, density in t/m³.
 
-A limit is a search on KG corrected for free surface over `stages.at_kg`, re-using the condition's
+A limit is a search on KG corrected for free surface over `stages.checked`, re-using the condition's
 `stages.upright` (everything that does not depend on KG is made once). The IS Code 2008 does not
 say how a limiting KG is to be found, nor what to do where a criterion passes again above a KG
 at which it failed; this module takes the conservative reading (stated on every document):
@@ -163,7 +163,7 @@ def ceiling(up: stages.Upright) -> float:
 def limit_of(up: stages.Upright, start_m: float,
              known: dict[float, Sequence[Check]] | None = None) -> KGLimit:
     """The KG limit of an upright stage, walking from ``start_m`` (m)."""
-    return largest_kg(lambda kg: stages.at_kg(up, kg).checks, start_m, ceiling(up), known)
+    return largest_kg(lambda kg: stages.checked(up, kg).checks, start_m, ceiling(up), known)
 
 
 def condition_limits(up: stages.Upright, k: stages.AtKG) -> dict:

@@ -15,8 +15,8 @@ from reportgen.results import Results, Section, Software
 
 
 class PackageVessel(Section):
-    name: str
-    identifier: str
+    name: str  # the ship's name
+    identifier: str  # the ship's identifier
     sha256: str  # SHA-256 of the vessel file's bytes alone: the vessel data fingerprint
     file: str  # attachment name of the vessel file, embedded once
 
@@ -27,10 +27,10 @@ class PackageCondition(Section):
 
 
 class PackageDocument(Section):
-    format: Literal["reportgen/package-1"]
-    software: Software
+    format: Literal["reportgen/package-1"]  # format id: reportgen/package-1
+    software: Software  # the program that made it: name and version
     inputs_sha256: str  # SHA-256 of the condition files' bytes in order, then the vessel file's
     title: str  # the package's title, printed on its cover
-    vessel: PackageVessel
+    vessel: PackageVessel  # the one ship of every condition
     conditions: list[PackageCondition]  # in the order given, as the package prints them
     limits: LimitsDocument | None  # limiting KG curve, trim 0, as `limits --json`; null: no curve

@@ -57,8 +57,8 @@ OptF = float | None
 
 
 class Software(Section):
-    name: str
-    version: str
+    name: str  # the program's name
+    version: str  # the program's version
 
 
 class InputFiles(Section):
@@ -67,37 +67,37 @@ class InputFiles(Section):
 
 
 class Signatories(Section):
-    prepared_by: str | None = None
-    checked_by: str | None = None
-    reviewed_by: str | None = None
+    prepared_by: str | None = None  # the name the condition gives for this role
+    checked_by: str | None = None  # the name the condition gives for this role
+    reviewed_by: str | None = None  # the name the condition gives for this role
 
 
 class ConditionInfo(Section):
-    title: str
-    voyage: str | None
-    date: str | None  # YYYY-MM-DD
-    water_density: F  # t/m³
-    free_surface: Literal["code", "actual", "maximum"]
-    signatories: Signatories
+    title: str  # the condition's title
+    voyage: str | None  # None: not stated
+    date: str | None  # YYYY-MM-DD; None: not stated
+    water_density: F  # t/m³, of the water the ship floats in
+    free_surface: Literal["code", "actual", "maximum"]  # free-surface rule, Part B 3.1
+    signatories: Signatories  # the names for the signature roles (none: empty)
 
 
 class VesselInfo(Section):
-    name: str
-    identifier: str
-    type: str
+    name: str  # the ship's name
+    identifier: str  # the ship's identifier
+    type: str  # the ship's type, as the vessel file gives it
     sha256: str  # of the vessel file's bytes alone: the vessel data fingerprint
     source: dict[str, str] | None  # the vessel file's `source` block
-    length_bp: F  # m
-    breadth: F  # m
-    depth: F  # m
-    summer_draft: F  # m
+    length_bp: F  # m, Lpp
+    breadth: F  # m, moulded B
+    depth: F  # m, moulded depth to the freeboard deck at side
+    summer_draft: F  # m, moulded summer load line draught
 
 
 class Line(Section):
-    kind: Literal["lightship", "tank", "item", "grain", "allowance"]
-    id: str | None
-    name: str
-    content: str | None
+    kind: Literal["lightship", "tank", "item", "grain", "allowance"]  # what the line is
+    id: str | None  # tank or grain compartment id; None for the others
+    name: str  # the line's name as printed
+    content: str | None  # tank content, grain, or the allowance's kind
     role: str | None  # fixed | consumable (tanks)
     percent: OptF  # % of capacity
     sounding: OptF  # m
@@ -107,104 +107,104 @@ class Line(Section):
     mass: F  # t
     lcg: F  # m from AP
     vcg: F  # m above base
-    tcg: F  # m, + starboard
-    fsm: F  # t·m counted
-    slack: bool | None
+    tcg: F  # m from the centreline, + starboard
+    fsm: F  # t·m, free-surface moment counted (Part B 3.1)
+    slack: bool | None  # tank neither empty nor full (Part B 3.1.2); None: not a tank
     fs_basis: str | None  # why the FSM counts (reportgen.freesurface reasons)
 
 
 class Centre(Section):
     mass: F  # t
-    lcg: OptF  # m
-    vcg: OptF  # m
-    tcg: OptF  # m
-    fsm: F  # t·m
+    lcg: OptF  # m from AP; None without mass
+    vcg: OptF  # m above base; None without mass
+    tcg: OptF  # m, + starboard; None without mass
+    fsm: F  # t·m, free-surface moments counted
 
 
 class Loading(Section):
-    lightship: F  # t
-    deadweight: F  # t
-    displacement: F  # t
-    lcg: F  # m
-    vcg: F  # m
-    tcg: F  # m
-    fsm: F  # t·m
-    deadweight_centre: Centre
-    lines: list[Line]
+    lightship: F  # t, lightship mass
+    deadweight: F  # t, displacement − lightship
+    displacement: F  # t, Δ: the sum of every line
+    lcg: F  # m from AP, LCG of the displacement
+    vcg: F  # m above base, KG without free surface
+    tcg: F  # m, + starboard, TCG of the displacement
+    fsm: F  # t·m, ΣFSM counted (Part B 3.1)
+    deadweight_centre: Centre  # the deadweight's mass, centre and FSM
+    lines: list[Line]  # every loading line: lightship, tanks, grain, items, allowances
 
 
 class Hydrostatics(Section):
     draft_mean: F  # m, moulded, at midships
-    draft_fore: F
-    draft_aft: F
+    draft_fore: F  # m, moulded, at the FP
+    draft_aft: F  # m, moulded, at the AP
     trim: F  # m, + by the stern
     heel: OptF  # deg, + starboard; None: no equilibrium within the tables
-    lcb: F
-    lcf: F
-    mct: F  # t·m/cm
-    tpc: F  # t/cm
-    kmt: F
-    kg_solid: F
-    fsc: F
-    kg_fluid: F
-    gm_solid: F
-    gm_fluid: F
-    draft_aft_extreme: F
-    draft_mean_extreme: F
-    draft_fore_extreme: F
-    summer_draft: F
+    lcb: F  # m from AP
+    lcf: F  # m from AP
+    mct: F  # t·m/cm, in the condition's water
+    tpc: F  # t/cm, in the condition's water
+    kmt: F  # m, transverse KM above base
+    kg_solid: F  # m, KG above base without free surface
+    fsc: F  # m, free-surface correction ΣFSM/Δ (Part B 3.1)
+    kg_fluid: F  # m, KG corrected: kg_solid + fsc
+    gm_solid: F  # m, kmt − kg_solid
+    gm_fluid: F  # m, kmt − kg_fluid: the GM of Part A 2.2.4
+    draft_aft_extreme: F  # m, draft_aft + keel thickness
+    draft_mean_extreme: F  # m, draft_mean + keel thickness
+    draft_fore_extreme: F  # m, draft_fore + keel thickness
+    summer_draft: F  # m, moulded summer load line draught
 
 
 class GZ(Section):
-    heel: list[F]  # deg, + starboard
-    gz: list[F]  # m
-    kn: list[F]  # m
+    heel: list[F]  # deg, + starboard, 1° steps
+    gz: list[F]  # m, GZ at KG corrected, at each heel
+    kn: list[F]  # m, KN at each heel (GZ is made from it)
 
 
 class Angles(Section):
-    deck_edge: F  # deg
-    flooding: F  # deg
+    deck_edge: F  # deg, deck edge immersion angle
+    flooding: F  # deg, angle of flooding θf
     gz_max: F  # deg, on the credited curve
     vanishing: OptF  # deg; None: GZ stays positive to the end of the table
-    flooding_opening: str | None
-    flooding_opening_xyz: list[F] | None  # m
-    side: Literal["starboard", "port"]
-    deck_edge_source: str
+    flooding_opening: str | None  # the opening that governs θf; None: not known
+    flooding_opening_xyz: list[F] | None  # m: x from AP, y, z of that opening
+    side: Literal["starboard", "port"]  # criteria's side: the list's, starboard without list
+    deck_edge_source: str  # table_trims | hull | table | formula
     deck_edge_trim: OptF  # m, the trim the angle was taken at
-    flooding_source: str
-    flooding_trim: OptF  # m
+    flooding_source: str  # table_trims | hull | table | none (taken as 90°)
+    flooding_trim: OptF  # m, the trim θf was taken at
     credited_to: F  # deg: the end of the curve credited to 2.2.2 and 2.2.3
 
 
 class Weather(Section):
-    wind_pressure: F  # N/m²
-    wind_area: F  # m²
+    wind_pressure: F  # N/m², P of Part A 2.3.2.2
+    wind_area: F  # m², A: lateral area above the waterline
     wind_z: F  # m above base
-    lw1: F  # m
-    lw2: F  # m
-    theta0: OptF  # deg
-    theta1: OptF
-    theta2: OptF
-    thetac: OptF
-    area_a: OptF  # m·rad
-    area_b: OptF
-    roll_period: OptF  # s
-    c: F
-    s: OptF
-    r: F
-    og: F  # m
-    x1: F
-    x2: F
-    k: F
-    lever: F  # Z, m
-    z_method: str
-    theta1_formula: OptF
-    roll_angle_source: str | None
-    b_over_d: F
-    cb: F
-    kg_over_d_minus_1: F
-    theta_lw2: OptF
-    theta_start: OptF
+    lw1: F  # m, steady wind lever (2.3.2.2)
+    lw2: F  # m, gust lever 1.5·lw1 (2.3.2.3)
+    theta0: OptF  # deg, steady heel under lw1 (2.3.1.2)
+    theta1: OptF  # deg, roll to windward (2.3.4, or given)
+    theta2: OptF  # deg, min(θf, 50°, θc): end of area b
+    thetac: OptF  # deg, second intercept of lw2 with GZ
+    area_a: OptF  # m·rad, area a (2.3.1.4)
+    area_b: OptF  # m·rad, area b (2.3.1.4)
+    roll_period: OptF  # s, T = 2·C·B/√GM (2.3.4)
+    c: F  # C of the roll period (2.3.4)
+    s: OptF  # factor s by T (2.3.4)
+    r: F  # r = 0.73 + 0.6·OG/d (2.3.4)
+    og: F  # m, OG = KG − d (2.3.4)
+    x1: F  # factor X1 by B/d (2.3.4)
+    x2: F  # factor X2 by CB (2.3.4)
+    k: F  # factor k by the bilge (2.3.4)
+    lever: F  # m, Z of 2.3.2.2
+    z_method: str  # half_draft | underwater_centre
+    theta1_formula: OptF  # deg, θ1 by the formula of 2.3.4
+    roll_angle_source: str | None  # where a given θ1 comes from
+    b_over_d: F  # B/d, d the mean moulded draught
+    cb: F  # CB, for X2 (2.3.4)
+    kg_over_d_minus_1: F  # KG/d − 1, KG corrected: range of the 2.3.4 tables
+    theta_lw2: OptF  # deg, first intercept of lw2 with GZ
+    theta_start: OptF  # deg, θ0 − θ1: start of area a
     areas_missing: list[str] = Field(default_factory=list)  # no_theta0 | no_lw2 | no_roll
 
 
@@ -217,8 +217,8 @@ class LoadLine(Section):
 
 
 class GrainCompartment(Section):
-    id: str
-    name: str
+    id: str  # compartment id
+    name: str  # the compartment's name
     state: Literal["trimmed", "untrimmed", "partly"]  # filled trimmed or untrimmed, or partly
     volume: F  # m³
     mass: F  # t
@@ -236,14 +236,14 @@ class Grain(Section):
     heeling_moment: F  # t·m, ΣVHM / SF
     lambda0: F  # m, grain heeling arm at 0°: ΣVHM / (SF·Δ)
     lambda40: F  # m, at 40°: 0.8·λ0
-    heel: OptF  # deg; None: GZ does not reach the heeling arm
+    heel: OptF  # deg, from the grain shift (A 7.1.1); None: arm not reached
     residual_area: OptF  # m·rad, between GZ and the heeling arm (A 7.1.2)
     residual_to: F  # deg, the end of the residual area
     allowable_moment: OptF  # t·m; None: no grain heeling moment passes
     heel_limit: F  # deg, min(12°, deck edge)
-    residual_to_reason: Literal["forty", "flooding", "max_difference"]
+    residual_to_reason: Literal["forty", "flooding", "max_difference"]  # the reason for residual_to
     moment_margin: OptF  # t·m, allowable − actual
-    compartments: list[GrainCompartment]
+    compartments: list[GrainCompartment]  # each compartment with grain
 
 
 class Limits(Section):
@@ -253,94 +253,94 @@ class Limits(Section):
     kg_margin: OptF  # m, kg_max − kg_fluid (negative: KG must come down by that much)
     gm_min: OptF  # m, kmt − kg_max
     governing: str | None  # id of the criterion that fails just above kg_max
-    governing_title: str | None
-    governing_reference: str | None
+    governing_title: str | None  # that criterion's title
+    governing_reference: str | None  # that criterion's source paragraph
     tolerance: F  # m, the search's resolution
 
 
 class Criterion(Section):
-    id: str
-    title: str
-    reference: str
-    required: OptF
-    attained: OptF
-    unit: str
-    passed: bool
+    id: str  # criterion id, e.g. area_0_30
+    title: str  # the criterion in words
+    reference: str  # source paragraph, e.g. IS Code 2008, Part A, 2.2.1
+    required: OptF  # the Code's value, in unit; None: does not exist
+    attained: OptF  # the condition's value, in unit; None: does not exist
+    unit: str  # unit of required and attained: m, m·rad, deg, ...
+    passed: bool  # attained meets required as limit says
     margin: OptF  # the spare on the safe side, in unit
-    limit: Literal["at_least", "at_most"]
-    set: str
+    limit: Literal["at_least", "at_most"]  # at_least: attained ≥ required; at_most: ≤
+    set: str  # criteria set id, e.g. is2008.general
 
 
 class CountedTank(Section):
-    id: str
+    id: str  # tank id
     fsm: F  # t·m
     reason: str  # slack | largest_of_table | worst_pair | worst_single | maximum_rule
 
 
 class CriteriaSet(Section):
-    id: str
-    title: str
+    id: str  # set id, e.g. is2008.weather
+    title: str  # the set's title
 
 
 class Assumptions(Section):
-    method: Literal["tables", "hull"]
+    method: Literal["tables", "hull"]  # tables | hull: what the floating position rests on
     hydrostatics_trims: list[F] | None  # m: the table's trims, None for even keel
     cross_curves_trim: str  # free | even_keel | fixed, or hull
-    cross_curves_trims: list[F] | None
-    table_density: OptF  # t/m³
-    water_density: F
-    free_surface: str
-    full_percent: F
-    free_surface_tanks: list[CountedTank]
-    wind_pressure: F
-    z_method: str
-    roll_angle_source: str | None
+    cross_curves_trims: list[F] | None  # m: the cross curves' trims; None: one trim
+    table_density: OptF  # t/m³, the hydrostatic table's; None: hull
+    water_density: F  # t/m³, the condition's
+    free_surface: str  # code | actual | maximum (Part B 3.1)
+    full_percent: F  # %: a tank this full has no free surface
+    free_surface_tanks: list[CountedTank]  # each tank whose FSM counts, and why
+    wind_pressure: F  # N/m², P of 2.3.2.2
+    z_method: str  # Z of 2.3.2.2: half_draft | underwater_centre
+    roll_angle_source: str | None  # where a given θ1 comes from
     cb_source: str  # table | computed | hull
-    list_side: str | None
-    gz_beyond_flooding: Literal["exclude", "include"]
-    fsc_method: str
-    criteria_sets: list[CriteriaSet]
+    list_side: str | None  # the side of the list; None: no list
+    gz_beyond_flooding: Literal["exclude", "include"]  # GZ past θf in 2.2.2, 2.2.3
+    fsc_method: str  # rise_of_kg: FSC = ΣFSM/Δ at every heel
+    criteria_sets: list[CriteriaSet]  # the sets checked, with their titles
     criteria_chosen: bool  # chosen by the condition among those the vessel permits
 
 
 class ComparisonEntry(Section):
     """One quantity of `check --compare` (SPEC.md; reportgen.compare)."""
 
-    quantity: str
-    label: str
-    unit: str
-    tables: OptF
-    hull: OptF
+    quantity: str  # key, e.g. lcb, gz_30, criterion_gm0
+    label: str  # the quantity in words
+    unit: str  # unit of the values
+    tables: OptF  # value by the vessel's tables
+    hull: OptF  # value on the hull offsets
     difference: OptF  # tables − hull
     tolerance: OptF  # MSC.1/Circ.1229; None where the circular gives none
-    within: bool | None
-    basis: str
+    within: bool | None  # |difference| ≤ tolerance; None: no tolerance
+    basis: str  # the tolerance's source, or none
 
 
 class Results(Section):
-    format: Literal["reportgen/results-1"] = RESULTS_FORMAT
-    software: Software
-    inputs_sha256: str
-    inputs: InputFiles
-    condition: ConditionInfo
-    vessel: VesselInfo
-    loading: Loading
-    hydrostatics: Hydrostatics
-    gz: GZ
-    angles: Angles
-    weather: Weather | None = None
-    load_line: LoadLine | None = None
-    draught_marks: DraughtMarks | None = None
-    observed: Observed | None = None
-    grain: Grain | None = None
-    limits: Limits | None = None
-    timber: Timber | None = None
-    passengers: Passengers | None = None
-    icing: Icing | None = None
-    criteria: list[Criterion]
-    passed: bool
-    warnings: list[str] = Field(default_factory=list)
-    assumptions: Assumptions
+    format: Literal["reportgen/results-1"] = RESULTS_FORMAT  # format id: reportgen/results-1
+    software: Software  # the program that computed it: name and version
+    inputs_sha256: str  # SHA-256 of the condition file's bytes then the vessel's
+    inputs: InputFiles  # attachment names of the two input files
+    condition: ConditionInfo  # the condition's title, voyage, date, water, signatories
+    vessel: VesselInfo  # the ship, its dimensions and data fingerprint
+    loading: Loading  # masses and centres: lightship, deadweight, displacement
+    hydrostatics: Hydrostatics  # floating position and initial stability
+    gz: GZ  # the GZ curve, heel + to starboard
+    angles: Angles  # deck edge, θf, max GZ, vanishing angle (deg)
+    weather: Weather | None = None  # Part A 2.3 quantities, when a set needs them
+    load_line: LoadLine | None = None  # FWA, DWA, permissible draught
+    draught_marks: DraughtMarks | None = None  # calculated draughts at the vessel's marks
+    observed: Observed | None = None  # the draughts read, worked to a displacement
+    grain: Grain | None = None  # Grain Code A 7 quantities, with grain on board
+    limits: Limits | None = None  # the condition's KG margin (SPEC "Limits")
+    timber: Timber | None = None  # timber deck cargo (Part A 3.3)
+    passengers: Passengers | None = None  # passengers crowded, and their heels (Part A 3.1)
+    icing: Icing | None = None  # ice allowance (Part B chapter 6)
+    criteria: list[Criterion]  # every criterion checked, set by set
+    passed: bool  # true when every criterion passed
+    warnings: list[str] = Field(default_factory=list)  # warnings printed beside the verdict
+    assumptions: Assumptions  # the methods and choices the results rest on
     comparison: list[ComparisonEntry] | None = None  # only with check --compare
 
     @model_validator(mode="before")

@@ -21,15 +21,15 @@ class MarkDraught(Section):
 
 
 class DraughtMarks(Section):
-    aft: MarkDraught
-    mid: MarkDraught
-    fore: MarkDraught
+    aft: MarkDraught  # the aft marks: x and draught
+    mid: MarkDraught  # the midships marks: x and draught
+    fore: MarkDraught  # the forward marks: x and draught
 
 
 class MarkReading(Section):
     x: F  # m from AP
     port: F  # m, extreme, as read
-    starboard: F  # m
+    starboard: F  # m, extreme, as read
     mean: F  # m, extreme, mean of port and starboard
     moulded: F  # m, mean − keel thickness
     correction: F  # m, added: to the perpendicular (to midships for the midships mark)
@@ -45,9 +45,9 @@ class Difference(Section):
 class Observed(Section):
     """The draughts read alongside worked to a displacement (reportgen.draughts)."""
 
-    aft: MarkReading
-    mid: MarkReading
-    fore: MarkReading
+    aft: MarkReading  # readings at the aft marks, worked
+    mid: MarkReading  # readings at the midships marks, worked
+    fore: MarkReading  # readings at the forward marks, worked
     keel_thickness: F  # m
     marks_span: F  # m between the aft and forward marks
     trim_at_marks: F  # m, apparent
@@ -68,13 +68,13 @@ class Observed(Section):
     mct_minus: OptF  # t·m/cm, at mct_minus_draft
     mct_plus_draft: OptF  # m, quarter mean + 0.5 (or the table's end)
     mct_minus_draft: OptF  # m, quarter mean − 0.5 (or the table's end)
-    first_trim_correction: F  # t
-    second_trim_correction: F  # t
+    first_trim_correction: F  # t, 100·TPC·trim·(Lpp/2 − LCF)/Lpp
+    second_trim_correction: F  # t, 50·trim²·(MCT₊ − MCT₋)/Lpp
     displacement_trim_corrected: F  # t, table density
-    density_correction: F  # t
+    density_correction: F  # t, Δ·(density/table_density − 1)
     displacement: F  # t, observed
     calculated: F  # t, the loading's displacement
-    difference: Difference
+    difference: Difference  # observed − calculated displacement, t and %
     tolerance: F  # %
-    within: bool
+    within: bool  # |difference| % ≤ tolerance
     density_stated: bool  # False: not given; the condition's water taken as the water alongside

@@ -19,6 +19,8 @@ as KN is odd, that is the same KN with the sign of TCG reversed (GZCurve.towards
 
 from __future__ import annotations
 
+import math
+from bisect import bisect_right
 from dataclasses import dataclass, field
 from functools import cached_property
 from typing import Literal
@@ -92,62 +94,97 @@ class CrossCurves:
         return PPoly.construct_fast(np.ascontiguousarray(coef), self._rows.x)
 
 
+class KNCurve:
+    """KN(θ°) of one displacement and trim (m), θ over −θmax..θmax: the spline, with its
+    derivatives, its antiderivative and its values on the GRID_STEP_DEG grid made once, so
+    that the GZ curve at another KG (the limits search) costs a few array operations."""
+
+    def __init__(self, spline: PPoly, heel_max_deg: float) -> None:
+        self.spline = spline
+        self.heel_max_deg = float(heel_max_deg)
+        self.integral = spline.antiderivative()  # ∫KN dθ°, m·deg
+        n = round(2.0 * self.heel_max_deg / GRID_STEP_DEG) + 1
+        self.grid_heel = np.linspace(-self.heel_max_deg, self.heel_max_deg, n)
+        self.grid_kn = spline(self.grid_heel)
+        self.grid_sin = np.sin(self.grid_heel * DEG)
+        self.grid_cos = np.cos(self.grid_heel * DEG)
+        self._breaks = spline.x.tolist()
+        self._pieces = np.asarray(spline.c).T.tolist()  # per piece: cubic .. constant term
+        self._integral_pieces = np.asarray(self.integral.c).T.tolist()  # quartic .. constant
+
+    def __call__(self, heel_deg: float | np.ndarray) -> np.ndarray:
+        return self.spline(heel_deg)
+
+    def local(self, heel_deg: float) -> tuple[float, float, float]:
+        """KN (m), dKN/dθ (m/deg) and d²KN/dθ² (m/deg²) at one heel, from the spline's own
+        cubic piece (the one scipy's PPoly takes: x_i ≤ θ < x_i+1, the end pieces extended)
+        by Horner's rule in floats: the searches for roots and maxima call this thousands of
+        times per condition, where an array call costs twenty times more."""
+        i, x = self._piece(heel_deg)
+        c3, c2, c1, c0 = self._pieces[i]
+        return ((c3 * x + c2) * x + c1) * x + c0, (3.0 * c3 * x + 2.0 * c2) * x + c1, \
+            6.0 * c3 * x + 2.0 * c2
+
+    def integral_at(self, heel_deg: float) -> float:
+        """∫KN dθ° from −θmax to θ (m·deg), from the antiderivative's own piece as `local`."""
+        i, x = self._piece(heel_deg)
+        c4, c3, c2, c1, c0 = self._integral_pieces[i]
+        return (((c4 * x + c3) * x + c2) * x + c1) * x + c0
+
+    def _piece(self, heel_deg: float) -> tuple[int, float]:
+        """The index of the piece PPoly evaluates at θ, and θ less its start (deg)."""
+        b = self._breaks
+        i = min(max(bisect_right(b, heel_deg) - 1, 0), len(b) - 2)
+        return i, heel_deg - b[i]
+
+
+def kn_curve(spline: PPoly, heel_max_deg: float) -> KNCurve:
+    """The KN curve of a spline in heel (deg) defined to heel_max_deg."""
+    return KNCurve(spline, heel_max_deg)
+
+
 @dataclass(frozen=True)
 class GZCurve:
     """GZ(θ) = KN(θ) − KG_fluid·sin θ − TCG·cos θ (m), θ in degrees, + to starboard."""
 
-    kn: PPoly
+    kn: KNCurve
     kg_fluid_m: float
     tcg_m: float
-    heel_max_deg: float
+
+    @property
+    def heel_max_deg(self) -> float:
+        return self.kn.heel_max_deg
 
     def __call__(self, heel_deg: float | np.ndarray) -> np.ndarray:
         t = np.asarray(heel_deg, dtype=float) * DEG
-        return self.kn(heel_deg) - self.kg_fluid_m * np.sin(t) - self.tcg_m * np.cos(t)
+        return self.kn.spline(heel_deg) - self.kg_fluid_m * np.sin(t) - self.tcg_m * np.cos(t)
 
-    def slope(self, heel_deg: float | np.ndarray) -> np.ndarray:
-        """dGZ/dθ, m per degree."""
-        t = np.asarray(heel_deg, dtype=float) * DEG
-        return self._dkn(heel_deg) - DEG * (self.kg_fluid_m * np.cos(t)
-                                            - self.tcg_m * np.sin(t))
-
-    def curvature(self, heel_deg: float | np.ndarray) -> np.ndarray:
-        """d²GZ/dθ², m per degree²."""
-        t = np.asarray(heel_deg, dtype=float) * DEG
-        return self._ddkn(heel_deg) + DEG * DEG * (self.kg_fluid_m * np.sin(t)
-                                                   + self.tcg_m * np.cos(t))
-
-    @cached_property
-    def _dkn(self) -> PPoly:
-        return self.kn.derivative()
-
-    @cached_property
-    def _ddkn(self) -> PPoly:
-        return self.kn.derivative(2)
-
-    @cached_property
-    def kn_integral(self) -> PPoly:
-        """∫KN dθ° (m·deg), the antiderivative of the KN spline."""
-        return self.kn.antiderivative()
+    def local(self, heel_deg: float) -> tuple[float, float, float]:
+        """GZ (m), dGZ/dθ (m/deg) and d²GZ/dθ² (m/deg²) at one heel (deg): the derivatives
+        of GZ = KN − KG·sin θ − TCG·cos θ."""
+        kn, d1, d2 = self.kn.local(heel_deg)
+        t = heel_deg * DEG
+        s, c = math.sin(t), math.cos(t)
+        g, y = self.kg_fluid_m, self.tcg_m
+        return kn - g * s - y * c, d1 - DEG * (g * c - y * s), d2 + DEG * DEG * (g * s + y * c)
 
     @cached_property
     def grid(self) -> tuple[np.ndarray, np.ndarray]:
         """(heel deg, GZ m) on a GRID_STEP_DEG grid over −θmax..θmax."""
-        n = round(2.0 * self.heel_max_deg / GRID_STEP_DEG) + 1
-        heel = np.linspace(-self.heel_max_deg, self.heel_max_deg, n)
-        return heel, self(heel)
+        k = self.kn
+        return k.grid_heel, k.grid_kn - self.kg_fluid_m * k.grid_sin - self.tcg_m * k.grid_cos
 
     def towards(self, side: Literal["starboard", "port"]) -> GZCurve:
         """The curve with heel measured towards `side`: GZ_side(φ) = s·GZ(s·φ), s = ±1; as KN
         is odd (odd data, symmetric knots), the port curve is KN with TCG reversed."""
         if side == "starboard":
             return self
-        return GZCurve(self.kn, self.kg_fluid_m, -self.tcg_m, self.heel_max_deg)
+        return GZCurve(self.kn, self.kg_fluid_m, -self.tcg_m)
 
 
-def gz_curve(kn: PPoly, kg_fluid_m: float, tcg_m: float, heel_max_deg: float) -> GZCurve:
-    """The GZ curve of a KN spline for KG_fluid and TCG (m)."""
-    return GZCurve(kn, float(kg_fluid_m), float(tcg_m), float(heel_max_deg))
+def gz_curve(kn: KNCurve, kg_fluid_m: float, tcg_m: float) -> GZCurve:
+    """The GZ curve of a KN curve for KG_fluid and TCG (m)."""
+    return GZCurve(kn, float(kg_fluid_m), float(tcg_m))
 
 
 LIST_TCG_TOLERANCE_M = 1e-6  # |TCG| at or below this is no list (rounding of symmetric loads)
@@ -169,17 +206,27 @@ def area_mrad(curve: GZCurve, start_deg: float, end_deg: float, level_m: float =
     if end_deg == start_deg:
         return 0.0
     a, b = start_deg * DEG, end_deg * DEG
-    kn_part = DEG * float(curve.kn_integral(end_deg) - curve.kn_integral(start_deg))
-    return (kn_part - curve.kg_fluid_m * (np.cos(a) - np.cos(b))
-            - curve.tcg_m * (np.sin(b) - np.sin(a)) - level_m * (b - a))
+    kn_part = DEG * (curve.kn.integral_at(end_deg) - curve.kn.integral_at(start_deg))
+    return (kn_part - curve.kg_fluid_m * (math.cos(a) - math.cos(b))
+            - curve.tcg_m * (math.sin(b) - math.sin(a)) - level_m * (b - a))
 
 
-def _newton_root(curve: GZCurve, x: np.ndarray, lo: np.ndarray, hi: np.ndarray,
-                 level_m: float) -> np.ndarray:
+def on_grid(curve: GZCurve, start_deg: float, end_deg: float) -> tuple[np.ndarray, np.ndarray]:
+    """(heel deg, GZ m) at start, at the grid points strictly between, and at end."""
+    gh, gv = curve.grid
+    lo, hi = np.searchsorted(gh, start_deg, "right"), np.searchsorted(gh, end_deg, "left")
+    heel = np.concatenate([[start_deg], gh[lo:hi], [end_deg]])
+    return heel, np.concatenate([[curve.local(start_deg)[0]], gv[lo:hi],
+                                 [curve.local(end_deg)[0]]])
+
+
+def _newton_root(curve: GZCurve, x: float, lo: float, hi: float, level_m: float) -> float:
+    """Newton's method on GZ − level from x, kept within [lo, hi] (deg)."""
     for _ in range(NEWTON_STEPS):
-        d = curve.slope(x)
-        step = np.where(d != 0.0, (curve(x) - level_m) / np.where(d != 0.0, d, 1.0), 0.0)
-        x = np.clip(x - step, lo, hi)
+        f, d, _ = curve.local(x)
+        if d == 0.0:
+            break
+        x = min(max(x - (f - level_m) / d, lo), hi)
     return x
 
 
@@ -191,40 +238,36 @@ def crossings(curve: GZCurve, level_m: float, start_deg: float, end_deg: float,
     bracket. "up": GZ − level goes from ≤ 0 to > 0 with increasing heel; "down": from > 0 to
     ≤ 0.
     """
-    gh, gv = curve.grid
-    inside = (gh > start_deg) & (gh < end_deg)
-    heel = np.concatenate([[start_deg], gh[inside], [end_deg]])
-    f = np.concatenate([curve([start_deg]), gv[inside], curve([end_deg])]) - level_m
+    heel, f = on_grid(curve, start_deg, end_deg)
+    f = f - level_m
     if direction == "up":
         idx = np.nonzero((f[:-1] <= 0) & (f[1:] > 0))[0]
     else:
         idx = np.nonzero((f[:-1] > 0) & (f[1:] <= 0))[0]
-    if not len(idx):
-        return []
-    a, b, fa, fb = heel[idx], heel[idx + 1], f[idx], f[idx + 1]
-    x = np.where(fa == 0.0, a, a - fa * (b - a) / np.where(fb != fa, fb - fa, 1.0))
-    exact = (fa == 0.0) | (fb == 0.0)
-    x = np.where(exact, np.where(fa == 0.0, a, b), _newton_root(curve, x, a, b, level_m))
-    return [float(v) for v in x]
+    roots = []
+    for i in idx.tolist():
+        a, b, fa, fb = float(heel[i]), float(heel[i + 1]), float(f[i]), float(f[i + 1])
+        if fa == 0.0 or fb == 0.0:
+            roots.append(a if fa == 0.0 else b)
+        else:
+            roots.append(_newton_root(curve, a - fa * (b - a) / (fb - fa), a, b, level_m))
+    return roots
 
 
 def max_gz(curve: GZCurve, start_deg: float, end_deg: float) -> tuple[float, float]:
     """(angle deg, GZ m) of the largest GZ on [start, end]: on the grid, then Newton's method
     on dGZ/dθ = 0 within the neighbouring grid points (kept only if it is higher)."""
-    gh, gv = curve.grid
-    inside = (gh > start_deg) & (gh < end_deg)
-    heel = np.concatenate([[start_deg], gh[inside], [end_deg]])
-    f = np.concatenate([curve([start_deg]), gv[inside], curve([end_deg])])
+    heel, f = on_grid(curve, start_deg, end_deg)
     i = int(np.argmax(f))
     best_a, best_f = float(heel[i]), float(f[i])
-    lo, hi = heel[max(i - 1, 0)], heel[min(i + 1, len(heel) - 1)]
+    lo, hi = float(heel[max(i - 1, 0)]), float(heel[min(i + 1, len(heel) - 1)])
     x = best_a
     for _ in range(NEWTON_STEPS):
-        c = float(curve.curvature(x))
+        _, slope, c = curve.local(x)
         if c >= 0.0:
             break
-        x = min(max(x - float(curve.slope(x)) / c, lo), hi)
-    fx = float(curve(x))
+        x = min(max(x - slope / c, lo), hi)
+    fx = curve.local(x)[0]
     if fx > best_f:
         best_a, best_f = x, fx
     return best_a, best_f

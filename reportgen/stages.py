@@ -1,8 +1,10 @@
 """The stages of one evaluation, each taking the values the stages before it made.
 
 `upright(case)` makes everything that does not depend on KG (loading, floating position, the
-KN curve, the angles, the wind); `at_kg(up, kg_fluid)` makes the rest (the GZ curve, GM, θ1,
-the weather areas, the checks). The criteria's limits bisect on `at_kg` and re-use `upright`.
+KN curve, the angles, the wind); `checked(up, kg_fluid)` what the criteria need at a KG (the GZ
+curve, GM, θ1, the weather areas, the checks); `at_kg(up, kg_fluid)` adds what the sheet shows
+besides (equilibrium heel, angle of vanishing stability, warnings). The limits search on
+`checked` and re-use `upright`.
 These are the only functions of the flow that read the file models; the modules they call take
 arrays and plain values.
 """
@@ -12,7 +14,6 @@ from __future__ import annotations
 from dataclasses import dataclass, replace
 
 import numpy as np
-from scipy.interpolate import PPoly
 
 from reportgen import angles as angle_rules
 from reportgen import draughts as marks_rules
@@ -30,11 +31,13 @@ from reportgen.loading import Loading, condition_loading
 from reportgen.loadline import SALT_WATER_T_M3, LoadLine, load_line, summer_row
 from reportgen.stability import (
     GZCurve,
+    KNCurve,
     equilibrium_heel,
     free_surface_correction,
     gz_curve,
     has_list,
     kg_corrected,
+    kn_curve,
     list_side,
     max_gz,
     metacentric_height,
@@ -55,7 +58,7 @@ class Upright:
     sets: list[str]
     loading: Loading
     floating: Floating
-    kn: PPoly  # KN(θ°) at the condition's displacement and trim, m
+    kn: KNCurve  # KN(θ°) at the condition's displacement and trim, m
     heel_max_deg: float
     angles: angle_rules.Angles
     wind: weather23.Wind | None
@@ -67,6 +70,19 @@ class Upright:
     extras: allowance_stage.Extras = NO_EXTRAS  # timber, passengers, ice
     at_marks: dict[str, float] | None = None  # extreme draught at each mark, m
     survey: marks_rules.Survey | None = None  # the draughts read alongside, worked
+
+
+@dataclass(frozen=True)
+class Checked:
+    """The criteria of the condition at one KG corrected for free surface."""
+
+    kg_fluid_m: float
+    gm_fluid_m: float
+    curve: GZCurve  # heel + to starboard
+    side_curve: GZCurve  # towards the side of the list
+    state: State
+    weather: weather23.Weather | None
+    checks: list[Check]
 
 
 @dataclass(frozen=True)
@@ -91,7 +107,7 @@ def _floating(case: Case, vd: VesselData, loading: Loading) -> Floating:
     return floating_on_tables(vd.hydro, t.displacement, rho, t.lcg, v.particulars.length_bp)
 
 
-def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[PPoly, float, list[str]]:
+def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[KNCurve, float, list[str]]:
     lpp = case.vessel.particulars.length_bp
     cross = vd.cross
     warnings = []
@@ -101,7 +117,8 @@ def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[PPoly, float, list[st
         warnings.append(f"The cross curves were {basis}, while the condition trims "
                         f"{fl.trim:+.2f} m (more than 0.5 % of Lpp): give cross curves at "
                         f"several trims, or choose calculation.method: hull.")
-    return cross.kn_spline(fl.displacement_table_t, fl.trim), cross.heel_max_deg, warnings
+    kn = kn_curve(cross.kn_spline(fl.displacement_table_t, fl.trim), cross.heel_max_deg)
+    return kn, cross.heel_max_deg, warnings
 
 
 def _hull_angle(case: Case, vd: VesselData, loading: Loading):
@@ -153,7 +170,7 @@ def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating,
         finder = _hull_angle(case, vd, loading) if needs_hull else None
     s = angle_rules.Situation(fl.displacement_table_t, fl.trim, fl.draughts.mid, finder)
     deck_points = None
-    if vd.hull is not None and finder is not None:
+    if finder is not None and vd.hull is not None:  # the hull is made only when needed
         from reportgen.hull.tables import deck_edge_points
 
         deck_points = deck_edge_points(vd.hull)
@@ -245,7 +262,8 @@ def _float(method: str, case: Case, vd: VesselData, loading: Loading):
     hull or None, warnings) of a loading, by the tables or on the hull."""
     if method == "hull":
         hull = _on_hull(case, vd, loading)
-        return hull.floating, hull.kn, hull.heel_max_deg, hull.immersion, []
+        kn = kn_curve(hull.kn, hull.heel_max_deg)
+        return hull.floating, kn, hull.heel_max_deg, hull.immersion, []
     fl = _floating(case, vd, loading)
     kn, heel_max, kn_warnings = _kn(case, vd, fl)
     return fl, kn, heel_max, None, kn_warnings
@@ -307,29 +325,18 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
                    tuple(warnings), cargo, extras, at_marks=at_marks, survey=survey)
 
 
-def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
-    """The GZ curve, GM, weather quantities and checks at KG corrected (m)."""
+def checked(up: Upright, kg_fluid_m: float) -> Checked:
+    """The GZ curve, GM, weather quantities and checks at KG corrected (m): all the criteria
+    need, and all a search on KG evaluates (reportgen.limits)."""
     tcg = up.loading.totals.tcg
     gm = metacentric_height(up.floating.kmt, kg_fluid_m)
-    curve = gz_curve(up.kn, kg_fluid_m, tcg, up.heel_max_deg)
+    curve = gz_curve(up.kn, kg_fluid_m, tcg)
     side_curve = curve.towards(list_side(tcg))
-    heel = equilibrium_heel(curve)
     flooding = up.angles.flooding.deg
     include = up.case.vessel.calculation.gz_beyond_flooding == "include"
     credited = up.heel_max_deg if include else min(flooding, up.heel_max_deg)
     gz_max_deg, _ = max_gz(side_curve, 0.0, credited)
     wx = None
-    warnings: list[str] = []
-    if heel is None:
-        warnings.append("The GZ curve has no position of equilibrium within the cross curves: "
-                        "the ship capsizes in this condition.")
-    elif gm <= 0.0:
-        warnings.append(f"The initial GM corrected for free surface is {gm:.3f} m: the ship is "
-                        f"unstable upright and lolls to {abs(heel):.1f}°.")
-    if flooding < 30.0:
-        warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below 30°: the areas to "
-                        f"40° stop at θf, and GZ beyond θf is "
-                        f"{'credited' if include else 'not credited'}.")
     if up.wind is not None:
         w = up.case.condition.weather
         given = w.roll_angle if w is not None else None
@@ -337,14 +344,6 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
         r = rolling.roll(up.roll_hull, kg_fluid_m, gm, given)
         wx = weather23.Weather(up.wind, r, weather23.areas(side_curve, up.wind, r.theta1,
                                                            flooding), source)
-        warnings += weather23.weather_warnings(wx)
-        a = wx.areas
-        if a.theta0 is not None and flooding < a.theta0:
-            warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below the steady "
-                            f"heel under wind θ0 = {a.theta0:.1f}°.")
-        if a.theta_lw2 is not None and flooding < a.theta_lw2:
-            warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below the first "
-                            f"intercept of lw2 with GZ ({a.theta_lw2:.1f}°): area b is zero.")
     grain = None
     if up.grain is not None:
         grain = grain_rules.stability(
@@ -357,10 +356,41 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
         pax = _passenger_heel(up, kg_fluid_m, side_curve)
     state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx,
                   grain, kg_fluid_m, up.loading.totals.displacement, curve_b, pax)
-    checks = core.run(up.sets, state)
-    warnings += booklet.warnings(state)
-    return AtKG(kg_fluid_m, gm, curve, side_curve, heel, state,
-                vanishing_angle(side_curve, gz_max_deg), wx, checks, tuple(warnings))
+    return Checked(kg_fluid_m, gm, curve, side_curve, state, wx, core.run(up.sets, state))
+
+
+def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
+    """The condition at KG corrected (m): the checks, the position of equilibrium, the angle
+    of vanishing stability and the warnings."""
+    c = checked(up, kg_fluid_m)
+    heel = equilibrium_heel(c.curve)
+    flooding = up.angles.flooding.deg
+    include = up.case.vessel.calculation.gz_beyond_flooding == "include"
+    warnings: list[str] = []
+    if heel is None:
+        warnings.append("The GZ curve has no position of equilibrium within the cross curves: "
+                        "the ship capsizes in this condition.")
+    elif c.gm_fluid_m <= 0.0:
+        warnings.append(f"The initial GM corrected for free surface is {c.gm_fluid_m:.3f} m: "
+                        f"the ship is unstable upright and lolls to {abs(heel):.1f}°.")
+    if flooding < 30.0:
+        warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below 30°: the areas to "
+                        f"40° stop at θf, and GZ beyond θf is "
+                        f"{'credited' if include else 'not credited'}.")
+    wx = c.weather
+    if wx is not None:
+        warnings += weather23.weather_warnings(wx)
+        a = wx.areas
+        if a.theta0 is not None and flooding < a.theta0:
+            warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below the steady "
+                            f"heel under wind θ0 = {a.theta0:.1f}°.")
+        if a.theta_lw2 is not None and flooding < a.theta_lw2:
+            warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below the first "
+                            f"intercept of lw2 with GZ ({a.theta_lw2:.1f}°): area b is zero.")
+    warnings += booklet.warnings(c.state)
+    return AtKG(kg_fluid_m, c.gm_fluid_m, c.curve, c.side_curve, heel, c.state,
+                vanishing_angle(c.side_curve, c.state.gz_max_deg), wx, c.checks,
+                tuple(warnings))
 
 
 def _passenger_heel(up: Upright, kg_fluid_m: float,

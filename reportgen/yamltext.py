@@ -33,3 +33,8 @@ def number(value: float, decimals: int | None = None) -> str:
 
 def flow(values: Sequence[float], decimals: int | None = None) -> str:
     return "[" + ", ".join(number(v, decimals) for v in values) + "]"
+
+
+def pairs(points: Sequence[Sequence[float]], decimals: int | None = None) -> str:
+    """A flow list of pairs, e.g. the points of a profile or a station: [[x, z], ...]."""
+    return "[" + ", ".join(flow(p, decimals) for p in points) + "]"

@@ -129,3 +129,19 @@ def pypdf_update(data: bytes, change) -> bytes:
     out = io.BytesIO()
     writer.write(out)
     return out.getvalue()
+
+
+def sheet_with_painted_verdict(monkeypatch, condition: Path) -> bytes:
+    """The sheet of a failing condition rendered with its verdict words changed before
+    signing ("does not meet" -> "meets after all, despite"): a forger's page."""
+    from reportgen.inputs import load_case
+    from reportgen.pipeline import evaluate
+    from reportgen.report import render
+
+    original = render.sheet_html
+    monkeypatch.setattr(render, "sheet_html", lambda case, results: original(
+        case, results).replace("does not meet", "meets after all, despite"))
+    case = load_case(condition)
+    edited = render.render_sheet(case, evaluate(case))
+    monkeypatch.setattr(render, "sheet_html", original)
+    return edited

@@ -129,4 +129,5 @@ def test_displacement_above_a_block_coefficient_of_one_is_refused():
 
 
 def test_the_demo_vessel_file_is_plausible():
-    assert table_problems(parse_vessel(DEMO_VESSEL.read_bytes(), "demo")) == []
+    v = parse_vessel(DEMO_VESSEL.read_bytes(), "demo")
+    assert table_problems(v.particulars, v.hydrostatics, v.cross_curves, v.grain) == []

@@ -22,6 +22,7 @@ from reportgen.stability import (
     equilibrium_heel,
     gz_curve,
     gz_grid,
+    kn_curve,
     max_gz,
     vanishing_angle,
 )
@@ -30,7 +31,7 @@ HEEL = np.arange(0.0, 81.0, 5.0)
 
 
 def gz_of(cc: CrossCurves, disp_t: float, kg_m: float, tcg_m: float):
-    return gz_curve(cc.kn_spline(disp_t), kg_m, tcg_m, cc.heel_max_deg)
+    return gz_curve(kn_curve(cc.kn_spline(disp_t), cc.heel_max_deg), kg_m, tcg_m)
 
 
 def _cross(kn_of_heel) -> CrossCurves:

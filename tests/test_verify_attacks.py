@@ -27,6 +27,7 @@ from signing_helpers import (
     new_key,
     pypdf_update,
     raw_sign,
+    sheet_with_painted_verdict,
 )
 
 from reportgen.signing import verify_document
@@ -246,16 +247,7 @@ def test_overlay_drawn_before_signing_fails_in_every_form(demo, tmp_path):
 
 
 def test_page_edited_before_signing_fails(demo, monkeypatch, tmp_path):
-    from reportgen.inputs import load_case
-    from reportgen.pipeline import evaluate
-    from reportgen.report import render
-
-    original = render.sheet_html
-    monkeypatch.setattr(render, "sheet_html", lambda case, results: original(
-        case, results).replace("does not meet", "meets after all, despite"))
-    case = load_case(FAILING)
-    edited = render.render_sheet(case, evaluate(case))
-    monkeypatch.setattr(render, "sheet_html", original)
+    edited = sheet_with_painted_verdict(monkeypatch, FAILING)
     key = new_key()
     cert = make_cert(PREPARER, key)
     signed = raw_sign(edited, "prepared", key, cert, certify=True)

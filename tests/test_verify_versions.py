@@ -45,18 +45,15 @@ def test_other_stack_compares_pages_as_images(demo, trust_both, monkeypatch):
 
 
 def test_other_stack_still_catches_an_edited_page(demo, monkeypatch, tmp_path):
-    from signing_helpers import cert_file, make_cert, new_key, raw_sign
+    from signing_helpers import (
+        cert_file,
+        make_cert,
+        new_key,
+        raw_sign,
+        sheet_with_painted_verdict,
+    )
 
-    from reportgen.inputs import load_case
-    from reportgen.pipeline import evaluate
-    from reportgen.report import render
-
-    original = render.sheet_html
-    monkeypatch.setattr(render, "sheet_html", lambda case, results: original(
-        case, results).replace("does not meet", "meets after all, despite"))
-    case = load_case(FAILING)
-    edited = render.render_sheet(case, evaluate(case))
-    monkeypatch.setattr(render, "sheet_html", original)
+    edited = sheet_with_painted_verdict(monkeypatch, FAILING)
     key = new_key()
     cert = make_cert("Anyone (invented)", key)
     sheet = tmp_path / "e.pdf"

@@ -10,6 +10,7 @@ from hypothesis import strategies as st
 
 from reportgen.inputs import yamlread
 
+FLOAT_TAG = "tag:yaml.org,2002:float"
 numbers = st.one_of(st.integers(-10**12, 10**12),
                     st.floats(allow_nan=False, allow_infinity=False, width=64))
 
@@ -21,12 +22,28 @@ def test_rows_of_numbers_read_as_the_safe_loader_reads_them(row):
 
 
 def test_values_that_are_not_plain_decimals_are_left_to_the_full_constructor():
-    text = ("a: [1_000, 0x1F, 017, .inf, -.nan, 1:30, '2.5', 2.5, 1e3, 1.0e3, 007, -0, yes]\n")
-    got, ref = yamlread.parse(text.encode(), "t")["a"], yaml.safe_load(text)["a"]
-    assert [repr(v) for v in got] == [repr(v) for v in ref]
+    text = ("a: [1_000, 0x1F, 017, .inf, -.nan, 1:30, '2.5', 2.5, 1e3, 1.0e3, 007, -0, yes, "
+            "1., +1.5, -01.5, 00, -0.0, 1.5e-3, 1.5E+3, 0b101, 190:20:30.15, 2026-12-03, "
+            "~, null, .5, -.5, 1__2.5]\nb: {1.5: x, 2: y, -3: z}\n")
+    got, ref = yamlread.parse(text.encode(), "t"), yaml.safe_load(text)
+    assert [repr(v) for v in got["a"]] == [repr(v) for v in ref["a"]]
+    assert got["b"] == ref["b"]
 
 
 def test_the_demo_files_read_as_the_safe_loader_reads_them():
     for path in sorted((ROOT / "conditions").rglob("*.yaml")):
         raw = path.read_bytes()
         assert yamlread.parse(raw, path.name) == yaml.safe_load(raw), path.name
+
+
+def test_rows_of_plain_numbers_take_the_fast_path(monkeypatch):
+    """A row of plain numbers never reaches PyYAML's per-scalar constructor (libyaml's parser
+    marks a plain scalar with the style "" where PyYAML's own marks it None: both are plain)."""
+    calls = []
+    table = dict(yamlread._Loader.yaml_constructors)
+    real = table[FLOAT_TAG]
+    table[FLOAT_TAG] = lambda loader, node: calls.append(node) or real(loader, node)
+    monkeypatch.setattr(yamlread._Loader, "yaml_constructors", table)
+    text = "row: [" + ", ".join(f"{i}.5" for i in range(100)) + "]\n"
+    assert yamlread.parse(text.encode(), "t")["row"][-1] == 99.5
+    assert calls == []

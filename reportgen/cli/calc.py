@@ -8,7 +8,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli import EXIT_BAD_INPUT, main, progress
+from reportgen.cli.group import EXIT_BAD_INPUT, main, progress
 from reportgen.errors import InputError
 
 

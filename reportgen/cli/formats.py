@@ -6,7 +6,7 @@ import json
 
 import click
 
-from reportgen.cli import main
+from reportgen.cli.group import main
 from reportgen.schema import FORMATS
 
 

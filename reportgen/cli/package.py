@@ -7,7 +7,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli import main, progress
+from reportgen.cli.group import main, progress
 
 
 @main.command(epilog="""\b

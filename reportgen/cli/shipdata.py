@@ -11,7 +11,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli import main, progress
+from reportgen.cli.group import main, progress
 from reportgen.errors import InputError
 
 MESH_TYPES = {".stl": "stl", ".obj": "obj"}

@@ -15,7 +15,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli import main
+from reportgen.cli.group import main
 from reportgen.errors import InputError
 
 EXIT_CODES = """\b

@@ -45,6 +45,8 @@ N_DRAUGHTS = 41
 N_DISPLACEMENTS = 20
 MAX_TRIM_OF_LPP = 0.1  # of Lpp: trims beyond are refused (the depth of any ship is less)
 DEFAULT_HEELS_DEG = tuple(float(h) for h in range(0, 91, 5))
+GRAIN_HEELS_DEG = (12.0, 40.0)  # International Grain Code, notes to figure A 7: cross curves
+# at 12° and 40° (added to the default heels for a vessel with grain compartments)
 def _round(values: Sequence[float] | np.ndarray, decimals: int) -> list[float]:
     return [round(float(v), decimals) + 0.0 for v in values]
 
@@ -175,6 +177,14 @@ def heel_scan(geom: HullGeometry, volume_m3: float, lcg_m: float | None,
     return states
 
 
+def default_heels(vessel: Any) -> list[float]:
+    """The cross-curve heels (deg) made when none are asked for: every 5° to 90°, and the
+    Grain Code's 12° and 40° when the vessel has grain compartments."""
+    grain = getattr(vessel, "grain", None)
+    extra = GRAIN_HEELS_DEG if grain is not None and grain.compartments else ()
+    return sorted(set(DEFAULT_HEELS_DEG) | set(extra))
+
+
 def build_tables(
     vessel: Any,
     *,
@@ -190,7 +200,8 @@ def build_tables(
     summer_draft, lightship.mass, openings[i].name/x/y/z).
     even_keel: cross curves at zero trim instead of free trim (free trim: at each
     displacement, xB is held at the even-keel upright LCB, so the ship trims as it heels).
-    heels_deg: the cross-curve heels, deg (default 0 to 90 step 5; must start at 0).
+    heels_deg: the cross-curve heels, deg (default 0 to 90 step 5, with GRAIN_HEELS_DEG for a
+    vessel with grain compartments; must start at 0).
     trims: the trims (m, + by the stern) to make every table at (SPEC.md `trims`; see
     reportgen.hull.trimmed); None: one even-keel table of each.
     progress(done, total): called as the work advances.
@@ -208,7 +219,7 @@ def build_tables(
     """
     density = float(vessel.hull.density)
     geom = geometry_of(vessel)
-    heels = [float(h) for h in (DEFAULT_HEELS_DEG if heels_deg is None else heels_deg)]
+    heels = [float(h) for h in (default_heels(vessel) if heels_deg is None else heels_deg)]
     if not heels or heels[0] != 0.0 or np.any(np.diff(heels) <= 0):
         raise ValueError("the cross-curve heels must start at 0 and increase")
     if trims is not None and even_keel:

@@ -12,7 +12,7 @@ class LimitingCurve(Model):
     """The approved booklet's limiting curve (criteria set booklet.limits): KG max (m, KG
     corrected for free surface) or GM min (m, GM corrected) by displacement (t)."""
 
-    source: Text
+    source: Text  # where the curve comes from; the reference of its criterion
     displacement: Increasing  # t
     kg: list[Positive] | None = None  # m, maximum KG corrected
     gm: list[Num] | None = None  # m, minimum GM corrected

@@ -13,19 +13,15 @@ from reportgen.files import read_input
 from reportgen.inputs import yamlread
 from reportgen.inputs.condition import Condition
 from reportgen.inputs.grain import check_grain
-from reportgen.inputs.special import check_special
-from reportgen.inputs.tablecheck import table_problems
+from reportgen.inputs.special import PASSENGER_SET
 from reportgen.inputs.vessel import Vessel
 
 
 def parse_vessel(raw: bytes, name: str) -> Vessel:
     """The vessel model from the bytes of a vessel data file; `name` is used in messages.
-    Tables that cannot belong to the ship (reportgen.inputs.tablecheck) are refused."""
-    vessel = yamlread.validate(Vessel, yamlread.parse(raw, name), name, raw)
-    problems = table_problems(vessel)
-    if problems:
-        raise InputError(f"{name}: implausible tables: " + "; ".join(problems))
-    return vessel
+    Tables that cannot belong to the ship (reportgen.inputs.tablecheck) are refused by the
+    model's own validation."""
+    return yamlread.validate(Vessel, yamlread.parse(raw, name), name, raw)
 
 
 def load_vessel(path: str | Path) -> Vessel:
@@ -113,9 +109,34 @@ def _check_observed(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> N
                          f"the marks, and the vessel file has no draught_marks")
 
 
+def special_problems(cond: Condition, vessel: Vessel, sets: list[str]) -> list[tuple[tuple, str]]:
+    """(key path in the condition file, message) for each allowance or set the condition asks
+    for that the vessel's data cannot give; empty when all is well."""
+    out: list[tuple[tuple, str]] = []
+    if cond.icing != "none" and vessel.icing is None:
+        text = (f"icing {cond.icing} needs the vessel's icing block (deck_area, deck_lcg, "
+                "deck_vcg), and the vessel file has none")
+        out.append((("icing",), text))
+    if cond.passengers is not None and vessel.passengers is None:
+        text = "the vessel file has no passengers block (decks the passengers may crowd on)"
+        out.append((("passengers",), text))
+    if PASSENGER_SET in sets:
+        needs = f"the criteria set {PASSENGER_SET} needs"
+        if cond.passengers is None:
+            out.append((("criteria",), (f"{needs} the number of passengers: passengers: "
+                                       "{number: N}")))
+        if vessel.passengers is None:
+            out.append((("criteria",), (f"{needs} the vessel's passengers block (decks, "
+                                       "mass_each, vcg_above_deck)")))
+        if vessel.particulars.service_speed is None:
+            out.append((("criteria",), (f"{needs} the vessel's particulars.service_speed "
+                                       "(knots) for the turning moment of Part A 3.1")))
+    return out
+
+
 def _check_special(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> None:
     sets = list(cond.criteria) if cond.criteria is not None else list(vessel.criteria)
-    problems = check_special(cond, vessel, sets)
+    problems = special_problems(cond, vessel, sets)
     if problems:
         path, text = problems[0]
         where = yamlread.where(path, yamlread.key_lines(raw))

@@ -29,17 +29,17 @@ FILLING_KINDS = ("percent", "volume", "sounding", "ullage", "mass")
 
 
 class ConditionInfo(Model):
-    title: Text
-    voyage: Text | None = None
-    date: IsoDate | None = None
-    water_density: WaterDensity = 1.025  # t/m³
-    arrival: bool = False  # timber deck cargo water absorption (SPEC, is2008.timber)
+    title: Text  # the condition's title, printed on the sheet
+    voyage: Text | None = None  # the voyage; the sheet says "not stated" without it
+    date: IsoDate | None = None  # YYYY-MM-DD, a real date; "not stated" without it
+    water_density: WaterDensity = 1.025  # t/m³, of the water the ship floats in
+    arrival: bool = False  # true: arrival; timber deck cargo has absorbed water (is2008.timber)
 
 
 class Filling(Model):
     """One tank's filling: exactly one of the kinds, and optionally the liquid's density."""
 
-    percent: Percent | None = None  # of the tank's capacity
+    percent: Percent | None = None  # % of the tank's capacity
     volume: NonNegative | None = None  # m³
     sounding: NonNegative | None = None  # m
     ullage: NonNegative | None = None  # m, below the tank's ullage_reference
@@ -64,7 +64,7 @@ class Filling(Model):
 
 
 class Item(Model):
-    name: Text
+    name: Text  # the item's name, printed as its loading line
     mass: Positive  # t
     lcg: Num  # m from AP
     vcg: Num  # m above base
@@ -83,8 +83,8 @@ class Item(Model):
 
 
 class Weather(Model):
-    roll_angle: Annotated[float, Field(gt=0, le=60)] | None = None  # θ1, deg
-    roll_angle_source: Text | None = None
+    roll_angle: Annotated[float, Field(gt=0, le=60)] | None = None  # θ1, deg: replaces the formula
+    roll_angle_source: Text | None = None  # the report θ1 comes from, printed on the sheet
 
     @model_validator(mode="after")
     def _source(self) -> Weather:
@@ -97,24 +97,23 @@ class Weather(Model):
 
 class Reading(Model):
     port: Positive  # extreme draught read at the mark on the port side, m
-    starboard: Positive  # m
+    starboard: Positive  # extreme draught read at the mark on the starboard side, m
 
 
 class Observed(Model):
     """The draughts read at the marks (extreme, m) and the water alongside (SPEC.md)."""
 
-    aft: Reading
-    mid: Reading
-    fore: Reading
-    density: WaterDensity | None = None  # t/m³, of the water alongside (default: the
-    # condition's water_density)
+    aft: Reading  # the readings at the aft marks, m
+    mid: Reading  # the readings at the midships marks, m
+    fore: Reading  # the readings at the forward marks, m
+    density: WaterDensity | None = None  # t/m³, of the water alongside (default: the condition's)
     tolerance: Annotated[float, Field(gt=0, le=5)] = 0.5  # % of displacement
 
 
 class Signatories(Model):
-    prepared_by: Text | None = None
-    checked_by: Text | None = None
-    reviewed_by: Text | None = None
+    prepared_by: Text | None = None  # who prepares; the signing certificate's name must match
+    checked_by: Text | None = None  # who checks; the signing certificate's name must match
+    reviewed_by: Text | None = None  # who reviews; the signing certificate's name must match
 
 
 def _chosen_sets(values: list[str]) -> list[str]:
@@ -124,17 +123,18 @@ def _chosen_sets(values: list[str]) -> list[str]:
 
 
 class Condition(Model):
-    format: Literal["reportgen/condition-1"]
+    format: Literal["reportgen/condition-1"]  # format id: reportgen/condition-1
     vessel: Text  # path of the vessel data file, relative to the condition file
-    condition: ConditionInfo
-    tanks: dict[str, Filling] = Field(default_factory=dict)
-    items: list[Item]
-    free_surface: Literal["code", "actual", "maximum"] = "code"
-    criteria: Annotated[list[str], AfterValidator(_chosen_sets)] | None = None
-    weather: Weather | None = None
-    passengers: ConditionPassengers | None = None  # IS Code 2008 Part A 3.1
-    icing: Literal["full", "half", "none"] = "none"  # IS Code 2008 Part B chapter 6
-    signatories: Signatories | None = None
+    condition: ConditionInfo  # title, voyage, date and water density
+    tanks: dict[str, Filling] = Field(default_factory=dict)  # fillings by tank id; others are empty
+    items: list[Item]  # cargo, stores, crew, deck cargo (may be empty)
+    free_surface: Literal["code", "actual", "maximum"] = "code"  # free-surface rule, Part B 3.1
+    criteria: Annotated[list[str], AfterValidator(_chosen_sets)] | None = None  # replaces vessel's
+    # criteria sets: each must be in the vessel's criteria or permitted_criteria
+    weather: Weather | None = None  # a roll angle θ1 in place of the 2.3.4 formula
+    passengers: ConditionPassengers | None = None  # passengers on board (IS Code 2008 Part A 3.1)
+    icing: Literal["full", "half", "none"] = "none"  # ice allowance (IS Code 2008 Part B chapter 6)
+    signatories: Signatories | None = None  # the persons named for the signature roles
     observed: Observed | None = None  # draughts read alongside (needs the vessel's marks)
     grain: ConditionGrain | None = None  # grain in bulk (SPEC grain.2008)
-    notes: Any = None
+    notes: Any = None  # free text or data, not read by the calculation

@@ -55,9 +55,9 @@ class PartlyGrain(Model):
 
 
 class GrainCompartment(Model):
-    id: Text
-    name: Text
-    filled: FilledGrain
+    id: Text  # compartment id, unique; the condition's grain names it
+    name: Text  # the compartment's name, printed on the sheet
+    filled: FilledGrain  # the compartment filled, trimmed (A 2.2)
     filled_untrimmed_vhm: NonNegative | None = None  # m⁴ (A 2.3, B 1.1.3)
     partly: PartlyGrain | None = None  # partly filled (A 2.4): centre and VHM by volume
 

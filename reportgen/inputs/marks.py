@@ -11,9 +11,9 @@ from reportgen.inputs.fields import Model, Num
 class DraughtMarks(Model):
     """x of the draught marks, m from AP."""
 
-    aft: Num
-    mid: Num
-    fore: Num
+    aft: Num  # m from AP, x of the aft marks
+    mid: Num  # m from AP, x of the midships marks
+    fore: Num  # m from AP, x of the forward marks
 
     @model_validator(mode="after")
     def _order(self) -> DraughtMarks:

@@ -16,12 +16,10 @@ Units: m, t, t/m³.
 
 from __future__ import annotations
 
-from typing import TYPE_CHECKING
-
 import numpy as np
 
-if TYPE_CHECKING:
-    from reportgen.inputs.vessel import Vessel
+from reportgen.inputs.grain import VesselGrain
+from reportgen.inputs.tables import CrossCurves, Hydrostatics, Particulars
 
 OVERHANG_FRACTION = 0.15  # of Lpp beyond each perpendicular (reportgen.plausible)
 KN_AT_ZERO_TOLERANCE_M = 0.01
@@ -32,12 +30,13 @@ def _first_bad(mask: np.ndarray) -> int | None:
     return None if bad.size == 0 else int(bad[0][0])
 
 
-def table_problems(v: Vessel) -> list[str]:
-    """What in the hydrostatic table and cross curves cannot belong to this ship."""
-    p, problems = v.particulars, []
+def table_problems(p: Particulars, h: Hydrostatics | None, c: CrossCurves | None,
+                   grain: VesselGrain | None) -> list[str]:
+    """What in the hydrostatic table, cross curves and grain compartments cannot belong to a
+    ship of these particulars."""
+    problems: list[str] = []
     length_m = (1.0 + 2.0 * OVERHANG_FRACTION) * p.length_bp
     x_lo, x_hi = -OVERHANG_FRACTION * p.length_bp, (1.0 + OVERHANG_FRACTION) * p.length_bp
-    h = v.hydrostatics
     if h is not None:
         k = 1 if h.trims is None else len(h.trims)
         draft = np.asarray(h.draft, dtype=float)
@@ -60,7 +59,6 @@ def table_problems(v: Vessel) -> list[str]:
             if i is not None:
                 problems.append(f"hydrostatics.{name}: {values[i]:g} m is outside the ship "
                                 f"({x_lo:g} to {x_hi:g} m from the AP)")
-    c = v.cross_curves
     if c is not None:
         kn = np.asarray(c.kn, dtype=float).reshape(-1, len(c.displacement), len(c.heel))
         bound = float(np.hypot(p.breadth, p.depth + p.breadth))
@@ -74,7 +72,7 @@ def table_problems(v: Vessel) -> list[str]:
         i = _first_bad(np.abs(kn[:, :, 0]).max(axis=0) > KN_AT_ZERO_TOLERANCE_M)
         if i is not None:
             problems.append(f"cross_curves.kn row {i + 1}: KN at heel 0° must be 0")
-    for comp in v.grain.compartments if v.grain is not None else []:
+    for comp in grain.compartments if grain is not None else []:
         rows = [(comp.filled.lcg, comp.filled.vcg)]
         if comp.partly is not None:
             rows += list(zip(comp.partly.lcg, comp.partly.vcg, strict=True))

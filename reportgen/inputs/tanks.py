@@ -24,12 +24,12 @@ from reportgen.inputs.fields import (
 
 
 class TankTable(Model):
-    sounding: Increasing  # m
-    volume: Increasing  # m³
+    sounding: Increasing  # m, strictly increasing
+    volume: Increasing  # m³, strictly increasing; the last row is the capacity
     lcg: Column  # m from AP
     vcg: Column  # m above base
     tcg: Column  # m, + starboard
-    fsi: list[NonNegative]  # m⁴
+    fsi: list[NonNegative]  # m⁴, transverse moment of inertia of the free surface
 
     @model_validator(mode="after")
     def _rows(self) -> TankTable:
@@ -63,9 +63,9 @@ class TankGeometry(Model):
 
 
 class Tank(Model):
-    id: Text
-    name: Text
-    content: Text
+    id: Text  # tank id, unique: the key of a condition's `tanks`
+    name: Text  # the tank's name, printed on the sheet
+    content: Text  # free word: ballast, fuel, fresh water...; groups consumables
     role: Literal["fixed", "consumable"] | None = None  # default by content (default_role)
     pair: Text | None = None  # id of its transverse twin (Part B 3.1.4), given on both
     density: Density  # t/m³

@@ -15,11 +15,9 @@ from shapely.geometry import Polygon
 from reportgen.criteria.sets import SETS
 from reportgen.inputs.booklet import LimitingCurve
 from reportgen.inputs.fields import (
-    Column,
     Density,
     Increasing,
     Model,
-    NonNegative,
     Num,
     Percent,
     Point2,
@@ -31,170 +29,59 @@ from reportgen.inputs.grain import VesselGrain
 from reportgen.inputs.marks import DraughtMarks, check_marks
 from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
 from reportgen.inputs.tablecheck import table_problems
+from reportgen.inputs.tables import (  # noqa: F401 (re-exported)
+    CrossCurves,
+    Hydrostatics,
+    Particulars,
+    Trims,
+    per_trim,
+    rows_of,
+)
 from reportgen.inputs.tanks import Tank, TankTable, default_role  # noqa: F401 (re-exported)
 
 VESSEL_FORMAT = "reportgen/vessel-1"
 
 
 class VesselId(Model):
-    name: Text
-    identifier: Text
-    type: Text = "cargo"
-
-
-class Particulars(Model):
-    length_bp: Positive  # Lpp, m
-    breadth: Positive  # moulded B, m
-    depth: Positive  # moulded depth to the freeboard deck at side, m
-    summer_draft: Positive  # moulded summer load line draught, m
-    keel_thickness: NonNegative = 0.0  # m
-    bilge: Literal["round", "sharp"] = "round"
-    bilge_keel_area: NonNegative = 0.0  # Ak, m²
-    service_speed: Positive | None = None  # knots
-
-    @model_validator(mode="after")
-    def _draft_below_depth(self) -> Particulars:
-        if self.summer_draft >= self.depth:
-            raise ValueError("summer_draft must be less than depth")
-        return self
+    name: Text  # the ship's name, printed on every document
+    identifier: Text  # the ship's identifier, printed beside its name on every document
+    type: Text = "cargo"  # the ship's type in a free word (general cargo, passenger, ...)
 
 
 class Lightship(Model):
-    mass: Positive  # t
-    lcg: Num  # m from AP
-    vcg: Num  # m above base
-    tcg: Num = 0.0  # m, + starboard
-
-
-def _per_trim(model: Any, name: str, trims: list[float] | None, rows: int) -> None:
-    """ValueError unless column `name` is one row of `rows` values (no trims) or one such row
-    per trim."""
-    value = getattr(model, name)
-    if value is None:
-        return
-    nested = bool(value) and isinstance(value[0], list)
-    if trims is None:
-        if nested:
-            raise ValueError(f"{name}: one row per trim is given, but no trims")
-        if len(value) != rows:
-            raise ValueError(f"{name} has {len(value)} rows, draft has {rows}")
-        return
-    if not nested or len(value) != len(trims):
-        raise ValueError(f"{name}: with trims, give one row per trim ({len(trims)} rows)")
-    for k, row in enumerate(value):
-        if len(row) != rows:
-            raise ValueError(f"{name} row {k + 1} (trim {trims[k]:g} m) has {len(row)} values, "
-                             f"draft has {rows}")
-
-
-def rows_of(value: list | None, n_trims: int) -> np.ndarray | None:
-    """A column given flat (no trims) or per trim as an (n_trims, n) array (None stays None)."""
-    if value is None:
-        return None
-    arr = np.asarray(value, dtype=float)
-    return arr.reshape(1, -1) if arr.ndim == 1 else arr.reshape(n_trims, -1)
-
-
-Rows = Column | list[Column]
-Trims = Annotated[list[Num], AfterValidator(increasing)]
-
-
-class Hydrostatics(Model):
-    density: Density = 1.025  # t/m³, the density the table was made at
-    trims: Trims | None = None  # m, + by the stern; then columns other than draft are per trim
-    draft: Increasing  # moulded, m (at midships when trims are given)
-    displacement: Rows  # t
-    lcb: Rows  # m from AP
-    lcf: Rows  # m from AP
-    kmt: Rows  # m
-    mct: Rows  # t·m/cm
-    tpc: Rows  # t/cm
-    lwl: Rows | None = None  # m
-    cb: Rows | None = None
-
-    @model_validator(mode="after")
-    def _rows(self) -> Hydrostatics:
-        n = len(self.draft)
-        names = ["displacement", "lcb", "lcf", "kmt", "mct", "tpc", "lwl", "cb"]
-        for name in names:
-            _per_trim(self, name, self.trims, n)
-        if self.draft[0] < 0:
-            raise ValueError("draft must not be negative")
-        k = 1 if self.trims is None else len(self.trims)
-        for k_row, row in enumerate(rows_of(self.displacement, k)):
-            where = "" if self.trims is None else f" at trim {self.trims[k_row]:g} m"
-            try:
-                increasing(list(row))
-            except ValueError as exc:
-                raise ValueError(f"displacement{where}: {exc}") from None
-        for name in ("kmt", "mct", "tpc", "lwl", "cb"):
-            arr = rows_of(getattr(self, name), k)
-            if arr is not None and np.any(arr <= 0):
-                raise ValueError(f"{name}: values must be positive")
-        cb = rows_of(self.cb, k)
-        if cb is not None and np.any(cb > 1.0):
-            raise ValueError("cb: a block coefficient cannot exceed 1")
-        return self
-
-
-class CrossCurves(Model):
-    trim: Literal["free", "even_keel", "fixed"]
-    trims: Trims | None = None  # m: the upright trims the tables were made at
-    heel: Increasing  # deg
-    displacement: Increasing  # t
-    kn: list[Column] | list[list[Column]]  # m: kn[i][j], or kn[k][i][j] with trims
-
-    @model_validator(mode="after")
-    def _shape(self) -> CrossCurves:
-        if self.heel[0] != 0:
-            raise ValueError("heel must start at 0 (negative heels follow by symmetry)")
-        if self.heel[-1] < 60 or self.heel[-1] > 90:
-            raise ValueError("heel must reach at least 60 deg and not exceed 90 deg")
-        if self.trim == "fixed" and self.trims is None:
-            raise ValueError("trim: fixed needs trims (the trims the table was made at)")
-        tables = [self.kn] if self.trims is None else self.kn
-        if self.trims is not None and len(self.kn) != len(self.trims):
-            raise ValueError(f"kn: with trims, give one table per trim ({len(self.trims)})")
-        for k, table in enumerate(tables):
-            at = "" if self.trims is None else f" (trim {self.trims[k]:g} m)"
-            if not table or not isinstance(table[0], list):
-                raise ValueError(f"kn{at}: expected one row per displacement")
-            if len(table) != len(self.displacement):
-                raise ValueError(f"kn{at} has {len(table)} rows, displacement has "
-                                 f"{len(self.displacement)}: one row per displacement")
-            for i, row in enumerate(table):
-                if not isinstance(row, list) or len(row) != len(self.heel):
-                    raise ValueError(f"kn{at} row {i + 1} has {len(row)} values, heel has "
-                                     f"{len(self.heel)}: one value per heel")
-        return self
+    mass: Positive  # t, lightship mass
+    lcg: Num  # m from AP, lightship LCG
+    vcg: Num  # m above base, lightship VCG (KG)
+    tcg: Num = 0.0  # m from the centreline, + starboard
 
 
 Angle = Annotated[float, Field(ge=0, le=90)]  # 0: immersed already upright
 
 
 class AngleTable(Model):
-    trims: Trims | None = None  # m, + by the stern
-    displacement: Increasing  # t
+    trims: Trims | None = None  # m, + by the stern: the trims of the rows of `angle`
+    displacement: Increasing  # t, strictly increasing, at the hydrostatic table's density
     angle: list[Angle] | list[list[Angle]]  # deg: angle[i], or angle[k][i] with trims
-    # optional (flooding angle): the governing opening's name at each entry, as `angle`
-    opening: list[Text] | list[list[Text]] | None = None
+    opening: list[Text] | list[list[Text]] | None = None  # governing opening's name by entry
+    # (flooding_angle only) shaped as `angle`; each one of `openings`
 
     @model_validator(mode="after")
     def _rows(self) -> AngleTable:
-        _per_trim(self, "angle", self.trims, len(self.displacement))
-        _per_trim(self, "opening", self.trims, len(self.displacement))
+        per_trim(self, "angle", self.trims, len(self.displacement))
+        per_trim(self, "opening", self.trims, len(self.displacement))
         return self
 
 
 class Opening(Model):
-    name: Text
+    name: Text  # the opening's name, printed when it governs θf
     x: Num  # m from AP
     y: Num  # m from centreline, + starboard
     z: Num  # m above base
 
 
 class Windage(Model):
-    profile: list[Point2]  # [x, z], m: closed polygon of the lateral projection
+    profile: list[Point2]  # [x, z], m: lateral projection of hull and superstructure
+    # a closed polygon (Part A 2.3.2.2: the lateral area A and its centre)
 
     @model_validator(mode="after")
     def _polygon(self) -> Windage:
@@ -224,7 +111,7 @@ class Station(Model):
 
 class HullOffsets(Model):
     density: Density = 1.025  # t/m³, for the tables made from the offsets
-    stations: list[Station]
+    stations: list[Station]  # sections, at least three, x strictly increasing
 
     @model_validator(mode="after")
     def _stations(self) -> HullOffsets:
@@ -235,10 +122,13 @@ class HullOffsets(Model):
 
 
 class Calculation(Model):
-    method: Literal["tables", "hull"] = "tables"
-    wind_lever: Literal["half_draft", "underwater_centre"] = "half_draft"
-    full_percent: Annotated[Percent, Field(ge=90)] = 98.0  # Part B 3.1.2
-    gz_beyond_flooding: Literal["exclude", "include"] = "exclude"
+    method: Literal["tables", "hull"] = "tables"  # read the tables, or compute on the offsets
+    wind_lever: Literal["half_draft", "underwater_centre"] = "half_draft"  # Z of Part A 2.3.2.2
+    # from the centre of A to half the mean draught (half_draft), or to the centre of the
+    # underwater lateral area (underwater_centre)
+    full_percent: Annotated[Percent, Field(ge=90)] = 98.0  # tank full at this % (Part B 3.1.2)
+    gz_beyond_flooding: Literal["exclude", "include"] = "exclude"  # GZ past θf in 2.2.2, 2.2.3
+    # exclude: the curve is credited up to θf only; include: to the end of the table
 
 
 def known_sets(values: list[str]) -> list[str]:
@@ -261,30 +151,31 @@ CriteriaSets = Annotated[list[str], AfterValidator(_some_sets)]
 
 
 class Vessel(Model):
-    format: Literal["reportgen/vessel-1"]
-    vessel: VesselId
+    format: Literal["reportgen/vessel-1"]  # format id: reportgen/vessel-1
+    vessel: VesselId  # the ship's name, identifier and type
     source: dict[str, Text] | None = None  # where the data come from, printed on every sheet
-    particulars: Particulars
-    lightship: Lightship
-    hydrostatics: Hydrostatics | None = None
-    cross_curves: CrossCurves | None = None
-    deck_edge: AngleTable | None = None
-    openings: list[Opening] = Field(default_factory=list)
-    flooding_angle: AngleTable | None = None
-    windage: Windage
-    tanks: list[Tank] = Field(default_factory=list)
-    criteria: CriteriaSets
+    particulars: Particulars  # Lpp, breadth, depth, summer draught, keel, bilge (m, m²)
+    lightship: Lightship  # lightship mass (t) and centre of gravity (m)
+    hydrostatics: Hydrostatics | None = None  # hydrostatic table by draught; goes with cross_curves
+    cross_curves: CrossCurves | None = None  # KN by displacement and heel; goes with hydrostatics
+    deck_edge: AngleTable | None = None  # deck edge immersion angle by displacement (deg)
+    openings: list[Opening] = Field(default_factory=list)  # unprotected openings, for θf
+    # (they need hull offsets or a flooding_angle table)
+    flooding_angle: AngleTable | None = None  # angle of flooding θf by displacement (deg)
+    windage: Windage  # lateral windage profile for the weather criterion (Part A 2.3)
+    tanks: list[Tank] = Field(default_factory=list)  # the ship's tanks: content, density, table
+    criteria: CriteriaSets  # criteria sets every condition is checked against
     permitted_criteria: Annotated[list[str], AfterValidator(known_sets)] = Field(
-        default_factory=list)
-    calculation: Calculation = Calculation()
+        default_factory=list)  # sets a condition may choose instead (its `criteria`)
+    calculation: Calculation = Calculation()  # calculation choices, each stated on the sheet
     limiting_kg: LimitingCurve | None = None  # the booklet's curve (criteria set booklet.limits)
     limiting_gm: LimitingCurve | None = None  # the same as a minimum GM curve (gm:)
-    hull: HullOffsets | None = None
+    hull: HullOffsets | None = None  # hull offsets: for `reportgen tables`, the hull method and θf
     draught_marks: DraughtMarks | None = None  # x of the marks, m from AP
-    passengers: VesselPassengers | None = None  # IS Code 2008 Part A 3.1
-    icing: VesselIcing | None = None  # IS Code 2008 Part B chapter 6
+    passengers: VesselPassengers | None = None  # passenger decks (IS Code 2008 Part A 3.1)
+    icing: VesselIcing | None = None  # decks that ice up (IS Code 2008 Part B chapter 6)
     grain: VesselGrain | None = None  # grain compartments (Grain Code; SPEC grain.2008)
-    notes: Any = None
+    notes: Any = None  # free text or data, not read by the calculation
 
     @model_validator(mode="after")
     def _whole(self) -> Vessel:
@@ -324,10 +215,12 @@ class Vessel(Model):
                                  f"tanks of this vessel that name each other")
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
-        problems = table_problems(self)
+        problems = table_problems(self.particulars, self.hydrostatics, self.cross_curves,
+                                  self.grain)
         if problems:
             raise ValueError("implausible tables: " + "; ".join(problems))
-        problems = vessel_problems(self)
+        top = max(z for _, z in self.windage.profile)
+        problems = vessel_problems(self.particulars, self.passengers, self.icing, top)
         if problems:
             raise ValueError(problems[0])
         return self

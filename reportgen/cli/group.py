@@ -1,0 +1,65 @@
+"""The command group every command registers on, its error handling and its helpers
+(SPEC.md, "Command line").
+
+Exit status: 0 success (every criterion passed / every signature good), 1 a criterion failed or
+a verification found a fault, 2 bad input (a clear message, nothing written).
+"""
+
+from __future__ import annotations
+
+import os
+import sys
+from collections.abc import Callable, Iterator
+from contextlib import contextmanager
+from pathlib import Path
+
+import click
+
+from reportgen import __version__
+from reportgen.errors import InputError
+
+EXIT_BAD_INPUT = 2
+
+
+@contextmanager
+def progress(what: str, total: int | None) -> Iterator[Callable[[], None]]:
+    """A progress bar on stderr for work of `total` steps, shown only on a terminal and not
+    with NO_COLOR set; yields the function that advances it one step."""
+    from rich.progress import Progress
+
+    shown = sys.stderr.isatty() and not os.environ.get("NO_COLOR")
+    with Progress(transient=True, disable=not shown) as bar:
+        task = bar.add_task(what, total=total)
+        yield lambda: bar.advance(task)
+
+
+class _Group(click.Group):
+    """Turns InputError into one line on stderr and exit status 2, never a traceback."""
+
+    def invoke(self, ctx: click.Context):
+        from reportgen.files import command_scope
+
+        try:
+            with command_scope():  # outputs never replace this command's inputs
+                return super().invoke(ctx)
+        except InputError as exc:
+            click.echo(f"reportgen: {exc}", err=True)
+            ctx.exit(EXIT_BAD_INPUT)
+        except KeyboardInterrupt:
+            click.echo("reportgen: interrupted; nothing was written", err=True)
+            ctx.exit(130)
+
+
+def read_passphrase(path: Path | None) -> bytes | None:
+    if path is None:
+        return None
+    try:
+        return path.read_bytes().rstrip(b"\r\n")
+    except OSError as exc:
+        raise InputError(f"{path}: cannot read the passphrase file: {exc.strerror}") from None
+
+
+@click.group(cls=_Group, context_settings={"help_option_names": ["-h", "--help"]})
+@click.version_option(__version__, "-V", "--version", prog_name="reportgen")
+def main() -> None:
+    """Intact stability calculation sheets to the IMO 2008 IS Code."""
