@@ -1,7 +1,7 @@
 """The stages of one evaluation, each taking the values the stages before it made.
 
-`upright(case)` makes everything that does not depend on KG (loading, floating position, the
-KN curve, the angles, the wind); `checked(up, kg_fluid)` what the criteria need at a KG (the GZ
+`upright(case)` (reportgen.upright) makes everything that does not depend on KG (loading,
+floating position, the KN curve, the angles, the wind); `checked(up, kg_fluid)` what the criteria need at a KG (the GZ
 curve, GM, θ1, the weather areas, the checks); `at_kg(up, kg_fluid)` adds what the sheet shows
 besides (equilibrium heel, angle of vanishing stability, warnings). The limits search on
 `checked` and re-use `upright`.
@@ -11,65 +11,25 @@ arrays and plain values.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 
-import numpy as np
-
-from reportgen import angles as angle_rules
-from reportgen import draughts as marks_rules
-from reportgen import extras as allowance_stage
 from reportgen import grain as grain_rules
-from reportgen import plausible
 from reportgen.criteria import booklet, core, passenger, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
-from reportgen.errors import InputError
-from reportgen.floating import Floating, floating_on_tables
-from reportgen.grainload import GrainCargo, grain_cargo
-from reportgen.inputs import Case
-from reportgen.loading import Loading, condition_loading
-from reportgen.loadline import SALT_WATER_T_M3, LoadLine, load_line, summer_row
 from reportgen.stability import (
     GZCurve,
-    KNCurve,
     equilibrium_heel,
     free_surface_correction,
     gz_curve,
     has_list,
     kg_corrected,
-    kn_curve,
     list_side,
     max_gz,
     metacentric_height,
     vanishing_angle,
 )
-from reportgen.vesseldata import VesselData
-
-MIN_LENGTH_M = 24.0  # IS Code 2008 Part A 2.3 and SPEC.md: ships of 24 m in length and over
-SINGLE_TRIM_TOLERANCE = angle_rules.SINGLE_TRIM_TOLERANCE
-NO_EXTRAS = allowance_stage.Extras()
-
-
-@dataclass(frozen=True)
-class Upright:
-    """Everything of a condition that does not depend on KG."""
-
-    case: Case
-    sets: list[str]
-    loading: Loading
-    floating: Floating
-    kn: KNCurve  # KN(θ°) at the condition's displacement and trim, m
-    heel_max_deg: float
-    angles: angle_rules.Angles
-    wind: weather23.Wind | None
-    roll_hull: rolling.Hull | None
-    cb_source: str
-    load_line: LoadLine | None
-    warnings: tuple[str, ...]
-    grain: GrainCargo | None = None  # grain in bulk (Grain Code), None without
-    extras: allowance_stage.Extras = NO_EXTRAS  # timber, passengers, ice
-    at_marks: dict[str, float] | None = None  # extreme draught at each mark, m
-    survey: marks_rules.Survey | None = None  # the draughts read alongside, worked
+from reportgen.upright import Upright, upright  # noqa: F401 (the first stage, re-exported)
 
 
 @dataclass(frozen=True)
@@ -99,230 +59,6 @@ class AtKG:
     weather: weather23.Weather | None
     checks: list[Check]
     warnings: tuple[str, ...]
-
-
-def _floating(case: Case, vd: VesselData, loading: Loading) -> Floating:
-    v, t = case.vessel, loading.totals
-    rho = case.condition.condition.water_density
-    return floating_on_tables(vd.hydro, t.displacement, rho, t.lcg, v.particulars.length_bp)
-
-
-def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[KNCurve, float, list[str]]:
-    lpp = case.vessel.particulars.length_bp
-    cross = vd.cross
-    warnings = []
-    if cross.trims is None and abs(fl.trim) > SINGLE_TRIM_TOLERANCE * lpp:
-        basis = ("made on an even keel" if case.vessel.cross_curves.trim == "even_keel" else
-                 "made free to trim from even keel")
-        warnings.append(f"The cross curves were {basis}, while the condition trims "
-                        f"{fl.trim:+.2f} m (more than 0.5 % of Lpp): give cross curves at "
-                        f"several trims, or choose calculation.method: hull.")
-    kn = kn_curve(cross.kn_spline(fl.displacement_table_t, fl.trim), cross.heel_max_deg)
-    return kn, cross.heel_max_deg, warnings
-
-
-def _hull_angle(case: Case, vd: VesselData, loading: Loading):
-    """The immersion finder on the hull offsets at the condition's equilibrium (free trim,
-    xB = LCG), or None without offsets."""
-    geom = vd.hull
-    if geom is None:
-        return None
-    from reportgen.hull.tables import heel_scan, immersion_angle
-
-    rho = case.condition.condition.water_density
-    volume = loading.totals.displacement / rho
-    lcg = loading.totals.lcg
-    heels = [float(h) for h in vd.cross.heel_deg] if vd.cross is not None else \
-        [float(h) for h in range(0, 91, 5)]
-    scanned = heel_scan(geom, volume, lcg, heels)
-
-    def angle(points_xyz: np.ndarray) -> float:
-        return immersion_angle(geom, points_xyz, volume, lcg, scanned)
-
-    return angle
-
-
-def _on_hull(case: Case, vd: VesselData, loading: Loading):
-    """The condition computed on the hull offsets (calculation.method: hull)."""
-    from reportgen.hull.direct import on_hull
-    from reportgen.hull.trimmed import check_stations
-
-    try:
-        check_stations(vd.hull, case.vessel.particulars.summer_draft)
-        return on_hull(vd.hull, loading.totals.displacement,
-                       case.condition.condition.water_density, loading.totals.lcg)
-    except ValueError as exc:
-        tail = ("; the LCG lies too far forward or aft of the hull's centre of buoyancy for "
-                "this displacement: check the masses and their lcg"
-                if str(exc).startswith("no free-trim equilibrium") else "")
-        raise InputError(f"{exc}{tail}") from None
-
-
-def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating,
-            finder=None) -> angle_rules.Angles:
-    """θf and the deck edge; with `finder` (the hull route's) both come from the hull."""
-    v = case.vessel
-    p = v.particulars
-    needs_hull = not (angle_rules.is_multi_trim(vd.deck_edge)
-                      and (angle_rules.is_multi_trim(vd.flooding) or not v.openings))
-    on_hull = finder is not None
-    if not on_hull:
-        finder = _hull_angle(case, vd, loading) if needs_hull else None
-    s = angle_rules.Situation(fl.displacement_table_t, fl.trim, fl.draughts.mid, finder)
-    deck_points = None
-    if finder is not None and vd.hull is not None:  # the hull is made only when needed
-        from reportgen.hull.tables import deck_edge_points
-
-        deck_points = deck_edge_points(vd.hull)
-    deck, w1 = angle_rules.deck_edge_angle(None if on_hull else vd.deck_edge, s, deck_points,
-                                           p.depth, p.breadth, p.length_bp)
-    openings = [angle_rules.Opening(o.name, o.x, o.y, o.z) for o in v.openings]
-    flood, w2 = angle_rules.flooding_angle(None if on_hull else vd.flooding, s, openings,
-                                           p.length_bp)
-    return angle_rules.Angles(deck, flood, tuple(w1 + w2))
-
-
-def _roll_hull(case: Case, fl: Floating, loading: Loading) -> tuple[rolling.Hull, str]:
-    p = case.vessel.particulars
-    lwl = fl.lwl if fl.lwl is not None else p.length_bp
-    d = fl.draughts.mid
-    if fl.cb is not None:
-        cb, source = fl.cb, "hull" if fl.method == "hull" else "table"
-    else:
-        rho = case.condition.condition.water_density
-        cb = rolling.block_coefficient(loading.totals.displacement, rho, lwl, p.breadth, d)
-        source = "computed"
-    return rolling.Hull(p.breadth, d, lwl, cb, p.bilge, p.bilge_keel_area), source
-
-
-def _load_line(case: Case, vd: VesselData, fl: Floating) -> tuple[LoadLine | None, list[str]]:
-    """The load line from the hydrostatic table's even-keel row (trim 0) in salt water, or
-    from the hull on an even keel with the hull route."""
-    h = vd.hydro
-    p = case.vessel.particulars
-    if fl.method == "hull":
-        from reportgen.hull.direct import summer_on_hull
-
-        disp_s, tpc_s = summer_on_hull(vd.hull, p.summer_draft, SALT_WATER_T_M3)
-    elif h is None:
-        return None, []
-    else:
-        k = 0
-        if h.trims is not None:
-            k = int(np.argmin(np.abs(h.trims)))
-        disp_t, tpc_t = summer_row(h.draft[k], h.displacement[k], h.tpc[k], p.summer_draft)
-        scale = SALT_WATER_T_M3 / h.density
-        disp_s, tpc_s = disp_t * scale, tpc_t * scale
-    rho = case.condition.condition.water_density
-    ll = load_line(p.summer_draft, disp_s, tpc_s, rho, fl.draughts.mid, fl.tpc)
-    if not ll.overloaded:
-        return ll, []
-    over_mm = round(fl.draughts.mid * 1000.0) - round(ll.permissible_draft * 1000.0)
-    text = (f"The midships draught {fl.draughts.mid:.3f} m is above the permissible draught "
-            f"{ll.permissible_draft:.3f} m in water of {rho:.3f} t/m³ (summer draught "
-            f"{p.summer_draft:.3f} m + dock water allowance {ll.dwa * 1000:.0f} mm): the ship "
-            f"is overloaded by {over_mm} mm.")
-    return ll, [text]
-
-
-def _marks(case: Case, vd: VesselData, loading: Loading, fl: Floating):
-    """(extreme draughts at the marks, the survey of the draughts read) or Nones."""
-    v, obs = case.vessel, case.condition.observed
-    if v.draught_marks is None:
-        return None, None
-    p = v.particulars
-    x = v.draught_marks.model_dump()
-    at = marks_rules.draughts_at_marks(x, fl.draughts.mid, fl.trim, p.length_bp,
-                                       p.keel_thickness)
-    if obs is None:
-        return at, None
-    if vd.hydro is None:
-        raise InputError("observed: the displacement at the draughts read comes from the "
-                         "hydrostatic table, and the vessel file has none (make it with "
-                         "reportgen tables)")
-    readings = {k: (getattr(obs, k).port, getattr(obs, k).starboard) for k in x}
-    stated = obs.density is not None
-    rho = obs.density if stated else case.condition.condition.water_density
-    s = marks_rules.survey(readings, x, at, vd.hydro, p.length_bp, p.breadth, p.depth,
-                           p.keel_thickness, rho, loading.totals.displacement, obs.tolerance)
-    return at, s if stated else replace(s, density_stated=False)
-
-
-def _scan_heels(method: str, v) -> list[float] | None:
-    """The heels KN is known at: the hull route's scan, or the cross curves' heels."""
-    if method == "hull":
-        from reportgen.hull.direct import HEELS_DEG
-
-        return list(HEELS_DEG)
-    return v.cross_curves.heel if v.cross_curves else None
-
-
-def _float(method: str, case: Case, vd: VesselData, loading: Loading):
-    """(floating position, KN curve, largest heel of the KN curve, the immersion finder on the
-    hull or None, warnings) of a loading, by the tables or on the hull."""
-    if method == "hull":
-        hull = _on_hull(case, vd, loading)
-        kn = kn_curve(hull.kn, hull.heel_max_deg)
-        return hull.floating, kn, hull.heel_max_deg, hull.immersion, []
-    fl = _floating(case, vd, loading)
-    kn, heel_max, kn_warnings = _kn(case, vd, fl)
-    return fl, kn, heel_max, None, kn_warnings
-
-
-def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
-    """Loading, floating position, KN, angles and wind of a condition (no KG needed), by the
-    vessel's calculation.method or by `method` (tables | hull) when given."""
-    v, c = case.vessel, case.condition
-    method = method or v.calculation.method
-    sets = case.criteria_sets
-    warnings: list[str] = []
-    if v.particulars.length_bp < MIN_LENGTH_M:
-        warnings.append(f"The IS Code 2008 criteria apply to ships of {MIN_LENGTH_M:g} m in "
-                        f"length and over; this ship is {v.particulars.length_bp:g} m.")
-    loading = condition_loading(v, c, vd.tanks)
-    timber, timber_lines = allowance_stage.timber_lines(case)
-    pax, pax_lines = allowance_stage.passenger_lines(case)
-    loading = allowance_stage.with_lines(loading, timber_lines + pax_lines)
-    p = v.particulars
-    plausible.check_positions(loading.lines, p.length_bp, p.breadth, p.depth)
-    fl, kn, heel_max, finder, kn_warnings = _float(method, case, vd, loading)
-    plausible.check_draughts(fl.draughts, p.depth)
-    icing = allowance_stage.icing_of(case, vd.profile, fl.draughts.mid, fl.trim)
-    if icing is not None:  # ice at the waterline without it, then float again (Part B 6)
-        loading = allowance_stage.with_lines(loading, allowance_stage.ice_lines(icing))
-        fl, kn, heel_max, finder, kn_warnings = _float(method, case, vd, loading)
-        plausible.check_draughts(fl.draughts, p.depth)
-        icing = allowance_stage.iced_windage(case, vd.profile, icing, fl.draughts.mid, fl.trim)
-    warnings += kn_warnings
-    extras = allowance_stage.Extras(timber, pax, icing)
-    warnings += allowance_stage.extras_warnings(sets, extras)
-    ll, ll_warnings = _load_line(case, vd, fl)
-    warnings += ll_warnings
-    ang = _angles(case, vd, loading, fl, finder)
-    warnings += ang.warnings
-    wind = roll_hull = None
-    cb_source = "computed"
-    if "weather" in core.needs(sets):
-        items = [(it.wind_area, it.wind_z) for it in c.items if it.wind_area]
-        wind = weather23.wind(vd.profile, items, fl.draughts.mid, fl.trim, v.particulars.length_bp,
-                              loading.totals.displacement, v.calculation.wind_lever)
-        roll_hull, cb_source = _roll_hull(case, fl, loading)
-        bare = plausible.unwinded_deck_items(loading.lines, vd.profile, p.depth,
-                                             {it.name for it in c.items if it.wind_area})
-        warnings += [f"Item {name!r} lies above the deck and outside the lateral windage "
-                     f"profile, but gives no wind_area: its windage is not in the weather "
-                     f"criterion (IS Code 2008 Part A 2.3); give wind_area and wind_z."
-                     for name in bare]
-    cargo = grain_cargo(v, c)
-    if cargo is not None:
-        warnings += grain_rules.cargo_warnings(
-            "grain.2008" in sets, _scan_heels(method, v),
-            has_list(loading.totals.tcg))
-    at_marks, survey = _marks(case, vd, loading, fl)
-    if survey is not None:
-        warnings += marks_rules.survey_warnings(survey, c.condition.water_density)
-    return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
-                   tuple(warnings), cargo, extras, at_marks=at_marks, survey=survey)
 
 
 def checked(up: Upright, kg_fluid_m: float) -> Checked:
