@@ -2,13 +2,15 @@
 its model, from which `reportgen schema package` makes the JSON Schema.
 
 reportgen.report.package writes the document; each ``conditions[i].results`` is the results
-document of that condition exactly as `check --json` prints it.
+document of that condition exactly as `check --json` prints it, and ``limits`` is the
+vessel's limiting KG curve exactly as `reportgen limits VESSEL --json` prints it (trim 0).
 """
 
 from __future__ import annotations
 
 from typing import Literal
 
+from reportgen.limitsmodel import LimitsDocument
 from reportgen.results import Results, Section, Software
 
 
@@ -31,3 +33,4 @@ class PackageDocument(Section):
     title: str  # the package's title, printed on its cover
     vessel: PackageVessel  # the one ship of every condition
     conditions: list[PackageCondition]  # in the order given, as the package prints them
+    limits: LimitsDocument | None  # limiting KG curve, trim 0, as `limits --json`; null: no curve

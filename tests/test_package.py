@@ -47,7 +47,7 @@ def package(tmp_path_factory, demo_ids) -> dict:
                   cert_path=demo_ids["prepared"] / "cert.pem")
     sign_document(one, two, "checked", p12_path=demo_ids["checked"] / "identity.p12",
                   passphrase=b"correct horse")
-    return {"unsigned": unsigned, "two": two, "base": base}
+    return {"unsigned": unsigned, "one": one, "two": two, "base": base}
 
 
 def _reader(path: Path):
@@ -113,14 +113,27 @@ def test_bookmarks_lead_to_the_cover_summary_each_condition_and_appendix(package
     titles = [t for t, _ in top]
     doc = json.loads(_attachments(package["unsigned"])["package.json"])
     names = [c["results"]["condition"]["title"] for c in doc["conditions"]]
-    assert titles[:2] == ["Cover and contents", "Summary of the conditions"]
-    assert titles[2:4] == [f"{i}. {n}" for i, n in enumerate(names, 1)]
-    assert titles[4].startswith("Appendix")
+    # SPEC "Package": cover, summary, the limiting KG curve, then each condition's sheet
+    assert titles[:3] == ["Cover and contents", "Summary of the conditions",
+                          "Limiting KG curve and the conditions"]
+    assert titles[3:5] == [f"{i}. {n}" for i, n in enumerate(names, 1)]
+    assert titles[5].startswith("Appendix")
     pages = [p for _, p in top]
     assert pages == sorted(pages) and pages[0] == 0
-    for (_title, page), name in zip(top[2:4], names, strict=True):
-        text = reader.pages[page].extract_text()
-        assert name in text and "sheet page 1 of" in text
+    # the cover's contents give the page each bookmark leads to (ISO 32000-2 12.3.3: an
+    # outline item's destination), and each condition's footer counts its own pages, from the
+    # first page of its bookmark to the page before the next bookmark
+    contents = reader.pages[0].extract_text()
+    assert f"Summary of the conditions {pages[1] + 1}" in contents
+    assert f"Limiting KG curve of the vessel, with the conditions {pages[2] + 1}" in contents
+    for i, (name, first, after) in enumerate(zip(names, pages[3:5], pages[4:6], strict=True), 1):
+        count = after - first
+        line = next(x for x in contents.splitlines() if x.startswith(f"{i} {name}"))
+        assert line.endswith(f" {first + 1}"), line
+        assert f"condition {i} of 2, sheet page 1 of {count}" in \
+            reader.pages[first].extract_text(), name
+        assert f"condition {i} of 2, sheet page {count} of {count}" in \
+            reader.pages[after - 1].extract_text(), name
 
 
 def test_signed_package_verifies_and_pages_are_rendered_again_byte_for_byte(package,
@@ -218,3 +231,111 @@ def test_every_page_draws_and_qpdf_finds_no_fault(package):
         done = subprocess.run(["qpdf", "--check", str(package["two"])],
                               capture_output=True, text=True, check=False)
         assert done.returncode in (0, 3), done.stdout + done.stderr  # 3: warnings only
+
+
+def test_package_json_limits_are_the_vessels_curve_as_limits_json_gives_it(package):
+    """SPEC "Package": package.json carries "limits", the vessel's limiting KG curve in the
+    format reportgen/limits-1; SPEC "Limits": the curve at trim 0 (the default) for the
+    vessel's criteria, as `reportgen limits VESSEL --json` prints it."""
+    doc = json.loads(_attachments(package["unsigned"])["package.json"])
+    result = _run("limits", VESSEL, "--json")
+    assert result.exit_code == 0, result.output
+    expected = json.loads(result.output)
+    assert doc["limits"]["format"] == "reportgen/limits-1" and doc["limits"]["trim"] == 0.0
+    assert doc["limits"] == expected
+    assert doc["limits"]["vessel"]["sha256"] == hashlib.sha256(VESSEL.read_bytes()).hexdigest()
+
+
+def _curve_page(path: Path) -> str:
+    reader = _reader(path)
+    item = next(i for i in reader.outline
+                if not isinstance(i, list) and i.title == "Limiting KG curve and the conditions")
+    return reader.pages[reader.get_destination_page_number(item)].extract_text()
+
+
+def _signed(value: float) -> str:
+    """As the sheet prints a signed length: 3 decimals, + or the minus sign U+2212."""
+    text = f"{value:+.3f}"
+    return "0.000" if float(text) == 0.0 else text.replace("-", "\u2212")
+
+
+def test_curve_page_draws_every_condition_and_says_what_the_curve_rests_on(package):
+    """SPEC "Package": the limiting KG curve with every condition drawn as a labelled point;
+    SPEC "Limits": the curve is upright at trim 0 in water of the table's density. The curve's
+    KG max at each condition's displacement is checked against numpy.interp (linear in
+    displacement, as the booklet criterion reads a curve) on the embedded curve."""
+    import numpy as np
+
+    text = " ".join(_curve_page(package["unsigned"]).split())
+    doc = json.loads(_attachments(package["unsigned"])["package.json"])
+    rows = [r for r in doc["limits"]["rows"] if r["kg_max"] is not None]
+    assert "trim 0.000 m" in text and "1.0250 t/m³" in text
+    assert "is2008.general" in text and "is2008.weather" in text
+    assert "only as a guide" in text and "(governs)" in text  # the trim-0 curve is a guide
+    assert "Condition of this package, by its number" in text  # the points' legend
+    for i, entry in enumerate(doc["conditions"], 1):
+        r = entry["results"]
+        curve = np.interp(r["loading"]["displacement"], [x["displacement"] for x in rows],
+                          [x["kg_max"] for x in rows])
+        row = (f"{i} {r['condition']['title']} {r['loading']['displacement']:.1f} "
+               f"{_signed(r['hydrostatics']['trim'])} {r['condition']['water_density']:.4f} "
+               f"{r['hydrostatics']['kg_fluid']:.3f} {curve:.3f} {r['limits']['kg_max']:.3f}")
+        assert row in text, row
+
+
+def test_package_whose_embedded_limits_were_altered_is_not_verified(package, trust_both,
+                                                                    tmp_path):
+    """SPEC "Package": verify re-runs every condition and the limits; SPEC "Verification" 5:
+    the calculation re-run from the embedded inputs equals the embedded data."""
+    files = _attachments(package["two"])
+    doc = json.loads(files["package.json"])
+    doc["limits"]["rows"][3]["kg_max"] += 0.25  # a curve more generous than the vessel's
+    altered = (json.dumps(doc, indent=2, ensure_ascii=False) + "\n").encode("utf-8")
+    data = pypdf_update(package["two"].read_bytes(), _replace_attachment("package.json",
+                                                                         altered))
+    tampered = tmp_path / "limits-altered.pdf"
+    tampered.write_bytes(data)
+    report = verify_document(tampered, trust_both)
+    assert not report["ok"]
+    assert not report["recomputation"]["ok"]
+    assert any(d.startswith("limits") for d in report["recomputation"]["differences"]), \
+        report["recomputation"]
+
+
+def test_signing_a_second_role_with_the_same_certificate_is_refused_clearly(package, demo_ids,
+                                                                            tmp_path):
+    """SPEC "Verification" 3: the same certificate signing two roles is a failure; sign
+    refuses it before writing, with exit status 2 and a message that says so."""
+    out = tmp_path / "twice.pdf"
+    result = _run("sign", package["two"], "--role", "reviewed",  # no name given for reviewed
+                  "--key", demo_ids["prepared"] / "key.pem",
+                  "--cert", demo_ids["prepared"] / "cert.pem", "-o", out)
+    assert result.exit_code == 2
+    assert "already signed the prepared role of this calculation package" in result.output
+    assert "may not sign two roles" in result.output and "Traceback" not in result.output
+    assert not out.exists()
+
+
+@pytest.mark.parametrize("count, failed, words", [
+    (1, 0, "1 condition written; the condition meets every criterion"),
+    (1, 1, "1 condition written; the condition FAILS at least one criterion"),
+    (7, 1, "7 conditions written; 1 of 7 conditions FAILS at least one criterion"),
+    (7, 2, "7 conditions written; 2 of 7 conditions FAIL at least one criterion"),
+])
+def test_the_status_line_counts_in_agreement(count, failed, words):
+    """English grammar (common practice): one condition, several conditions."""
+    from reportgen.cli.package import counted_words
+
+    assert counted_words(count, failed) == words
+
+
+def test_a_vessel_without_tables_gives_no_curve_and_says_why():
+    """SPEC "Limits": the curve is found on the hydrostatic table and cross curves; a vessel
+    file with hull offsets only has none, and the package says so instead of drawing one."""
+    from reportgen.inputs.case import parse_vessel
+    from reportgen.report.package import vessel_limits
+
+    hull = ROOT / "conditions" / "vessels" / "linnet-demo-hull.yaml"
+    raw = hull.read_bytes()
+    curve, problem = vessel_limits(parse_vessel(raw, hull.name), raw, hull.name)
+    assert curve is None and "reportgen tables" in problem

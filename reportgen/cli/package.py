@@ -12,7 +12,8 @@ from reportgen.cli.group import main, progress
 
 @main.command(epilog="""\b
 Examples:
-  reportgen package conditions/*.yaml -o out/package.pdf
+  reportgen package conditions/full-load-departure.yaml conditions/full-load-arrival.yaml \\
+      -o out/package.pdf
   reportgen package departure.yaml arrival.yaml -o voyage-12.pdf --title "Voyage 12"
 \b
 Every condition must name a vessel file with the same bytes. Exit status: 0 the package is
@@ -48,8 +49,20 @@ def package(conditions: tuple[Path, ...], output: Path, title: str | None,
         write_package(pkg, output, force=force)
         advance()
     failed = [m.results.condition.title for m in pkg.members if not m.results.passed]
-    verdict = ("every condition meets every criterion" if not failed else
-               f"{len(failed)} of {len(pkg.members)} conditions FAIL at least one criterion")
-    click.echo(f"{output}: package of {len(pkg.members)} conditions written; {verdict}",
+    click.echo(f"{output}: package of {counted_words(len(pkg.members), len(failed))}",
                err=True)
     sys.exit(1 if failed else 0)
+
+
+def counted_words(count: int, failed: int) -> str:
+    """"3 conditions written; ..." with the number agreeing: 1 condition, 2 conditions."""
+    written = f"{count} condition{'' if count == 1 else 's'} written"
+    if not failed:
+        verdict = "every condition meets every criterion" if count > 1 else \
+            "the condition meets every criterion"
+    elif count == 1:
+        verdict = "the condition FAILS at least one criterion"
+    else:
+        verdict = f"{failed} of {count} conditions FAIL{'S' if failed == 1 else ''} at least " \
+                  f"one criterion"
+    return f"{written}; {verdict}"

@@ -43,6 +43,11 @@ def _labels() -> tuple[dict[str, str], dict[str, str]]:
     return dict(module.figure_labels), dict(module.attachment_labels)
 
 
+def figure_labels() -> dict[str, str]:
+    """The words of the limits figure (templates/limits_words.j2)."""
+    return dict(_labels()[0])
+
+
 def limits_html(doc: dict, vessel_sets: list[str] | None = None,
                 approval: dict | None = None) -> str:
     """The limits document as HTML text (the input of WeasyPrint); ``approval``: who approved

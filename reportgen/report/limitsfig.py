@@ -22,7 +22,8 @@ FIGURE_SIZE_IN = (7.0, 3.6)
 def limits_figure_svg(doc: Mapping, labels: Mapping[str, str],
                       points: Sequence[tuple[str, float, float]] = ()) -> str:
     """KG max and KMt against displacement, the governing criterion marked at each row;
-    ``points``: (label, displacement t, KG m) drawn as crosses with their labels."""
+    ``points``: (label, displacement t, KG m) drawn as crosses with their labels, with a
+    legend entry ``labels["points"]`` when given."""
     rows = doc["rows"]
     titles = {c["id"]: c["title"] for c in doc.get("criteria_list", [])}
     with matplotlib.rc_context(_RC):
@@ -46,8 +47,9 @@ def limits_figure_svg(doc: Mapping, labels: Mapping[str, str],
                     markerfacecolor="white" if i % 2 == 0 else "black",
                     markeredgecolor="black",
                     label=labels["governs"].format(title=titles.get(cid, cid), id=cid))
-        for text, d, kg in points:
-            ax.plot([d], [kg], linestyle="none", marker="x", markersize=6, color="black")
+        for i, (text, d, kg) in enumerate(points):
+            ax.plot([d], [kg], linestyle="none", marker="x", markersize=6, color="black",
+                    label=labels.get("points") if i == 0 else None)
             ax.annotate(text, (d, kg), xytext=(3, 3), textcoords="offset points", fontsize=6)
         ax.legend(loc="upper center", bbox_to_anchor=(0.5, -0.16), ncol=2, handlelength=3.0,
                   borderaxespad=0.0)

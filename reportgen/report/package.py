@@ -3,18 +3,21 @@ PDF/A-3b document.
 
 In order: a cover (title, vessel, document number, the contents with each condition's verdict
 and first page, the caution, the signature block), a summary table (one row per condition),
-then each condition's complete sheet: the same part of the page the calculation sheet prints
+the vessel's limiting KG curve at trim 0 with every condition drawn on it, then each
+condition's complete sheet: the same part of the page the calculation sheet prints
 (templates/sheet_condition.html.j2), with its own page count beside the package's. PDF
-bookmarks: the cover, the summary, every condition and its sections.
+bookmarks: the cover, the summary, the curve, every condition and its sections.
 
 Embedded (ISO 19005-3:2012, 6.8): each condition file byte for byte under a name unique in
 the package, the vessel file once (with its approval, VESSEL.yaml.p7s, when given) and
 ``package.json`` (reportgen/package-1), whose ``conditions[i].results`` is the results
-document ``check --json`` prints for that condition.
+document ``check --json`` prints for that condition, and ``limits`` the vessel's limiting
+KG curve as ``reportgen limits --json`` prints it.
 
-Page numbers: the document is laid out twice. The first layout finds the page on which each
-part begins; the second prints those numbers (contents, footers). Only digits on the cover
-and the footers change between the two, and the page map is checked to be the same.
+Page numbers: the document is laid out once. The contents' page numbers are CSS
+target-counter()s of the parts; each condition is a page group of its own (a named page) whose
+counter starts again at 1 and whose footer reads the condition's page count from a marker at
+its end (templates/package_pages.css.j2); WeasyPrint resolves them while it paginates.
 """
 
 from __future__ import annotations
@@ -38,10 +41,10 @@ from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
 from reportgen.report import render as sheet
 from reportgen.report.appendix import vessel_appendix
+from reportgen.report.limitsfig import limits_figure_svg
 from reportgen.results import Results
 
 MAX_TITLE_CHARS = 200
-MAX_LAYOUTS = 3  # layouts tried until the page map no longer changes
 
 
 @dataclass(frozen=True)
@@ -62,6 +65,8 @@ class Package:
     vessel_file: str  # attachment name of the vessel file
     vessel_bytes: bytes
     approval: bytes | None  # VESSEL.yaml.p7s, when given
+    limits: dict | None = None  # the vessel's limiting KG curve at trim 0 (reportgen/limits-1)
+    limits_problem: str | None = None  # why there is no curve, when there is none
 
     @property
     def inputs_sha256(self) -> str:
@@ -160,7 +165,22 @@ def make_package(cases: list[Any], title: str | None = None,
     common_signatories(results)
     text = check_title(title) if title is not None else \
         str(_words().default_title).format(vessel=first.vessel.vessel.name)
-    return Package(text, tuple(members), vessel_file, first.vessel_bytes, approval)
+    curve, problem = vessel_limits(first.vessel, first.vessel_bytes, vessel_file)
+    return Package(text, tuple(members), vessel_file, first.vessel_bytes, approval, curve,
+                   problem)
+
+
+def vessel_limits(vessel: Any, vessel_bytes: bytes, vessel_name: str
+                  ) -> tuple[dict | None, str | None]:
+    """The vessel's limiting KG curve at trim 0 for its criteria, as `reportgen limits
+    VESSEL --json` gives it (SPEC "Package", "Limits"), computed once per package; or None
+    and the reason where the vessel data give no curve (no tables, no Code criteria)."""
+    from reportgen.limitcurve import limiting_curve
+
+    try:
+        return limiting_curve(vessel, vessel_bytes, vessel_name, 0.0), None
+    except InputError as exc:
+        return None, str(exc)
 
 
 def package_document(pkg: Package) -> dict:
@@ -175,6 +195,7 @@ def package_document(pkg: Package) -> dict:
                    "sha256": r0.vessel.sha256, "file": pkg.vessel_file},
         "conditions": [{"file": m.file, "results": m.results.to_dict()}
                        for m in pkg.members],
+        "limits": pkg.limits,
     }
 
 
@@ -209,33 +230,35 @@ def package_date(pkg: Package) -> str:
     return sheet.document_date(max(dates) if dates else None).strftime("%Y-%m-%dT%H:%M:%SZ")
 
 
-def page_map(document: weasyprint.Document, count: int) -> dict[str, int]:
-    """The page (1-based) on which each part begins: cover, summary, cond-1 ... cond-N,
-    appendix."""
-    ids = ("part-cover", "part-summary", *(f"cond-{i}" for i in range(1, count + 1)),
-           "part-appendix")
-    found = sheet.element_rectangles(document, ids)
-    missing = [i for i in ids if i not in found]
-    if missing:
-        raise RuntimeError(f"package template lacks the parts {missing}")
-    return {key: index + 1 for key, (index, _rect) in found.items()}
+def limits_page(pkg: Package) -> dict:
+    """The page of the limiting KG curve (SPEC "Package"): the curve with every condition
+    drawn at its displacement (t) and KG fluid (m), labelled by its number; for each
+    condition the curve's KG max at its displacement (linear in displacement, as the
+    booklet criterion reads a curve; None outside it) beside its own KG max."""
+    from reportgen.criteria.booklet import Curve
+    from reportgen.criteria.sets import SETS
+    from reportgen.report.limitsdoc import figure_labels
+
+    doc = pkg.limits
+    found = [r for r in doc["rows"] if r["kg_max"] is not None] if doc else []
+    curve = Curve("", "kg", tuple(r["displacement"] for r in found),
+                  tuple(r["kg_max"] for r in found)) if found else None
+    rows = [{"number": i, "r": m.results,
+             "curve_kg_max": curve.at(m.results.loading.displacement) if curve else None,
+             "own": m.results.limits} for i, m in enumerate(pkg.members, 1)]
+    if doc is None:
+        return {"d": None, "problem": pkg.limits_problem, "rows": rows}
+    points = [(str(row["number"]), row["r"].loading.displacement,
+               row["r"].hydrostatics.kg_fluid) for row in rows]
+    labels = dict(figure_labels(), points=str(_words().points_label))
+    return {"d": doc, "rows": rows, "problem": None,
+            "figure": sheet._svg_data_uri(limits_figure_svg(doc, labels, points)),
+            "sets": [{"id": s, "title": SETS[s].title} for s in doc["criteria"] if s in SETS],
+            "titles": {c["id"]: c["title"] for c in doc["criteria_list"]}}
 
 
-def sheet_pages(pages: dict[str, int], count: int) -> list[dict]:
-    """For every page of every condition: its package page, the condition's number, and the
-    sheet page and sheet page count."""
-    rows = []
-    for i in range(1, count + 1):
-        start = pages[f"cond-{i}"]
-        end = pages[f"cond-{i + 1}" if i < count else "part-appendix"] - 1
-        for page in range(start, end + 1):
-            rows.append({"page": page, "number": i, "sheet_page": page - start + 1,
-                         "sheet_pages": end - start + 1})
-    return rows
-
-
-def package_html(pkg: Package, contexts: list[dict], pages: dict[str, int] | None) -> str:
-    """The package as HTML text; ``pages`` from a first layout (None: not known yet)."""
+def package_html(pkg: Package, contexts: list[dict], curve: dict) -> str:
+    """The package as HTML text (the input of WeasyPrint)."""
     env = sheet.template_environment()
     part = env.get_template("sheet_condition.html.j2")
     parts = [Markup(part.render(**ctx)) for ctx in contexts]  # autoescaped by the template
@@ -244,32 +267,26 @@ def package_html(pkg: Package, contexts: list[dict], pages: dict[str, int] | Non
         members=[dict(ctx, file=m.file, row=summary_row(m), number=i, part=part)
                  for i, (m, ctx, part) in enumerate(zip(pkg.members, contexts, parts,
                                                         strict=True), 1)],
-        pages=pages or {}, roles=ROLES,
-        signatories=common_signatories([m.results for m in pkg.members]),
-        approval=contexts[0]["approval"], ax=vessel_appendix(pkg.members[0].case.vessel))
+        roles=ROLES, signatories=common_signatories([m.results for m in pkg.members]),
+        approval=contexts[0]["approval"], ax=vessel_appendix(pkg.members[0].case.vessel),
+        curve=curve)
 
 
-def _page_css(pages: dict[str, int] | None, count: int) -> weasyprint.CSS:
-    rows = sheet_pages(pages, count) if pages else []
+def _page_css(count: int) -> weasyprint.CSS:
     text = sheet.template_environment().get_template("package_pages.css.j2").render(
-        rows=rows, count=count)
+        count=count)
     return fonts.stylesheet(sheet._read_template("sheet.css")
                             + sheet._read_template("package.css") + text)
 
 
 def layout_package(pkg: Package) -> weasyprint.Document:
-    """The laid-out pages, laid out until the page map stands still (at most MAX_LAYOUTS)."""
+    """The laid-out pages, in one layout: the page numbers of the contents and of each
+    condition's own pages come from CSS (target-counter, page groups), which WeasyPrint
+    resolves while it paginates."""
     contexts = [sheet.condition_context(m.case, m.results) for m in pkg.members]
-    count, pages, total = len(pkg.members), None, 0
-    for _ in range(MAX_LAYOUTS):
-        html = weasyprint.HTML(string=package_html(pkg, contexts, pages))
-        document = html.render(stylesheets=[_page_css(pages, count)],
-                               pdf_variant=sheet.PDF_VARIANT, font_config=fonts.font_config())
-        found = page_map(document, count)
-        if found == pages and len(document.pages) == total:
-            return document
-        pages, total = found, len(document.pages)
-    raise RuntimeError("the package's page numbers do not settle")
+    html = weasyprint.HTML(string=package_html(pkg, contexts, limits_page(pkg)))
+    return html.render(stylesheets=[_page_css(len(pkg.members))],
+                       pdf_variant=sheet.PDF_VARIANT, font_config=fonts.font_config())
 
 
 def _attachments(pkg: Package, data_json: str) -> list[weasyprint.Attachment]:

@@ -3,11 +3,13 @@
 Its inputs are the condition files package.json lists (``conditions[i].file``) and its vessel
 file (``vessel.file``); inputs_sha256 = SHA-256(the condition files in order + the vessel
 file). Verify re-reads every condition under the names its embedded results record (those
-``check`` saw), evaluates it, and renders the package again to compare it byte for byte.
+``check`` saw), evaluates it, finds the vessel's limiting KG curve again (package.json
+``limits``), and renders the package again to compare it byte for byte.
 """
 
 from __future__ import annotations
 
+import dataclasses
 from collections.abc import Mapping
 from typing import Any
 
@@ -54,23 +56,16 @@ def _rebuild_package(inputs: Inputs) -> Rebuilt:
     read under the names its embedded results give (those ``check`` saw), so that its
     results can equal ``check --json`` of the condition."""
     from reportgen.inputs import load_case_bytes
-    from reportgen.report.package import (
-        Member,
-        Package,
-        make_package,
-        package_json,
-        render_package,
-    )
+    from reportgen.report.package import Member, make_package, package_json, render_package
 
     cases = [load_case_bytes(data, inputs.vessel, cond_name, vessel_name, inputs.approval)
              for (_name, data), (cond_name, vessel_name)
              in zip(inputs.condition_files(), inputs.read_as, strict=True)]
-    title = inputs.title
-    built = make_package(cases, title)
-    pkg = Package(built.title, tuple(Member(name, m.case, m.results) for (name, _data), m
-                                     in zip(inputs.condition_files(), built.members,
-                                            strict=True)),
-                  inputs.vessel_name, inputs.vessel, inputs.approval)
+    built = make_package(cases, inputs.title)  # the limiting KG curve computed again too
+    pkg = dataclasses.replace(
+        built, members=tuple(Member(name, m.case, m.results) for (name, _data), m
+                             in zip(inputs.condition_files(), built.members, strict=True)),
+        vessel_file=inputs.vessel_name, vessel_bytes=inputs.vessel, approval=inputs.approval)
     return Rebuilt(package_json(pkg), render_package(pkg))
 
 
@@ -92,7 +87,7 @@ def _package_certified(data: Mapping[str, Any], inputs: Inputs | None) -> dict:
         "vessel": vessel.get("name"),
         "identifier": vessel.get("identifier"),
         "vessel_sha256": fingerprint,
-        "condition": f"{data.get('title')} ({len(each)} conditions)",
+        "condition": f"{data.get('title')} ({len(each)} condition{'' if len(each) == 1 else 's'})",
         "date": dates[-1] if dates else None,
         "passed": bool(each) and all(c["passed"] for c in each),
         "failing_criteria": [{"id": f"condition {i}", "title": c["condition"],

@@ -104,15 +104,17 @@ def _sign_document(in_path: Path, out_path: Path, role: str, *, key_path: Path |
     named = (doc.kind.certified(doc.content, None).get("signatories") or {}).get(f"{role}_by")
     if named and not ids.names_match(name, named):
         raise InputError(f"{who.origin}: the certificate is issued to '{ids.printable(name)}' "
-                         f"but the sheet names '{ids.printable(named)}' for {role}")
+                         f"but the {doc.kind.name} names '{ids.printable(named)}' for {role}")
 
     state = guarded_integrity(doc)
     if state["problems"]:
         raise InputError(f"{in_path}: refusing to sign: " + "; ".join(state["problems"][:6]))
     for sig in state["signature_objects"]:
         if sig.certificate is not None and ids.der(sig.certificate) == ids.der(cert):
-            raise InputError(f"{who.origin}: this certificate already signed the "
-                             f"{sig.field} role; each role needs its own signer")
+            raise InputError(f"{who.origin}: this certificate ('{ids.printable(name)}') "
+                             f"already signed the {sig.field} role of this {doc.kind.words}; "
+                             f"the same signer may not sign two roles: sign {role} with "
+                             f"another person's certificate")
 
     width, height = field_size(doc.reader, role)
     registry = SimpleCertificateStore()
