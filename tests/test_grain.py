@@ -342,3 +342,20 @@ def test_grain_loaded_without_the_grain_criteria_is_said(tmp_path):
     assert any("grain.2008" in w and "not checked" in w for w in d["warnings"])
     assert d["grain"]["vhm"] == pytest.approx(891.33, abs=0.01)
     assert d["loading"]["displacement"] == pytest.approx(5000.0 + volume / SF)
+
+
+def test_tables_of_a_grain_ship_carry_the_12_and_40_degree_rows():
+    """International Grain Code, notes to figure A 7: cross curves at 12° and 40°. A vessel
+    with grain compartments gets those rows by default; one without keeps the 5° steps."""
+    from types import SimpleNamespace
+
+    from conftest import ROOT
+
+    from reportgen.hull.tables import default_heels
+    from reportgen.inputs import load_vessel
+
+    grain = SimpleNamespace(grain=SimpleNamespace(compartments=["hold"]))
+    assert {12.0, 40.0} <= set(default_heels(grain))
+    assert 12.0 not in default_heels(SimpleNamespace(grain=None))
+    assert {12.0, 40.0} <= set(load_vessel(
+        ROOT / "conditions" / "vessels" / "linnet-demo.yaml").cross_curves.heel)
