@@ -10,18 +10,18 @@ from pathlib import Path
 from reportgen.docinfo import APPROVAL_SUFFIX
 from reportgen.errors import InputError
 from reportgen.files import read_input
-from reportgen.inputs import yamlread
 from reportgen.inputs.condition import Condition
 from reportgen.inputs.grain import check_grain
 from reportgen.inputs.special import PASSENGER_SET
 from reportgen.inputs.vessel import Vessel
+from reportgen.inputs.yamlread import key_lines, parse, validate, where
 
 
 def parse_vessel(raw: bytes, name: str) -> Vessel:
     """The vessel model from the bytes of a vessel data file; `name` is used in messages.
     Tables that cannot belong to the ship (reportgen.inputs.tablecheck) are refused by the
     model's own validation."""
-    return yamlread.validate(Vessel, yamlread.parse(raw, name), name, raw)
+    return validate(Vessel, parse(raw, name), name, raw)
 
 
 def load_vessel(path: str | Path) -> Vessel:
@@ -64,12 +64,12 @@ def _check_fillings(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> N
         tank = known.get(tank_id)
         if tank is None:
             listed = ", ".join(known) or "none"
-            lines = yamlread.key_lines(raw)
-            raise InputError(f"{name}: {yamlread.where(('tanks', tank_id), lines)}: unknown tank "
+            lines = key_lines(raw)
+            raise InputError(f"{name}: {where(('tanks', tank_id), lines)}: unknown tank "
                              f"{tank_id!r} (tanks of this vessel: {listed})")
         if filling.kind == "ullage" and tank.ullage_reference is None:
-            lines = yamlread.key_lines(raw)
-            raise InputError(f"{name}: {yamlread.where(('tanks', tank_id, 'ullage'), lines)}: "
+            lines = key_lines(raw)
+            raise InputError(f"{name}: {where(('tanks', tank_id, 'ullage'), lines)}: "
                              f"tank {tank_id} has no ullage_reference in the vessel file; give "
                              f"its sounding, volume, percent or mass instead")
         table = tank.table
@@ -84,8 +84,8 @@ def _check_fillings(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> N
         if filling.kind in limits:
             low, high, unit = limits[filling.kind]
             if not (low - 1e-9 <= filling.value <= high + 1e-9):
-                where = yamlread.where(("tanks", tank_id, filling.kind), yamlread.key_lines(raw))
-                raise InputError(f"{name}: {where}: {filling.kind} {filling.value:g} {unit} is "
+                at = where(("tanks", tank_id, filling.kind), key_lines(raw))
+                raise InputError(f"{name}: {at}: {filling.kind} {filling.value:g} {unit} is "
                                  f"outside the tank's range {low:g} to {high:g} {unit} "
                                  f"(tank {tank.name})")
 
@@ -96,16 +96,16 @@ def _check_criteria(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> N
     allowed = list(vessel.criteria) + list(vessel.permitted_criteria)
     for i, sid in enumerate(cond.criteria):
         if sid not in allowed:
-            lines = yamlread.key_lines(raw)
-            raise InputError(f"{name}: {yamlread.where(('criteria', i), lines)}: the vessel "
+            lines = key_lines(raw)
+            raise InputError(f"{name}: {where(('criteria', i), lines)}: the vessel "
                              f"does not permit the criteria set {sid!r} (its criteria and "
                              f"permitted_criteria: {', '.join(allowed)})")
 
 
 def _check_observed(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> None:
     if cond.observed is not None and vessel.draught_marks is None:
-        where = yamlread.where(("observed",), yamlread.key_lines(raw))
-        raise InputError(f"{name}: {where}: draughts read at the marks need the positions of "
+        at = where(("observed",), key_lines(raw))
+        raise InputError(f"{name}: {at}: draughts read at the marks need the positions of "
                          f"the marks, and the vessel file has no draught_marks")
 
 
@@ -139,8 +139,8 @@ def _check_special(cond: Condition, vessel: Vessel, name: str, raw: bytes) -> No
     problems = special_problems(cond, vessel, sets)
     if problems:
         path, text = problems[0]
-        where = yamlread.where(path, yamlread.key_lines(raw))
-        raise InputError(f"{name}: {where}: {text}")
+        at = where(path, key_lines(raw))
+        raise InputError(f"{name}: {at}: {text}")
 
 
 def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_name: str,
@@ -151,8 +151,8 @@ def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_n
     cond_label = cond_label or cond_name
     vessel_label = vessel_label or vessel_name
     if cond_data is None:
-        cond_data = yamlread.parse(cond_raw, cond_label)
-    cond = yamlread.validate(Condition, cond_data, cond_label, cond_raw)
+        cond_data = parse(cond_raw, cond_label)
+    cond = validate(Condition, cond_data, cond_label, cond_raw)
     vessel = parse_vessel(vessel_raw, vessel_label)
     if not vessel.can_evaluate:
         raise InputError(f"{vessel_label}: no hydrostatics and cross_curves; make them from the "
@@ -175,12 +175,12 @@ def vessel_path(condition_path: Path, data: object, raw: bytes) -> Path:
     ref = data.get("vessel") if isinstance(data, dict) else None
     if not isinstance(ref, str) or not ref:
         # Let the model report the missing or malformed key with its line.
-        yamlread.validate(Condition, data, str(condition_path), raw)
+        validate(Condition, data, str(condition_path), raw)
         raise InputError(f"{condition_path}: vessel: expected the path of the vessel data file")
     path = condition_path.parent / ref
     if not path.is_file():
-        where = yamlread.where(("vessel",), yamlread.key_lines(raw))
-        raise InputError(f"{condition_path}: {where}: vessel data file {path} not found")
+        at = where(("vessel",), key_lines(raw))
+        raise InputError(f"{condition_path}: {at}: vessel data file {path} not found")
     return path
 
 
@@ -188,7 +188,7 @@ def load_case(condition_path: str | Path) -> Case:
     """Read a condition file, the vessel file it names and the vessel's approval beside it."""
     cpath = Path(condition_path)
     cond_raw = read_input(cpath, "condition file")
-    data = yamlread.parse(cond_raw, str(cpath))
+    data = parse(cond_raw, str(cpath))
     vpath = vessel_path(cpath, data, cond_raw)
     vessel_raw = read_input(vpath, "vessel data file")
     approval_path = vpath.with_name(vpath.name + APPROVAL_SUFFIX)

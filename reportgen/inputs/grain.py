@@ -13,7 +13,6 @@ from typing import Annotated, Literal
 from pydantic import Field, model_validator
 
 from reportgen.errors import InputError
-from reportgen.inputs import yamlread
 from reportgen.inputs.fields import (
     Column,
     Increasing,
@@ -24,6 +23,8 @@ from reportgen.inputs.fields import (
     Text,
     equal_lengths,
 )
+from reportgen.inputs.yamlread import key_lines
+from reportgen.inputs.yamlread import where as key_where
 
 GRAIN_SET = "grain.2008"
 
@@ -111,8 +112,8 @@ def check_grain(cond, vessel, name: str, raw: bytes) -> None:
 
     def where(*path: object) -> str:
         nonlocal lines
-        lines = lines if lines is not None else yamlread.key_lines(raw)
-        return yamlread.where(path, lines)
+        lines = lines if lines is not None else key_lines(raw)
+        return key_where(path, lines)
 
     sets = cond.criteria if cond.criteria is not None else vessel.criteria
     if g is None:

@@ -21,10 +21,10 @@ import shlex
 from pathlib import Path
 from typing import Any
 
+import reportgen.signing.identity as ids
 from reportgen.errors import InputError
 from reportgen.files import check_output, command_scope, make_folder, read_input, write_atomic
 from reportgen.provenance import APPROVAL_SUFFIX, read_approval
-from reportgen.signing import identity as ids
 from reportgen.signing.recompute import Inputs, check_vessel, vessel_reference
 from reportgen.signing.sheetfile import Document, read_document
 from reportgen.signing.trust import signing_usage_problems, validity_problem

@@ -24,10 +24,10 @@ from pyhanko.pdf_utils.incremental_writer import IncrementalPdfFileWriter
 from pyhanko.sign import fields, signers
 from pyhanko_certvalidator.registry import SimpleCertificateStore
 
+import reportgen.signing.identity as ids
 from reportgen.docinfo import ROLES
 from reportgen.errors import InputError
 from reportgen.files import check_output, command_scope, is_input, read_input, write_atomic
-from reportgen.signing import identity as ids
 from reportgen.signing.sheetfile import (
     field_size,
     quiet_pdf_libraries,

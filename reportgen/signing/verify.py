@@ -15,13 +15,13 @@ from collections.abc import Sequence
 from pathlib import Path
 from typing import Any
 
+import reportgen.signing.identity as ids
+import reportgen.signing.pages as pg
 from reportgen import __version__
 from reportgen.docinfo import DOCNO_LENGTH
 from reportgen.errors import InputError
 from reportgen.files import read_input
 from reportgen.provenance import read_approval, rendering_stack
-from reportgen.signing import identity as ids
-from reportgen.signing import pages as pg
 from reportgen.signing.recompute import Inputs, rebuild
 from reportgen.signing.sheetfile import Document, quiet_pdf_libraries, read_document, title_number
 from reportgen.signing.signatures import change_problems, read_signatures
