@@ -102,7 +102,6 @@ class KNCurve:
     def __init__(self, spline: PPoly, heel_max_deg: float) -> None:
         self.spline = spline
         self.heel_max_deg = float(heel_max_deg)
-        self.integral = spline.antiderivative()  # ∫KN dθ°, m·deg
         n = round(2.0 * self.heel_max_deg / GRID_STEP_DEG) + 1
         self.grid_heel = np.linspace(-self.heel_max_deg, self.heel_max_deg, n)
         self.grid_kn = spline(self.grid_heel)
@@ -110,7 +109,8 @@ class KNCurve:
         self.grid_cos = np.cos(self.grid_heel * DEG)
         self._breaks = spline.x.tolist()
         self._pieces = np.asarray(spline.c).T.tolist()  # per piece: cubic .. constant term
-        self._integral_pieces = np.asarray(self.integral.c).T.tolist()  # quartic .. constant
+        # ∫KN dθ° (m·deg), the spline's antiderivative: per piece quartic .. constant term
+        self._integral_pieces = np.asarray(spline.antiderivative().c).T.tolist()
 
     def __call__(self, heel_deg: float | np.ndarray) -> np.ndarray:
         return self.spline(heel_deg)
@@ -136,11 +136,6 @@ class KNCurve:
         b = self._breaks
         i = min(max(bisect_right(b, heel_deg) - 1, 0), len(b) - 2)
         return i, heel_deg - b[i]
-
-
-def kn_curve(spline: PPoly, heel_max_deg: float) -> KNCurve:
-    """The KN curve of a spline in heel (deg) defined to heel_max_deg."""
-    return KNCurve(spline, heel_max_deg)
 
 
 @dataclass(frozen=True)

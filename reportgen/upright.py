@@ -28,7 +28,6 @@ from reportgen.loadline import SALT_WATER_T_M3, LoadLine, load_line, summer_row
 from reportgen.stability import (
     KNCurve,
     has_list,
-    kn_curve,
 )
 from reportgen.vesseldata import VesselData
 
@@ -75,7 +74,7 @@ def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[KNCurve, float, list[
         warnings.append(f"The cross curves were {basis}, while the condition trims "
                         f"{fl.trim:+.2f} m (more than 0.5 % of Lpp): give cross curves at "
                         f"several trims, or choose calculation.method: hull.")
-    kn = kn_curve(cross.kn_spline(fl.displacement_table_t, fl.trim), cross.heel_max_deg)
+    kn = KNCurve(cross.kn_spline(fl.displacement_table_t, fl.trim), cross.heel_max_deg)
     return kn, cross.heel_max_deg, warnings
 
 
@@ -220,7 +219,7 @@ def _float(method: str, case: Case, vd: VesselData, loading: Loading):
     hull or None, warnings) of a loading, by the tables or on the hull."""
     if method == "hull":
         hull = _on_hull(case, vd, loading)
-        kn = kn_curve(hull.kn, hull.heel_max_deg)
+        kn = KNCurve(hull.kn, hull.heel_max_deg)
         return hull.floating, kn, hull.heel_max_deg, hull.immersion, []
     fl = _floating(case, vd, loading)
     kn, heel_max, kn_warnings = _kn(case, vd, fl)

@@ -197,11 +197,11 @@ def _hump_curve(amp_m: float = 0.6):
     every degree and splined as the cross curves are (reportgen.stability.odd_spline)."""
     import numpy as np
 
-    from reportgen.stability import gz_curve, kn_curve, odd_spline
+    from reportgen.stability import KNCurve, gz_curve, odd_spline
 
     heel = np.arange(0.0, 91.0)
     kn = amp_m * np.sin(np.radians(3 * heel))
-    return gz_curve(kn_curve(odd_spline(heel, kn), 90.0), 0.0, 0.0)
+    return gz_curve(KNCurve(odd_spline(heel, kn), 90.0), 0.0, 0.0)
 
 
 def test_residual_area_ends_at_greatest_difference_or_flooding():

@@ -247,13 +247,13 @@ def test_heel_at_arm_is_the_root_scipy_finds(arm, tcg):
     list) against scipy's brentq on the same curve minus the arm."""
     import numpy as np
 
-    from reportgen.stability import gz_curve, kn_curve, odd_spline
+    from reportgen.stability import KNCurve, gz_curve, odd_spline
 
     heels = np.arange(0.0, 91.0, 5.0)
     bm = B * B / (12 * 7.0)
     t = np.radians(heels)
     kn = np.sin(t) * (7.0 / 2 + bm + 0.5 * bm * np.tan(np.minimum(t, 1.2)) ** 2)
-    curve = gz_curve(kn_curve(odd_spline(heels, kn), 90.0), 6.0, tcg)
+    curve = gz_curve(KNCurve(odd_spline(heels, kn), 90.0), 6.0, tcg)
     got = passenger.heel_at_arm(curve, arm)
     want = brentq(lambda h: float(curve(h)) - arm, 0.0, 40.0, xtol=1e-12)
     assert got == pytest.approx(want, abs=1e-6)

@@ -17,12 +17,12 @@ from reportgen.angles import deck_edge_formula
 from reportgen.errors import InputError
 from reportgen.stability import (
     CrossCurves,
+    KNCurve,
     area_mrad,
     crossings,
     equilibrium_heel,
     gz_curve,
     gz_grid,
-    kn_curve,
     max_gz,
     vanishing_angle,
 )
@@ -31,7 +31,7 @@ HEEL = np.arange(0.0, 81.0, 5.0)
 
 
 def gz_of(cc: CrossCurves, disp_t: float, kg_m: float, tcg_m: float):
-    return gz_curve(kn_curve(cc.kn_spline(disp_t), cc.heel_max_deg), kg_m, tcg_m)
+    return gz_curve(KNCurve(cc.kn_spline(disp_t), cc.heel_max_deg), kg_m, tcg_m)
 
 
 def _cross(kn_of_heel) -> CrossCurves:
@@ -154,3 +154,20 @@ def test_list_side_ignores_rounding_of_symmetric_loads():
     assert list_side(-1e-15) == "starboard" and not has_list(-1e-15)
     assert list_side(-0.01) == "port" and has_list(-0.01)
     assert list_side(0.01) == "starboard"
+
+
+def test_kn_pieces_in_floats_equal_scipys_spline_and_its_derivatives():
+    """The scalar evaluation the root and maximum searches use (KNCurve.local, integral_at)
+    against scipy's PPoly, its derivative(1, 2) and its antiderivative (the reference), at
+    knots, between them and at both ends."""
+    from reportgen.stability import odd_spline
+
+    spline = odd_spline(HEEL, 4.0 * np.sin(np.radians(HEEL)) + 0.3 * np.sin(np.radians(2 * HEEL)))
+    kn = KNCurve(spline, 80.0)
+    d1, d2, anti = spline.derivative(), spline.derivative(2), spline.antiderivative()
+    for h in [-80.0, -37.3, 0.0, 5.0, 12.0, 33.3, 79.99, 80.0]:
+        value, slope, curvature = kn.local(h)
+        assert value == pytest.approx(float(spline(h)), abs=1e-12)
+        assert slope == pytest.approx(float(d1(h)), abs=1e-12)
+        assert curvature == pytest.approx(float(d2(h)), abs=1e-12)
+        assert kn.integral_at(h) == pytest.approx(float(anti(h)), abs=1e-10)

@@ -17,14 +17,14 @@ from reportgen.criteria.weather import Wind, areas
 from reportgen.inputs import load_case
 from reportgen.pipeline import evaluate
 from reportgen.report.render import sheet_html
-from reportgen.stability import gz_curve, kn_curve, odd_spline
+from reportgen.stability import KNCurve, gz_curve, odd_spline
 
 
 def _curve(amplitude_m: float = 0.02):
     """GZ = a·sin 2θ with KG = 0 and TCG = 0 (so KN = GZ), on 0..90° every 5°."""
     heels = np.arange(0.0, 91.0, 5.0)
     kn = amplitude_m * np.sin(np.radians(2 * heels))
-    return gz_curve(kn_curve(odd_spline(heels, kn), 90.0), 0.0, 0.0)
+    return gz_curve(KNCurve(odd_spline(heels, kn), 90.0), 0.0, 0.0)
 
 
 def test_no_intercept_of_lw2_leaves_no_areas_and_no_theta2():
