@@ -182,7 +182,7 @@ class _Builder:
 
     def row(self, text: str) -> list:
         index = text[len(_MARK):]
-        if not index.isdigit() or int(index) != self.used or str(self.used) != index:
+        if self.used >= len(self.rows) or index != str(self.used):
             raise _NotFast  # not our marker, or not in the order written
         self.used += 1
         return self.rows[int(index)]
