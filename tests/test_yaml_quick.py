@@ -111,6 +111,7 @@ def test_plain_decimals_keep_their_type_and_sign():
     'a: [1, 2] x\n', 'a: [1, 2]#c\n', '? [1, 2]\n: v\n',
     '{a: [1, 2],\n b: [3]\n}\n',  # rows inside a flow mapping over several lines
     'a: [\n  [1, 2]\n  ]\n',
+    'a:\n[1, 2]\n', 'x: [1, 2]\n  more\n', 'x: [1, 2]\n  y: 3\n', '[1, 2]\n', '- - [1]\n  - [2]\n',
 ])
 def test_text_where_a_row_might_not_be_a_row_reads_as_the_strict_way(text):
     same_as_strict(text)
