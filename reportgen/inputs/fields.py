@@ -3,8 +3,6 @@
 Units are those of SPEC.md: t, m, t/m³, deg, m², m⁴.
 """
 
-from __future__ import annotations
-
 from typing import Annotated
 
 import numpy as np
