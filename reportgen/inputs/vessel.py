@@ -4,9 +4,9 @@ Units: t, m, t/m³, deg, m², m⁴, t·m/cm, t/cm. Axes: x from AP forward, y to
 from the moulded base; trims positive by the stern.
 """
 
+from itertools import pairwise
 from typing import Annotated, Any, Literal, Self
 
-import numpy as np
 from pydantic import AfterValidator, Field, model_validator
 from shapely.geometry import Polygon
 
@@ -97,12 +97,12 @@ class Station(Model):
 
     @model_validator(mode="after")
     def _offsets(self) -> Self:
-        pts = np.asarray(self.points, dtype=float).reshape(-1, 2)
+        pts = self.points  # [y, z] pairs (Point2); a few dozen: plain floats
         if len(pts) < 2:
             raise ValueError("a station needs at least two points (keel to deck edge)")
-        if np.any(pts[:, 0] < 0):
+        if any(y < 0 for y, _ in pts):
             raise ValueError("half-breadths y must not be negative (starboard half-section)")
-        if np.any(np.diff(pts[:, 1]) < 0):
+        if any(b[1] - a[1] < 0 for a, b in pairwise(pts)):
             raise ValueError("points must run from the keel to the deck edge, z not decreasing")
         return self
 

@@ -81,27 +81,23 @@ def rows_out(text: str) -> tuple[str, list]:
     """(text with each row of numbers replaced by a marker word, the rows' values)."""
     if _MARK in text:
         return text, []
-    found = list(_ROW.finditer(text))
-    if not found:
+    parts = _ROW.split(text)  # [text, prefix, row, text, prefix, row, ..., text]
+    rows = parts[2::3]
+    if not rows:
         return text, []
     try:
-        values = json.loads("[" + ",".join(m.group(2) for m in found) + "]",
-                            parse_constant=_refuse)
+        values = json.loads("[" + ",".join(rows) + "]", parse_constant=_refuse)
+        parts[2::3] = [f"{_MARK}{i}" for i in range(len(rows))]
     except ValueError:  # some row is not one: read them one by one, leave the others
-        values, kept = [], []
-        for m in found:
+        values = []
+        for k in range(2, len(parts), 3):
             try:
-                values.append(json.loads(m.group(2), parse_constant=_refuse))
-                kept.append(m)
+                value = json.loads(parts[k], parse_constant=_refuse)
             except ValueError:
-                pass
-        found = kept
-    pieces, at = [], 0
-    for i, m in enumerate(found):
-        pieces += [text[at:m.start(2)], _MARK, str(i)]
-        at = m.end(2)
-    pieces.append(text[at:])
-    return "".join(pieces), values
+                continue
+            parts[k] = f"{_MARK}{len(values)}"
+            values.append(value)
+    return "".join(parts), values
 
 
 def _refuse(name: str) -> None:
