@@ -69,10 +69,12 @@ def main(argv: list[str]) -> int:
 
 
 # The libraries `check` needs, as far as it uses them: pydantic and rich load their parts
-# lazily, so a bare `import pydantic, rich` would leave out BaseModel and the console/table
-# machinery that any use of them loads.
+# lazily, so a bare `import pydantic, rich` would leave out BaseModel, the field constraints
+# and validators every file model is written with (they load annotated_types and
+# pydantic.types), and the console/table machinery that any use of them loads.
 IMPORTS = ("import numpy, scipy.interpolate, scipy.optimize, shapely, yaml, click; "
-           "from pydantic import BaseModel; import rich.console, rich.table")
+           "from pydantic import AfterValidator, BaseModel, BeforeValidator, ConfigDict, "
+           "Field, model_serializer, model_validator; import rich.console, rich.table")
 
 
 def _process_times(path: Path) -> tuple[float, float]:

@@ -41,9 +41,11 @@ def increasing(values: list[float]) -> list[float]:
 
 
 class Model(BaseModel):
-    """Every file model: unknown keys refused, types strict, values frozen."""
+    """Every file model: unknown keys refused, types strict, values frozen. Built when first
+    used (defer_build): a part of a file (a tank, a station) is then built once, inside the
+    whole file's model, rather than also as a model of its own at import."""
 
-    model_config = ConfigDict(extra="forbid", strict=True, frozen=True)
+    model_config = ConfigDict(extra="forbid", strict=True, frozen=True, defer_build=True)
 
 
 def equal_lengths(model: BaseModel, names: list[str]) -> None:
