@@ -112,6 +112,9 @@ def test_plain_decimals_keep_their_type_and_sign():
     '{a: [1, 2],\n b: [3]\n}\n',  # rows inside a flow mapping over several lines
     'a: [\n  [1, 2]\n  ]\n',
     'a:\n[1, 2]\n', 'x: [1, 2]\n  more\n', 'x: [1, 2]\n  y: 3\n', '[1, 2]\n', '- - [1]\n  - [2]\n',
+    'a: [\n  - [1, 2]\n]\n', 'a: {\n  b: [1, 2]\n}\n', '- - - [1]\n', 'a:\t[1, 2]\n',
+    'a: [1, 2] \t# tab before the comment\n', 'a: [1, 2] \r\n', '%YAML 1.1\n---\na: [1]\n...\n',
+    '', '---\n', '# only a comment\n', 'a: [1, 2]\nb: "_rgrow_0"\n', '"<<": [1]\n',
 ])
 def test_text_where_a_row_might_not_be_a_row_reads_as_the_strict_way(text):
     same_as_strict(text)
@@ -132,3 +135,42 @@ def test_a_refusal_names_file_key_and_line_as_before():
         yamlread.parse(text, "cond.yaml")
     assert str(caught.value) == "cond.yaml: key 'a' given twice (line 4)"
     assert outcome(yamlread.parse_strict, text.decode()) == "refused: f.yaml: key 'a' given twice (line 4)"
+
+
+BROKEN_VESSEL = [  # (text of the demo ferry's file, what it becomes)
+    ("[0.0000, 0.5317,", "[0.0000, .nan,"),  # NaN in a KN row (refused by the model)
+    ("[0.0000, 0.5317,", "[0.0000, .inf,"),
+    ("[0.0000, 0.5317,", "[0.0000, 5.317e1,"),  # YAML 1.1 reads it as a string (no sign)
+    ("[0.0000, 0.5317,", "[0.0000, 0.5317, 9.9,"),  # a row one value too long
+    ("[0.0000, 0.5317,", '[0.0000, "0.5317",'),  # a quoted number
+    ("[0.0000, 0.5317,", "[0.0000, 0.5317,,"),
+    ("  kn:\n", "  kn:\n  kn:\n"),  # a key given twice
+    ("  kn:\n", "  kn:\n    - [1, 2]: x\n"),
+    ("  kn:\n", "  kns:\n"),  # a misspelt key
+]
+
+
+@pytest.mark.parametrize(("old", "new"), BROKEN_VESSEL)
+def test_a_broken_vessel_file_is_refused_alike_with_its_line(tmp_path, monkeypatch, old, new):
+    """Through the whole loading of a case: the same refusal, naming file, key and line,
+    whether or not the quick way took the file."""
+    from reportgen.inputs import case as case_module
+    from reportgen.inputs import yamlfast
+
+    text = (ROOT / "conditions" / "vessels" / "plover-ferry.yaml").read_text(encoding="utf-8")
+    assert old in text
+    (tmp_path / "vessels").mkdir()
+    (tmp_path / "vessels" / "plover-ferry.yaml").write_text(text.replace(old, new, 1),
+                                                            encoding="utf-8")
+    condition = tmp_path / "c.yaml"
+    condition.write_bytes((ROOT / "conditions" / "ferry-arrival.yaml").read_bytes())
+
+    def message() -> str:
+        with pytest.raises(InputError) as caught:
+            case_module.load_case(condition)
+        return str(caught.value)
+
+    quick = message()
+    monkeypatch.setattr(yamlread, "fast_data", lambda text: yamlfast.NOT_FAST)
+    assert quick == message()
+    assert "plover-ferry.yaml" in quick and "line" in quick
