@@ -32,8 +32,9 @@ def main(argv: list[str]) -> int:
     # One condition, parsed case given: evaluation only, best of 20.
     best = min(_timed(lambda: evaluate(cases[0])) for _ in range(20))
     print(f"one condition ({paths[0].name}): {best * 1e3:.2f} ms (evaluate, best of 20)")
-    best_load = min(_timed(lambda: load_case(paths[0])) for _ in range(5))
-    print(f"reading the files: {best_load * 1e3:.2f} ms (load_case, best of 5)")
+    best_load = min(_timed(lambda: load_case(paths[0])) for _ in range(20))
+    print(f"reading the files: {best_load * 1e3:.2f} ms (load_case, best of 20; nothing "
+          f"cached between reads)")
 
     # 1000 conditions in one process, cycling through the cases.
     # (fewer when one takes over 20 ms, so that the benchmark ends; the figure is then
@@ -58,7 +59,7 @@ def main(argv: list[str]) -> int:
     _per_condition(cases, tables)
     process, imports = _process_times(paths[0])
     print(f"reportgen check as a process: {process * 1e3:.0f} ms; importing its libraries: "
-          f"{imports * 1e3:.0f} ms (ratio {process / imports:.2f}; best of 5 each; bytecode "
+          f"{imports * 1e3:.0f} ms (ratio {process / imports:.2f}; best of 7 each; bytecode "
           f"compiled first)")
     missed = [what for what, bad in (
         ("0.5 ms per condition", best > 0.5e-3), ("10 ms to read", best_load > 10e-3),
@@ -78,7 +79,7 @@ IMPORTS = ("import numpy, scipy.interpolate, scipy.optimize, shapely, yaml, clic
 
 
 def _process_times(path: Path) -> tuple[float, float]:
-    """Best of 5: `reportgen check PATH` as a new process, and a new process that only
+    """Best of 7: `reportgen check PATH` as a new process, and a new process that only
     imports the libraries the check needs.
 
     reportgen's modules are compiled to bytecode first, as an installed package has them
@@ -92,7 +93,7 @@ def _process_times(path: Path) -> tuple[float, float]:
     imports = [sys.executable, "-c", IMPORTS]
     runs = [(_timed(lambda: subprocess.run(check, capture_output=True, check=False)),
              _timed(lambda: subprocess.run(imports, capture_output=True, check=True)))
-            for _ in range(5)]  # taken in turn, so that a busy moment weighs on both
+            for _ in range(7)]  # taken in turn, so that a busy moment weighs on both
     return min(c for c, _ in runs), min(i for _, i in runs)
 
 
