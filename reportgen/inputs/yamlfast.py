@@ -8,13 +8,15 @@ Two steps:
    decimal numbers (`volume: [0.000, 0.097, ...]`, `points: [[0.0, 6.6], ...]`). Each such
    row that stands alone at the end of its line (after `key: `, `- ` or indentation only,
    before an optional comment) is replaced by a plain marker word on the same line, and all
-   rows are read at once by the JSON reader. Only the characters `-0123456789., []` may
-   appear in a row, so a row the JSON reader accepts holds numbers written
-   `-?(0|[1-9][0-9]*)(\\.[0-9]+)?` and nested lists of them: YAML 1.1 (PyYAML's resolver)
-   makes an int of the first form and a float of the second, as JSON does, with the same
-   `int()`/`float()` of the same text. Anything else (exponents, `.5`, `1.`, `+1`, `0x1F`,
-   `1_000`, `.inf`, a trailing comma, a row over several lines or with a comment inside)
-   stays in the text for YAML to read.
+   rows are read at once by the JSON reader. Outside double quotes only the characters
+   `-0123456789., []` may appear in a row, so a row the JSON reader accepts holds numbers
+   written `-?(0|[1-9][0-9]*)(\\.[0-9]+)?` and nested lists of them: YAML 1.1 (PyYAML's
+   resolver) makes an int of the first form and a float of the second, as JSON does, with
+   the same `int()`/`float()` of the same text. Inside double quotes only printable ASCII
+   without `"` and `\\` (no escapes), which YAML and JSON read as the same string (the
+   openings' names of a flooding-angle table). Anything else (exponents, `.5`, `1.`, `+1`,
+   `0x1F`, `1_000`, `.inf`, `'single quotes'`, a trailing comma, a row over several lines
+   or with a comment inside) stays in the text for YAML to read.
 2. The rest of the text (a few kB) through libyaml's parser as events, built directly into
    dicts, lists and scalars with PyYAML's own resolver and scalar constructors. Whatever the
    strict reader would refuse or treat specially is not handled here: an anchor or alias, an
@@ -52,11 +54,9 @@ _ROW = re.compile(
     r"(?=[ ]*(?:#[^\n]*)?\r?$)")  # then only a comment before the end of the line
 
 _RESOLVER = yaml.resolver.Resolver()
-_SPECIAL_FIRST = frozenset(k for k in _RESOLVER.yaml_implicit_resolvers if k)  # may not be str
-_ANY_FIRST = None in _RESOLVER.yaml_implicit_resolvers  # a resolver for every first character
+_FIRST = _RESOLVER.yaml_implicit_resolvers  # first character -> PyYAML's implicit resolvers
 _FAST_FLOAT = re.compile(r"-?[0-9]+\.[0-9]+")  # PyYAML's float, not its int: float(text)
 _FAST_INT = re.compile(r"-?(?:0|[1-9][0-9]*)")  # PyYAML's int, not its float: int(text)
-_STR_TAG = "tag:yaml.org,2002:str"
 _CONSTRUCTOR = yaml.constructor.SafeConstructor()
 _SCALARS = {f"tag:yaml.org,2002:{name}": getattr(_CONSTRUCTOR, f"construct_yaml_{name}")
             for name in ("bool", "int", "float", "null", "timestamp", "str")}
@@ -186,7 +186,7 @@ class _Builder:
 
 def scalar(text: str) -> Any:
     """The value of a plain scalar, as PyYAML's safe loader makes it."""
-    if text and text[0] not in _SPECIAL_FIRST and not _ANY_FIRST:
+    if text and text[0] not in _FIRST and None not in _FIRST:  # no resolver: a string
         return text
     if _FAST_FLOAT.fullmatch(text):
         return float(text)
