@@ -70,11 +70,11 @@ def fast_data(text: str) -> Any:
     """The data of YAML text as the strict reader builds them, or NOT_FAST."""
     if _yaml is None or not hasattr(_yaml, "CParser"):
         return NOT_FAST
-    skeleton, rows = rows_out(text)
     try:
+        skeleton, rows = rows_out(text)
         return _Builder(skeleton, rows).document()
-    except (_NotFast, yaml.YAMLError, ValueError, TypeError, OverflowError, RecursionError):
-        return NOT_FAST
+    except Exception:  # noqa: BLE001 (_NotFast, a YAML error, a scalar that cannot be built,
+        return NOT_FAST  # anything unforeseen: the strict reader decides and says why)
 
 
 def rows_out(text: str) -> tuple[str, list]:
