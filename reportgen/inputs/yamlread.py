@@ -1,11 +1,13 @@
 """YAML input with limits, and pydantic validation with messages that name key path and line.
 
-The fast path parses with libyaml's C parser (yaml.CSafeLoader) and builds the Python data
+The strict way parses with libyaml's C parser (yaml.CSafeLoader) and builds the Python data
 with a constructor that refuses what a stability input never needs and a hostile file may
 carry: a key given twice, a key that is not a plain value (a list or a mapping as a key),
 an alias expansion beyond MAX_EXPANDED_NODES (an "alias bomb"), nesting deeper than
 MAX_DEPTH, a scalar that cannot be built (a date that does not exist, an integer of thousands
 of digits). Line numbers of every key are worked out only when there is an error to report.
+`parse` first tries the quick way (reportgen.inputs.yamlfast), which gives the same data for
+a file it is sure of and hands every other file, and every refusal, to the strict way.
 """
 
 from __future__ import annotations
