@@ -33,7 +33,6 @@ Exit status: 0 every criterion of every condition passed; 1 a criterion failed;
                    "the MSC.1/Circ.1229 tolerances (the vessel needs both).")
 def check(conditions: tuple[Path, ...], as_json: bool, compare: bool) -> None:
     """Evaluate loading conditions against their criteria."""
-    from reportgen.compare import render
     from reportgen.pipeline import evaluate_compared, evaluate_path
     from reportgen.summary import render_summary
 
@@ -53,6 +52,8 @@ def check(conditions: tuple[Path, ...], as_json: bool, compare: bool) -> None:
                 click.echo("\n" + "=" * 100 + "\n")
             click.echo(render_summary(results))
             if results.comparison is not None:
+                from reportgen.compare import render
+
                 click.echo("\n" + render([e.model_dump() for e in results.comparison]))
     if as_json:
         if len(conditions) == 1:

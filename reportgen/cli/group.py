@@ -11,6 +11,7 @@ import os
 import sys
 from collections.abc import Callable, Iterator
 from contextlib import contextmanager
+from importlib import import_module
 from pathlib import Path
 
 import click
@@ -33,8 +34,29 @@ def progress(what: str, total: int | None) -> Iterator[Callable[[], None]]:
         yield lambda: bar.advance(task)
 
 
+# Each command and the module of this package that defines it: a command's module is imported
+# only when that command runs (or when the help lists them all), so that `check` does not load
+# what signing, the documents or the ship-data tools need.
+COMMANDS = {
+    "check": "calc", "sheet": "calc", "schema": "formats", "limits": "limits", "room": "limits",
+    "package": "package", "tables": "setup", "hull-from-mesh": "shipdata", "import": "shipdata",
+    "show": "shipdata", "new": "shipdata", "keygen": "signing", "sign": "signing",
+    "verify": "signing", "approve": "signing", "extract": "signing",
+}
+
+
 class _Group(click.Group):
-    """Turns InputError into one line on stderr and exit status 2, never a traceback."""
+    """Turns InputError into one line on stderr and exit status 2, never a traceback; loads
+    each command's module when the command is asked for."""
+
+    def list_commands(self, ctx: click.Context) -> list[str]:
+        return sorted(COMMANDS)
+
+    def get_command(self, ctx: click.Context, cmd_name: str) -> click.Command | None:
+        module = COMMANDS.get(cmd_name)
+        if module is not None and cmd_name not in self.commands:
+            import_module(f"reportgen.cli.{module}")  # registers its commands on `main`
+        return super().get_command(ctx, cmd_name)
 
     def invoke(self, ctx: click.Context):
         from reportgen.files import command_scope

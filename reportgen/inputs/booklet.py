@@ -1,7 +1,7 @@
 """The approved booklet's limiting curve in the vessel file (`limiting_kg` / `limiting_gm`,
 criteria set booklet.limits, SPEC.md "Limits"). Units: t, m."""
 
-from __future__ import annotations
+from typing import Self
 
 from pydantic import model_validator
 
@@ -18,7 +18,7 @@ class LimitingCurve(Model):
     gm: list[Num] | None = None  # m, minimum GM corrected
 
     @model_validator(mode="after")
-    def _one_column(self) -> LimitingCurve:
+    def _one_column(self) -> Self:
         if (self.kg is None) == (self.gm is None):
             raise ValueError("give exactly one of kg (maximum KG) and gm (minimum GM)")
         equal_lengths(self, ["displacement", "kg", "gm"])

@@ -14,7 +14,7 @@ from reportgen.inputs.condition import Condition
 from reportgen.inputs.grain import check_grain
 from reportgen.inputs.special import PASSENGER_SET
 from reportgen.inputs.vessel import Vessel
-from reportgen.inputs.yamlread import key_lines, parse, validate, where
+from reportgen.inputs.yamlread import cyclic_gc_paused, key_lines, parse, validate, where
 
 
 def parse_vessel(raw: bytes, name: str) -> Vessel:
@@ -148,8 +148,14 @@ def case_from_bytes(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_n
                     vessel_label: str | None = None, cond_data: object = None) -> Case:
     """A case from file contents; the labels (default: the names) are used in messages.
     `cond_data`: the condition's YAML data when already parsed."""
-    cond_label = cond_label or cond_name
-    vessel_label = vessel_label or vessel_name
+    with cyclic_gc_paused():  # once for the whole case: the files' data are freed before
+        return _case(cond_raw, vessel_raw, cond_name, vessel_name, approval,  # it resumes
+                     cond_label or cond_name, vessel_label or vessel_name, cond_data)
+
+
+def _case(cond_raw: bytes, vessel_raw: bytes, cond_name: str, vessel_name: str,
+          approval: bytes | None, cond_label: str, vessel_label: str,
+          cond_data: object) -> Case:
     if cond_data is None:
         cond_data = parse(cond_raw, cond_label)
     cond = validate(Condition, cond_data, cond_label, cond_raw)

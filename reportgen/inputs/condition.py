@@ -3,9 +3,7 @@
 Units: t, m, t/m³, m², percent of a tank's capacity.
 """
 
-from __future__ import annotations
-
-from typing import Annotated, Any, Literal
+from typing import Annotated, Any, Literal, Self
 
 from pydantic import AfterValidator, Field, model_validator
 
@@ -47,7 +45,7 @@ class Filling(Model):
     density: Density | None = None  # t/m³, overrides the tank's
 
     @model_validator(mode="after")
-    def _exactly_one(self) -> Filling:
+    def _exactly_one(self) -> Self:
         given = [k for k in FILLING_KINDS if getattr(self, k) is not None]
         if len(given) != 1:
             raise ValueError("give exactly one of " + ", ".join(FILLING_KINDS)
@@ -74,7 +72,7 @@ class Item(Model):
     timber: bool = False  # timber deck cargo (IS Code 2008 Part A 3.3)
 
     @model_validator(mode="after")
-    def _wind(self) -> Item:
+    def _wind(self) -> Self:
         if self.wind_area and self.wind_z is None:
             raise ValueError("wind_area needs wind_z (its centroid above base, m)")
         if self.wind_z is not None and not self.wind_area:
@@ -87,7 +85,7 @@ class Weather(Model):
     roll_angle_source: Text | None = None  # the report θ1 comes from, printed on the sheet
 
     @model_validator(mode="after")
-    def _source(self) -> Weather:
+    def _source(self) -> Self:
         if self.roll_angle is not None and self.roll_angle_source is None:
             raise ValueError("roll_angle needs roll_angle_source (the report it comes from)")
         if self.roll_angle is None and self.roll_angle_source is not None:

@@ -3,11 +3,9 @@
 Units are those of SPEC.md: t, m, t/m³, deg, m², m⁴.
 """
 
-from __future__ import annotations
-
+from itertools import pairwise
 from typing import Annotated
 
-import numpy as np
 from pydantic import AfterValidator, BaseModel, BeforeValidator, ConfigDict, Field
 
 from reportgen.inputs.yamlread import iso_date
@@ -16,9 +14,9 @@ from reportgen.inputs.yamlread import iso_date
 def _strictly_increasing(values: list[float]) -> list[float]:
     if len(values) < 2:
         raise ValueError("needs at least two rows")
-    steps = np.diff(np.asarray(values, dtype=float))
-    if np.any(steps <= 0):
-        i = int(np.argmax(steps <= 0))
+    # the first step b - a <= 0 (as numpy's diff would find it; a few dozen rows: plain floats)
+    i = next((i for i, (a, b) in enumerate(pairwise(values)) if b - a <= 0), None)
+    if i is not None:
         raise ValueError(f"must be strictly increasing (row {i + 1}: {values[i]}, row {i + 2}: "
                          f"{values[i + 1]})")
     return values
@@ -43,9 +41,11 @@ def increasing(values: list[float]) -> list[float]:
 
 
 class Model(BaseModel):
-    """Every file model: unknown keys refused, types strict, values frozen."""
+    """Every file model: unknown keys refused, types strict, values frozen. Built when first
+    used (defer_build): a part of a file (a tank, a station) is then built once, inside the
+    whole file's model, rather than also as a model of its own at import."""
 
-    model_config = ConfigDict(extra="forbid", strict=True, frozen=True)
+    model_config = ConfigDict(extra="forbid", strict=True, frozen=True, defer_build=True)
 
 
 def equal_lengths(model: BaseModel, names: list[str]) -> None:

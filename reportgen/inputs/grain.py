@@ -6,9 +6,7 @@ the grain loading booklet gives them (the vertical-shift allowance of the Intern
 Code, MSC.23(59), B 1.3 and B 1.5, included), stowage factor m³/t, mass t.
 """
 
-from __future__ import annotations
-
-from typing import Annotated, Literal
+from typing import Annotated, Literal, Self
 
 from pydantic import Field, model_validator
 
@@ -48,7 +46,7 @@ class PartlyGrain(Model):
     vhm: list[NonNegative]  # m⁴
 
     @model_validator(mode="after")
-    def _rows(self) -> PartlyGrain:
+    def _rows(self) -> Self:
         equal_lengths(self, ["volume", "lcg", "vcg", "vhm"])
         if self.volume[0] < 0:
             raise ValueError("volume must not be negative")
@@ -63,7 +61,7 @@ class GrainCompartment(Model):
     partly: PartlyGrain | None = None  # partly filled (A 2.4): centre and VHM by volume
 
     @model_validator(mode="after")
-    def _partly_within(self) -> GrainCompartment:
+    def _partly_within(self) -> Self:
         if self.partly is not None and self.partly.volume[-1] > self.filled.volume * (1 + 1e-9):
             raise ValueError(f"partly: the largest volume {self.partly.volume[-1]:g} m³ exceeds "
                              f"the filled volume {self.filled.volume:g} m³")
@@ -74,7 +72,7 @@ class VesselGrain(Model):
     compartments: Annotated[list[GrainCompartment], Field(min_length=1)]  # each cargo space
 
     @model_validator(mode="after")
-    def _unique(self) -> VesselGrain:
+    def _unique(self) -> Self:
         ids = [c.id for c in self.compartments]
         dup = sorted({i for i in ids if ids.count(i) > 1})
         if dup:
@@ -90,7 +88,7 @@ class GrainFilling(Model):
     mass: Positive | None = None  # t
 
     @model_validator(mode="after")
-    def _exactly_one(self) -> GrainFilling:
+    def _exactly_one(self) -> Self:
         given = [k for k in ("filled", "volume", "mass") if getattr(self, k) is not None]
         if len(given) != 1:
             raise ValueError("give exactly one of filled, volume, mass"

@@ -1,7 +1,7 @@
 """The vessel file's `draught_marks` (SPEC.md, "Draught marks and observed draughts"): x of
 the aft, midships and forward marks, m from AP; the marks read extreme draughts."""
 
-from __future__ import annotations
+from typing import Self
 
 from pydantic import model_validator
 
@@ -16,7 +16,7 @@ class DraughtMarks(Model):
     fore: Num  # m from AP, x of the forward marks
 
     @model_validator(mode="after")
-    def _order(self) -> DraughtMarks:
+    def _order(self) -> Self:
         if not self.aft < self.mid < self.fore:
             raise ValueError("the marks must lie aft < mid < fore (x from AP, m)")
         return self

@@ -5,8 +5,6 @@ both files (a condition may only ask for what the vessel's data give).
 Units: t, m, m², knots.
 """
 
-from __future__ import annotations
-
 from typing import Annotated
 
 from pydantic import Field

@@ -4,9 +4,7 @@
 Units: m, t, t/m³, deg, t·m/cm, t/cm; trims positive by the stern.
 """
 
-from __future__ import annotations
-
-from typing import Annotated, Any, Literal
+from typing import Annotated, Any, Literal, Self
 
 import numpy as np
 from pydantic import AfterValidator, model_validator
@@ -34,7 +32,7 @@ class Particulars(Model):
     service_speed: Positive | None = None  # knots, for the turning heel of Part A 3.1
 
     @model_validator(mode="after")
-    def _draft_below_depth(self) -> Particulars:
+    def _draft_below_depth(self) -> Self:
         if self.summer_draft >= self.depth:
             raise ValueError("summer_draft must be less than depth")
         return self
@@ -87,7 +85,7 @@ class Hydrostatics(Model):
     cb: Rows | None = None  # block coefficient (default Δ/(ρ·Lwl·B·T)), for X2 of Part A 2.3.4
 
     @model_validator(mode="after")
-    def _rows(self) -> Hydrostatics:
+    def _rows(self) -> Self:
         n = len(self.draft)
         names = ["displacement", "lcb", "lcf", "kmt", "mct", "tpc", "lwl", "cb"]
         for name in names:
@@ -119,7 +117,7 @@ class CrossCurves(Model):
     kn: list[Column] | list[list[Column]]  # m: kn[i][j], or kn[k][i][j] with trims
 
     @model_validator(mode="after")
-    def _shape(self) -> CrossCurves:
+    def _shape(self) -> Self:
         if self.heel[0] != 0:
             raise ValueError("heel must start at 0 (negative heels follow by symmetry)")
         if self.heel[-1] < 60 or self.heel[-1] > 90:

@@ -4,9 +4,7 @@
 Units: m, m³, m⁴, t/m³. Axes: x from AP forward, y to starboard, z up from the moulded base.
 """
 
-from __future__ import annotations
-
-from typing import Annotated, Literal
+from typing import Annotated, Literal, Self
 
 from pydantic import AfterValidator, model_validator
 
@@ -32,7 +30,7 @@ class TankTable(Model):
     fsi: list[NonNegative]  # m⁴, transverse moment of inertia of the free surface
 
     @model_validator(mode="after")
-    def _rows(self) -> TankTable:
+    def _rows(self) -> Self:
         equal_lengths(self, ["sounding", "volume", "lcg", "vcg", "tcg", "fsi"])
         if self.volume[0] < 0:
             raise ValueError("volume must not be negative")
@@ -74,7 +72,7 @@ class Tank(Model):
     ullage_reference: Positive | None = None  # m above the sounding zero
 
     @model_validator(mode="after")
-    def _table_or_geometry(self) -> Tank:
+    def _table_or_geometry(self) -> Self:
         if self.table is None and self.geometry is None:
             raise ValueError("give the tank's table, or its geometry for `reportgen tables`")
         return self

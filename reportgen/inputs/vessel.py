@@ -4,11 +4,9 @@ Units: t, m, t/m³, deg, m², m⁴, t·m/cm, t/cm. Axes: x from AP forward, y to
 from the moulded base; trims positive by the stern.
 """
 
-from __future__ import annotations
+from itertools import pairwise
+from typing import Annotated, Any, Literal, Self
 
-from typing import Annotated, Any, Literal
-
-import numpy as np
 from pydantic import AfterValidator, Field, model_validator
 from shapely.geometry import Polygon
 
@@ -66,7 +64,7 @@ class AngleTable(Model):
     # (flooding_angle only) shaped as `angle`; each one of `openings`
 
     @model_validator(mode="after")
-    def _rows(self) -> AngleTable:
+    def _rows(self) -> Self:
         per_trim(self, "angle", self.trims, len(self.displacement))
         per_trim(self, "opening", self.trims, len(self.displacement))
         return self
@@ -84,7 +82,7 @@ class Windage(Model):
     # a closed polygon (Part A 2.3.2.2: the lateral area A and its centre)
 
     @model_validator(mode="after")
-    def _polygon(self) -> Windage:
+    def _polygon(self) -> Self:
         if len(self.profile) < 3:
             raise ValueError("profile needs at least three points")
         poly = Polygon(self.profile)
@@ -98,13 +96,13 @@ class Station(Model):
     points: list[Point2]  # [y, z], m: starboard half-section, keel to deck edge
 
     @model_validator(mode="after")
-    def _offsets(self) -> Station:
-        pts = np.asarray(self.points, dtype=float).reshape(-1, 2)
+    def _offsets(self) -> Self:
+        pts = self.points  # [y, z] pairs (Point2); a few dozen: plain floats
         if len(pts) < 2:
             raise ValueError("a station needs at least two points (keel to deck edge)")
-        if np.any(pts[:, 0] < 0):
+        if any(y < 0 for y, _ in pts):
             raise ValueError("half-breadths y must not be negative (starboard half-section)")
-        if np.any(np.diff(pts[:, 1]) < 0):
+        if any(b[1] - a[1] < 0 for a, b in pairwise(pts)):
             raise ValueError("points must run from the keel to the deck edge, z not decreasing")
         return self
 
@@ -114,7 +112,7 @@ class HullOffsets(Model):
     stations: list[Station]  # sections, at least three, x strictly increasing
 
     @model_validator(mode="after")
-    def _stations(self) -> HullOffsets:
+    def _stations(self) -> Self:
         if len(self.stations) < 3:
             raise ValueError("needs at least three stations")
         increasing([s.x for s in self.stations])
@@ -178,7 +176,7 @@ class Vessel(Model):
     notes: Any = None  # free text or data, not read by the calculation
 
     @model_validator(mode="after")
-    def _whole(self) -> Vessel:
+    def _whole(self) -> Self:
         if (self.hydrostatics is None) != (self.cross_curves is None):
             raise ValueError("hydrostatics and cross_curves go together: give both or neither")
         if not self.has_tables and self.hull is None:

@@ -1,11 +1,13 @@
 """YAML input with limits, and pydantic validation with messages that name key path and line.
 
-The fast path parses with libyaml's C parser (yaml.CSafeLoader) and builds the Python data
+The strict way parses with libyaml's C parser (yaml.CSafeLoader) and builds the Python data
 with a constructor that refuses what a stability input never needs and a hostile file may
 carry: a key given twice, a key that is not a plain value (a list or a mapping as a key),
 an alias expansion beyond MAX_EXPANDED_NODES (an "alias bomb"), nesting deeper than
 MAX_DEPTH, a scalar that cannot be built (a date that does not exist, an integer of thousands
 of digits). Line numbers of every key are worked out only when there is an error to report.
+`parse` first tries the quick way (reportgen.inputs.yamlfast), which gives the same data for
+a file it is sure of and hands every other file, and every refusal, to the strict way.
 """
 
 from __future__ import annotations
@@ -21,6 +23,7 @@ import yaml
 from pydantic import BaseModel, ValidationError
 
 from reportgen.errors import InputError
+from reportgen.inputs.yamlfast import NOT_FAST, fast_data
 
 MAX_EXPANDED_NODES = 2_000_000  # nodes after alias expansion; a large vessel file has ~10⁵
 MAX_DEPTH = 64  # nesting of mappings and sequences
@@ -178,13 +181,23 @@ def cyclic_gc_paused() -> Iterator[None]:
 
 
 def parse(raw: bytes, name: str) -> Any:
-    """The data of a YAML file (one document); InputError naming the file and line."""
+    """The data of a YAML file (one document); InputError naming the file and line.
+
+    The quick way (reportgen.inputs.yamlfast) first; whatever it is not sure of, the strict
+    way below, which makes every refusal and its message."""
     with cyclic_gc_paused():
-        return _parse(raw, name)
+        text = decode(raw, name)
+        data = fast_data(text)
+        return _parse(text, name) if data is NOT_FAST else data
 
 
-def _parse(raw: bytes, name: str) -> Any:
-    text = decode(raw, name)
+def parse_strict(raw: bytes, name: str) -> Any:
+    """`parse` without the quick way (the reference the quick way is tested against)."""
+    with cyclic_gc_paused():
+        return _parse(decode(raw, name), name)
+
+
+def _parse(text: str, name: str) -> Any:
     loader = _Loader(text)
     node = None
     try:
