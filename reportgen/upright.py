@@ -84,14 +84,14 @@ def _hull_angle(case: Case, vd: VesselData, loading: Loading):
     geom = vd.hull
     if geom is None:
         return None
-    from reportgen.hull.tables import heel_scan, immersion_angle
+    from reportgen.hull.tables import Scan, immersion_angle
 
     rho = case.condition.condition.water_density
     volume = loading.totals.displacement / rho
     lcg = loading.totals.lcg
     heels = [float(h) for h in vd.cross.heel_deg] if vd.cross is not None else \
         [float(h) for h in range(0, 91, 5)]
-    scanned = heel_scan(geom, volume, lcg, heels)
+    scanned = Scan(geom, volume, lcg, heels)  # solved only as far as a search reads it
 
     def angle(points_xyz: np.ndarray) -> float:
         return immersion_angle(geom, points_xyz, volume, lcg, scanned)

@@ -115,29 +115,27 @@ def immersion_angle(
 ) -> float:
     """Least heel, deg, at which any of the points reaches the equilibrium waterplane.
 
-    `scanned`: equilibria at increasing heels (the cross-curve heels) of this displacement.
-    The first scanned heel at which a point is immersed brackets the angle with the one
-    before; brentq on the heel then finds it, solving the equilibrium (free trim with xB =
-    lcg_m, or even keel when lcg_m is None) at every trial heel. A point immersed already
-    at the first heel gives that heel; one never immersed up to the last scanned heel gives
-    that heel (90° for the default scan), the end of the range the tables cover.
+    `scanned`: equilibria at increasing heels (the cross-curve heels) of this displacement,
+    a list or a `Scan` that solves them only as they are read. The first scanned heel at
+    which a point is immersed brackets the angle with the one before (the heels beyond it
+    are not read); brentq on the heel then finds it, solving the equilibrium (free trim
+    with xB = lcg_m, or even keel when lcg_m is None) at every trial heel. A point immersed
+    already at the first heel gives that heel; one never immersed up to the last scanned
+    heel gives that heel (90° for the default scan), the end of the range the tables cover.
     """
-    gaps = [clearance_m(geom, e.plane, points_xyz) for e in scanned]
-    heels = [e.plane.heel_deg for e in scanned]
-    if gaps[0] <= 0.0:
-        return heels[0]
+    if clearance_m(geom, scanned[0].plane, points_xyz) <= 0.0:
+        return scanned[0].plane.heel_deg
     for j in range(1, len(scanned)):
-        if gaps[j] <= 0.0:
+        if clearance_m(geom, scanned[j].plane, points_xyz) <= 0.0:
             prev = scanned[j - 1].plane
-
             nxt = scanned[j].plane
 
             def gap(h: float, prev: Plane = prev, nxt: Plane = nxt) -> float:
                 e = equilibrium(geom, volume_m3, h, lcg_m, guess=_between(prev, nxt, h))
                 return clearance_m(geom, e.plane, points_xyz)
 
-            return float(brentq(gap, heels[j - 1], heels[j], xtol=1e-4))
-    return heels[-1]
+            return float(brentq(gap, prev.heel_deg, nxt.heel_deg, xtol=1e-4))
+    return scanned[-1].plane.heel_deg
 
 
 def first_immersed(geom: HullGeometry, points_xyz: np.ndarray, volume_m3: float,
@@ -160,21 +158,44 @@ def opening_points(openings: Sequence[Any]) -> np.ndarray:
                     ).reshape(-1, 3)
 
 
+class Scan(Sequence[Equilibrium]):
+    """Equilibria at increasing heels (deg, the first 0) for one volume (m³), solved only as
+    they are read and kept: free trim with xB = lcg_m, or even keel when lcg_m is None; each
+    solve starts from the last ones (the same chain of first guesses however far it is
+    read). An immersion search reads only up to the first heel that immerses its points."""
+
+    def __init__(self, geom: HullGeometry, volume_m3: float, lcg_m: float | None,
+                 heels_deg: Sequence[float], upright: Equilibrium | None = None) -> None:
+        self._geom, self._volume, self._lcg = geom, volume_m3, lcg_m
+        self._heels = [float(h) for h in heels_deg]
+        self._upright = upright
+        self._states: list[Equilibrium] = []
+
+    def __len__(self) -> int:
+        return len(self._heels)
+
+    def __getitem__(self, i):  # type: ignore[override]
+        if isinstance(i, slice):
+            return [self[k] for k in range(*i.indices(len(self)))]
+        k = range(len(self))[i]
+        states = self._states
+        while len(states) <= k:
+            h = self._heels[len(states)]
+            if h == 0.0 and self._upright is not None:
+                e = self._upright
+            else:
+                guess = (None if not states else states[-1].plane if len(states) < 2
+                         else _between(states[-2].plane, states[-1].plane, h))
+                e = equilibrium(self._geom, self._volume, h, self._lcg, guess=guess)
+            states.append(e)
+        return states[k]
+
+
 def heel_scan(geom: HullGeometry, volume_m3: float, lcg_m: float | None,
               heels_deg: Sequence[float], upright: Equilibrium | None = None
               ) -> list[Equilibrium]:
-    """Equilibria at increasing heels (deg, the first 0) for one volume (m³): free trim with
-    xB = lcg_m, or even keel when lcg_m is None; each solve starts from the last ones."""
-    states: list[Equilibrium] = []
-    for h in heels_deg:
-        if h == 0.0 and upright is not None:
-            e = upright
-        else:
-            guess = (None if not states else states[-1].plane if len(states) < 2
-                     else _between(states[-2].plane, states[-1].plane, h))
-            e = equilibrium(geom, volume_m3, h, lcg_m, guess=guess)
-        states.append(e)
-    return states
+    """Equilibria at every heel of `heels_deg` (the whole `Scan`)."""
+    return list(Scan(geom, volume_m3, lcg_m, heels_deg, upright))
 
 
 def default_heels(vessel: Any) -> list[float]:
