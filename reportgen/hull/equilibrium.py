@@ -98,7 +98,11 @@ def _free_trim_residual(geom: HullGeometry, volume_m3: float, heel_deg: float, l
     w, x = geom.weights, geom.x_m
     lever = (0.5 * lpp - x) / lpp
 
+    last: list = [None, None]  # the last (z, result): hybrj starts at the point just checked
+
     def fun(z: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        if last[0] is not None and np.array_equal(z, last[0]):
+            return last[1]
         plane = Plane(float(z[0]), float(z[1]) / lpp, heel_deg)
         sl = clip_sections(geom, plane)
         a, b = sl.area_m2, sl.breadth_m
@@ -108,6 +112,7 @@ def _free_trim_residual(geom: HullGeometry, volume_m3: float, heel_deg: float, l
         dv = np.array([w @ b, w @ (b * lever)])
         dmx = np.array([w @ (b * x), w @ (b * x * lever)])
         jac = np.vstack([dv / volume_m3, (dmx - lcg_m * dv) / (volume_m3 * lpp)])
+        last[0], last[1] = np.array(z, dtype=float), (f, jac)
         return f, jac
 
     return fun
@@ -162,13 +167,18 @@ def _free_trim_nested(geom: HullGeometry, volume_m3: float, heel_deg: float, lcg
     return solve_draft(geom, volume_m3, heel_deg, tau / lpp)
 
 
+def equilibrium_plane(geom: HullGeometry, volume_m3: float, heel_deg: float,
+                      lcg_m: float | None = None, guess: Plane | None = None) -> Plane:
+    """The equilibrium waterplane at heel alone (as `equilibrium`, without integrating the
+    centre of buoyancy there)."""
+    if lcg_m is None:
+        return solve_draft(geom, volume_m3, heel_deg, 0.0)
+    g = None if guess is None else Plane(guess.d_m, guess.slope, heel_deg)
+    return solve_free_trim(geom, volume_m3, heel_deg, lcg_m, g)
+
+
 def equilibrium(geom: HullGeometry, volume_m3: float, heel_deg: float,
                 lcg_m: float | None = None, guess: Plane | None = None) -> Equilibrium:
     """Equilibrium at heel: even keel (slope 0) when `lcg_m` is None, else free trim with
     xB = lcg_m. `guess` (a nearby plane at any heel) speeds up the free-trim solve."""
-    if lcg_m is None:
-        plane = solve_draft(geom, volume_m3, heel_deg, 0.0)
-    else:
-        g = None if guess is None else Plane(guess.d_m, guess.slope, heel_deg)
-        plane = solve_free_trim(geom, volume_m3, heel_deg, lcg_m, g)
-    return _state(geom, plane)
+    return _state(geom, equilibrium_plane(geom, volume_m3, heel_deg, lcg_m, guess))

@@ -76,7 +76,7 @@ class HullGeometry:
     vertices: each section's exterior ring, (k, 2) arrays of (y, z), m.
     coords_yz, coords_index: the coordinates of every section ring (closed, anticlockwise
     about the part it bounds), and the station of each.
-    edges_yz: every ring edge as a row (y0, z0, y1, z1), by station; edge_station: the
+    edges_yz: every ring edge as a column (y0, z0, y1, z1), by station; edge_station: the
     station of each edge.
     """
 
@@ -128,7 +128,7 @@ def prepare_hull(hull: Hull, length_bp_m: float) -> HullGeometry:
         vertices=verts,
         coords_yz=coords,
         coords_index=ring_station[ring_of],
-        edges_yz=np.column_stack([coords[edge_start], coords[edge_start + 1]]),
+        edges_yz=np.vstack([coords[edge_start].T, coords[edge_start + 1].T]),
         edge_station=ring_station[ring_of[edge_start]],
     )
 
@@ -180,39 +180,44 @@ def clip_sections(geom: HullGeometry, plane: Plane) -> SectionSlices:
     Green's theorem: any calculus text. clip_sections_by_intersection, shapely's general
     overlay, is the reference the tests hold this to.
     """
-    u, n = _axes(plane.heel_deg)
+    t = np.radians(plane.heel_deg)
+    cos, sin = float(np.cos(t)), float(np.sin(t))  # u = (cos, sin), n = (-sin, cos)
     c = plane_height(geom, plane)
-    rot = np.zeros((4, 4))
-    rot[:2, :2] = rot[2:, 2:] = np.column_stack([u, n])
-    q = geom.edges_yz @ rot  # s0, h0, s1, h1 of every edge, h from the station's origin
+    rot = np.array([[cos, sin, 0.0, 0.0], [-sin, cos, 0.0, 0.0],
+                    [0.0, 0.0, cos, sin], [0.0, 0.0, -sin, cos]])
+    q = rot @ geom.edges_yz  # rows s0, h0, s1, h1 of every edge, h from the station's origin
     ce = c[geom.edge_station]
-    h0, h1 = q[:, 1] - ce, q[:, 3] - ce
+    h0, h1 = q[1] - ce, q[3] - ce
     below0, below1 = h0 <= 0.0, h1 <= 0.0
     k = np.flatnonzero(below0 | below1)  # the edges with a part below the waterline
-    s0, s1, h0, h1 = q[k, 0], q[k, 2], h0[k], h1[k]
-    for out, ok in ((0, below0[k]), (1, below1[k])):  # end a crossing edge at h = 0
-        x = np.flatnonzero(~ok)
-        sx = s0[x] + h0[x] / (h0[x] - h1[x]) * (s1[x] - s0[x])
-        if out == 0:
-            s0[x], h0[x] = sx, 0.0
-        else:
-            s1[x], h1[x] = sx, 0.0
-    cross = s0 * h1 - s1 * h0
+    s0, s1, h0, h1 = q[0, k], q[2, k], h0[k], h1[k]
+    for ok, s_end, h_end in ((below0[k], s0, h0), (below1[k], s1, h1)):
+        x = np.flatnonzero(~ok)  # an edge crossing the waterline ends there (h = 0)
+        s_end[x] = s0[x] + h0[x] / (h0[x] - h1[x]) * (s1[x] - s0[x])
+        h_end[x] = 0.0
     tol = 1e-9 * geom.size_m
-    edge = (np.abs(h0) >= tol) | (np.abs(h1) >= tol)  # not itself on the waterline
-    ds = np.where(edge, s1 - s0, 0.0)
-    terms = np.column_stack([cross, (s0 + s1) * cross, (h0 + h1) * cross, ds,
-                             ds * (s0 + s1), ds * (s0 * s0 + s0 * s1 + s1 * s1)])
-    sums = np.zeros((len(geom.x_m), 6))
+    ds = np.where(np.minimum(h0, h1) <= -tol, s1 - s0, 0.0)  # 0 on the waterline itself
+    terms = np.empty((6, len(k)))
+    cross = np.multiply(s0, h1, out=terms[0])
+    cross -= s1 * h0
+    np.multiply(s0 + s1, cross, out=terms[1])
+    np.multiply(h0 + h1, cross, out=terms[2])
+    terms[3] = ds
+    np.multiply(ds, s0 + s1, out=terms[4])
+    np.multiply(ds, s0 * s0 + s0 * s1 + s1 * s1, out=terms[5])
+    sums = np.zeros((6, len(geom.x_m)))
     if len(k):
         st = geom.edge_station[k]
-        first = np.flatnonzero(np.r_[True, st[1:] != st[:-1]])
-        sums[st[first]] = np.add.reduceat(terms, first, axis=0)
-    area = 0.5 * sums[:, 0]
-    m_s = sums[:, 1] / 6.0
-    m_h = sums[:, 2] / 6.0 + c * area  # ∫h dA from the section's origin
-    return SectionSlices(area, m_s * u[0] + m_h * n[0], m_s * u[1] + m_h * n[1], sums[:, 3],
-                         0.5 * sums[:, 4], sums[:, 5] / 3.0)
+        first = np.empty(len(k), dtype=bool)
+        first[0] = True
+        np.not_equal(st[1:], st[:-1], out=first[1:])
+        at = np.flatnonzero(first)
+        sums[:, st[at]] = np.add.reduceat(terms, at, axis=1)
+    area = 0.5 * sums[0]
+    m_s = sums[1] / 6.0
+    m_h = sums[2] / 6.0 + c * area  # ∫h dA from the section's origin
+    return SectionSlices(area, m_s * cos - m_h * sin, m_s * sin + m_h * cos, sums[3],
+                         0.5 * sums[4], sums[5] / 3.0)
 
 
 def clip_sections_by_intersection(geom: HullGeometry, plane: Plane) -> SectionSlices:
