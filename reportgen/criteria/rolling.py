@@ -33,8 +33,16 @@ KG_D_RANGE = (-0.3, 0.5)
 ROLL_PERIOD_LIMIT_S = 20.0
 
 
-def _table(table: tuple[tuple[float, float], ...], x: float) -> float:
+def _columns(table: tuple[tuple[float, float], ...]) -> tuple[np.ndarray, np.ndarray]:
     arg, val = zip(*table, strict=True)
+    return np.array(arg, dtype=float), np.array(val, dtype=float)
+
+
+_COLUMNS = {id(t): _columns(t) for t in (X1_TABLE, X2_TABLE, K_TABLE, S_TABLE)}  # made once
+
+
+def _table(table: tuple[tuple[float, float], ...], x: float) -> float:
+    arg, val = _COLUMNS.get(id(table)) or _columns(table)
     return float(np.interp(x, arg, val))
 
 
