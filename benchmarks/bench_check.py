@@ -86,19 +86,28 @@ def _process_times(path: Path) -> tuple[float, float]:
 
 
 def _per_condition(cases: list, tables: dict) -> None:
-    """Each demo condition's evaluation (best of 3), its KG margin search and the rest apart:
-    a condition whose flooding angle is found on the hull offsets (no booklet table at its
-    trim) floats the hull at every heel, which no table lookup can match."""
-    from reportgen import limits, stages
+    """Each demo condition's evaluation (best of 3) and its stages apart: the upright stage
+    (loading, floating, angles; a condition whose flooding angle is found on the hull offsets,
+    no booklet table at its trim, floats the hull at heels up to the angles), the stage at
+    its KG, its KG margin search and the typed results. Nothing is kept between calls but
+    the vessel's tables and prepared hull (VesselData, one per vessel)."""
+    from reportgen import assemble, limits, stages
 
     for c in cases:
         vd = tables[id(c.vessel)]
         up = stages.upright(c, vd)
-        k = stages.at_kg(up, stages.kg_fluid_of(up)[1])
+        fsc, kg = stages.kg_fluid_of(up)
+        k = stages.at_kg(up, kg)
+        lim = limits.condition_limits(up, k)
         whole = min(_timed(lambda c=c, vd=vd: evaluate_with(c, vd)) for _ in range(3))
-        margin = min(_timed(lambda up=up, k=k: limits.condition_limits(up, k)) for _ in range(3))
+        parts = [min(_timed(fn) for _ in range(3)) * 1e3 for fn in (
+            lambda c=c, vd=vd: stages.upright(c, vd),
+            lambda up=up, kg=kg: stages.at_kg(up, kg),
+            lambda up=up, k=k: limits.condition_limits(up, k),
+            lambda up=up, k=k, fsc=fsc, lim=lim: assemble.results(up, k, fsc, lim))]
         print(f"  {c.condition_name}: {whole * 1e3:.1f} ms, of which the KG margin "
-              f"{margin * 1e3:.1f} ms")
+              f"{parts[2]:.1f} ms (upright {parts[0]:.1f}, at KG {parts[1]:.1f}, "
+              f"results {parts[3]:.1f})")
 
 
 def evaluate_with(case, vd) -> None:

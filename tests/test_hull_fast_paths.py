@@ -118,3 +118,27 @@ def test_immersion_angle_against_scipy_brentq(wigley):
 
     ref = brentq(gap, 1.0, 89.0, xtol=1e-8)
     assert got == pytest.approx(ref, abs=2e-4)  # immersion_angle's own xtol is 1e-4°
+
+
+def test_free_trim_newton_agrees_with_scipy_hybr(wigley):
+    # Reference: scipy.optimize.root (MINPACK hybrj) on the same residual and exact
+    # Jacobian, from the same start, on random heels, displacements and LCGs (a Wigley hull
+    # is fore-and-aft symmetric, so LCG off L/2 makes it trim).
+    from scipy.optimize import root
+
+    from reportgen.hull.equilibrium import _free_trim_residual, solve_draft, solve_free_trim
+
+    rng = np.random.default_rng(11)
+    for _ in range(8):
+        heel = rng.uniform(0.0, 70.0)
+        vol = 4 / 9 * 60.0 * 10.0 * 3.0 * rng.uniform(0.6, 1.2)
+        lcg = 30.0 + rng.uniform(-2.0, 2.0)
+        start = solve_draft(wigley, vol, heel, 0.0)
+        got = solve_free_trim(wigley, vol, heel, lcg, guess=start)
+        ref = root(_free_trim_residual(wigley, vol, heel, lcg), [start.d_m, start.slope * 60.0],
+                   jac=True, method="hybr", options={"xtol": 1e-12})
+        assert got.d_m == pytest.approx(ref.x[0], abs=1e-9)
+        assert got.slope * 60.0 == pytest.approx(ref.x[1], abs=1e-9)
+        e = equilibrium(wigley, vol, heel, lcg, guess=start)
+        assert e.volume_m3 == pytest.approx(vol, rel=1e-9)  # Archimedes
+        assert e.lcb_m == pytest.approx(lcg, abs=1e-6)  # xB on the vertical through G
