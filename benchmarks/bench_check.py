@@ -3,6 +3,12 @@
 time of the libraries it needs. Targets (issue "house in order"): 0.5 ms per condition,
 10 ms to read the files, 0.5 s for 1000 conditions, the process within 1.2 × the import time.
 
+What is kept between evaluations (so that "1000 conditions" measures 1000 evaluations, not a
+cache): only each vessel's arrays and prepared hull (VesselData, made once per vessel object,
+reportgen.vesseldata) and the criteria modules' lookup. Everything of a condition (loading,
+floating, the heel scan on the hull, the angles, every KG of the margin search, the results)
+is computed afresh at each call.
+
 Usage: python benchmarks/bench_check.py [CONDITION.yaml]   (default: conditions/*.yaml)
 """
 

@@ -98,7 +98,7 @@ def _free_trim_residual(geom: HullGeometry, volume_m3: float, heel_deg: float, l
     w, x = geom.weights, geom.x_m
     lever = (0.5 * lpp - x) / lpp
 
-    last: list = [None, None]  # the last (z, result): hybrj starts at the point just checked
+    last: list = [None, None]  # the last (z, result): a solve starts at the point just checked
 
     def fun(z: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         if last[0] is not None and np.array_equal(z, last[0]):
