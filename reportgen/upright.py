@@ -17,7 +17,7 @@ from reportgen import draughts as marks_rules
 from reportgen import extras as allowance_stage
 from reportgen import grain as grain_rules
 from reportgen import plausible
-from reportgen.criteria import core, rolling
+from reportgen.criteria import booklet, core, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.errors import InputError
 from reportgen.floating import Floating, floating_on_tables
@@ -56,6 +56,7 @@ class Upright:
     extras: allowance_stage.Extras = NO_EXTRAS  # timber, passengers, ice
     at_marks: dict[str, float] | None = None  # extreme draught at each mark, m
     survey: marks_rules.Survey | None = None  # the draughts read alongside, worked
+    booklet: booklet.Curve | None = None  # the booklet's limiting curve, when a set needs it
 
 
 def _floating(case: Case, vd: VesselData, loading: Loading) -> Floating:
@@ -278,5 +279,7 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
     at_marks, survey = _marks(case, vd, loading, fl)
     if survey is not None:
         warnings += marks_rules.survey_warnings(survey, c.condition.water_density)
+    curve_b = booklet.curve_of(v) if "booklet" in core.needs(sets) else None
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
-                   tuple(warnings), cargo, extras, at_marks=at_marks, survey=survey)
+                   tuple(warnings), cargo, extras, at_marks=at_marks, survey=survey,
+                   booklet=curve_b)
