@@ -134,7 +134,11 @@ class KNCurve:
     def _piece(self, heel_deg: float) -> tuple[int, float]:
         """The index of the piece PPoly evaluates at θ, and θ less its start (deg)."""
         b = self._breaks
-        i = min(max(bisect_right(b, heel_deg) - 1, 0), len(b) - 2)
+        i = bisect_right(b, heel_deg) - 1
+        if i < 0:
+            i = 0
+        elif i > len(b) - 2:
+            i = len(b) - 2
         return i, heel_deg - b[i]
 
 
