@@ -79,12 +79,15 @@ def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[KNCurve, float, list[
     return kn, cross.heel_max_deg, warnings
 
 
-def _hull_angle(case: Case, vd: VesselData, loading: Loading):
+def _hull_angle(case: Case, vd: VesselData, loading: Loading, fl: Floating):
     """The immersion finder on the hull offsets at the condition's equilibrium (free trim,
-    xB = LCG), or None without offsets."""
+    xB = LCG), or None without offsets. The upright waterplane is solved from the floating
+    position the tables give (`fl`) as a first guess."""
     geom = vd.hull
     if geom is None:
         return None
+    from reportgen.hull.equilibrium import equilibrium_plane
+    from reportgen.hull.hydrostatics import Plane
     from reportgen.hull.tables import Scan, immersion_angle
 
     rho = case.condition.condition.water_density
@@ -92,7 +95,11 @@ def _hull_angle(case: Case, vd: VesselData, loading: Loading):
     lcg = loading.totals.lcg
     heels = [float(h) for h in vd.cross.heel_deg] if vd.cross is not None else \
         [float(h) for h in range(0, 91, 5)]
-    scanned = Scan(geom, volume, lcg, heels)  # solved only as far as a search reads it
+    upright = None
+    if heels and heels[0] == 0.0:
+        guess = Plane.from_draft(fl.draughts.mid, fl.trim, 0.0, geom.length_bp_m)
+        upright = equilibrium_plane(geom, volume, 0.0, lcg, guess=guess)
+    scanned = Scan(geom, volume, lcg, heels, upright)  # solved as far as a search reads it
 
     def angle(points_xyz: np.ndarray) -> float:
         return immersion_angle(geom, points_xyz, volume, lcg, scanned)
@@ -125,7 +132,7 @@ def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating,
                       and (angle_rules.is_multi_trim(vd.flooding) or not v.openings))
     on_hull = finder is not None
     if not on_hull:
-        finder = _hull_angle(case, vd, loading) if needs_hull else None
+        finder = _hull_angle(case, vd, loading, fl) if needs_hull else None
     s = angle_rules.Situation(fl.displacement_table_t, fl.trim, fl.draughts.mid, finder)
     deck_points = None
     if finder is not None and vd.hull is not None:  # the hull is made only when needed
