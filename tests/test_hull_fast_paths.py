@@ -142,3 +142,23 @@ def test_free_trim_newton_agrees_with_scipy_hybr(wigley):
         e = equilibrium(wigley, vol, heel, lcg, guess=start)
         assert e.volume_m3 == pytest.approx(vol, rel=1e-9)  # Archimedes
         assert e.lcb_m == pytest.approx(lcg, abs=1e-6)  # xB on the vertical through G
+
+
+def test_a_port_and_starboard_pair_of_openings_shares_one_search():
+    # SPEC.md: openings are taken at |y| on the immersing side, so a pair at (x, ±y, z) is one
+    # point to the hull search; each still gets its angle, and the first listed governs.
+    from reportgen.angles import Opening, Situation, flooding_angle
+
+    searched = []
+
+    def finder(points: np.ndarray) -> float:
+        searched.append(points.tolist())
+        return 40.0 + points[0, 2]  # any function of the point: higher, later
+
+    pair = [Opening("vent (S)", 12.0, 4.0, 8.2), Opening("vent (P)", 12.0, -4.0, 8.2),
+            Opening("door", 30.0, 3.0, 6.0)]
+    angle, warnings = flooding_angle(None, Situation(1000.0, 0.1, 3.0, finder), pair, 60.0)
+    assert searched == [[[12.0, 4.0, 8.2]], [[30.0, 3.0, 6.0]]]
+    assert angle.deg == 46.0 and angle.opening == "door" and warnings == []
+    angle, _ = flooding_angle(None, Situation(1000.0, 0.1, 3.0, finder), pair[:2], 60.0)
+    assert angle.deg == 48.2 and angle.opening == "vent (S)"
