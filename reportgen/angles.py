@@ -164,7 +164,14 @@ def flooding_angle(table: AngleTable | None, s: Situation, openings: Sequence[Op
         return Angle(from_table(table, s.displacement_table_t, s.trim_m, what), "table_trims",
                      s.trim_m, name, None if gov is None else (gov.x, gov.y, gov.z)), []
     if openings and s.hull_angle is not None:
-        per = [s.hull_angle(opening_points([o])) for o in openings]
+        # Openings at the same (x, |y|, z), a pair port and starboard, share one search.
+        found: dict[tuple[float, float, float], float] = {}
+        per = []
+        for o in openings:
+            key = (o.x, abs(o.y), o.z)
+            if key not in found:
+                found[key] = s.hull_angle(opening_points([o]))
+            per.append(found[key])
         i = int(np.argmin(per))
         gov = openings[i]
         warnings = [f"The opening {o.name} is at or below the waterline upright: θf is 0°."

@@ -2,7 +2,8 @@
 
 from __future__ import annotations
 
-from dataclasses import asdict
+from dataclasses import fields
+from functools import cache
 
 from reportgen import NAME, __version__
 from reportgen import draughts as marks_rules
@@ -26,6 +27,17 @@ def attachment_names(condition_name: str, vessel_name: str) -> tuple[str, str]:
     return condition_name, vessel_name
 
 
+@cache
+def _field_names(cls: type) -> tuple[str, ...]:
+    return tuple(f.name for f in fields(cls))
+
+
+def flat(obj: object) -> dict:
+    """A dataclass of plain values as a dict, field by field (dataclasses.asdict without its
+    deep copy: the loading lines and grain loads hold only numbers, strings and None)."""
+    return {name: getattr(obj, name) for name in _field_names(type(obj))}
+
+
 def condition_section(case: Case) -> dict:
     c = case.condition
     sig = c.signatories
@@ -45,8 +57,8 @@ def loading_section(up: Upright) -> dict:
     t = up.loading.totals
     return {"lightship": t.lightship, "deadweight": t.deadweight.mass,
             "displacement": t.displacement, "lcg": t.lcg, "vcg": t.vcg, "tcg": t.tcg,
-            "fsm": t.fsm, "deadweight_centre": asdict(t.deadweight),
-            "lines": [asdict(ln) for ln in up.loading.lines]}
+            "fsm": t.fsm, "deadweight_centre": flat(t.deadweight),
+            "lines": [flat(ln) for ln in up.loading.lines]}
 
 
 def hydrostatics_section(up: Upright, k: AtKG, fsc: float) -> dict:
@@ -113,7 +125,7 @@ def grain_section(up: Upright, k: AtKG) -> dict | None:
             "residual_to": g.residual_to_deg, "allowable_moment": allowable,
             "heel_limit": g.heel_limit_deg, "residual_to_reason": g.residual_to_reason,
             "moment_margin": None if allowable is None else allowable - cargo.heeling_moment,
-            "compartments": [asdict(x) for x in cargo.loads]}
+            "compartments": [flat(x) for x in cargo.loads]}
 
 
 def criterion(c: Check) -> dict:

@@ -89,13 +89,14 @@ def check_in_range(value: float, column: np.ndarray, what: str, unit: str = "t")
                          f"extrapolated")
 
 
-def _row_values(table: HydroTable, k: int, disp_t: float) -> dict[str, float | None]:
-    """Every column at Δ_t in trim row k, linear in displacement."""
+def _row_values(table: HydroTable, k: int, disp_t: float,
+                names: tuple[str, ...] = COLUMNS) -> dict[str, float | None]:
+    """Every column (or those named) at Δ_t in trim row k, linear in displacement."""
     xp = table.displacement[k]
     check_in_range(disp_t, xp, "hydrostatic table" + (
         "" if table.trims is None else f" at trim {table.trims[k]:g} m"))
     out: dict[str, float | None] = {}
-    for name in COLUMNS:
+    for name in names:
         col = getattr(table, name)
         out[name] = None if col is None else float(np.interp(disp_t, xp, col[k]))
     return out
@@ -108,19 +109,23 @@ def _blend(a: dict, b: dict, w: float) -> dict:
 def float_trimmed(table: HydroTable, disp_t: float, lcg_m: float) -> tuple[float, dict]:
     """(trim m, columns) at which LCB = LCG, between the table's trims (linear in trim)."""
     trims = table.trims
-    rows = [_row_values(table, k, disp_t) for k in range(len(trims))]
-    f = np.array([r["lcb"] for r in rows]) - lcg_m  # LCB − LCG at each trim
+    lcb = [_row_values(table, k, disp_t, ("lcb",))["lcb"] for k in range(len(trims))]
+    f = np.array(lcb) - lcg_m  # LCB − LCG at each trim
+
+    def row(k: int) -> dict:  # every column, only at the trims the answer is made from
+        return _row_values(table, k, disp_t)
+
     for k in range(len(trims) - 1):
         if f[k] == 0.0:
-            return float(trims[k]), rows[k]
+            return float(trims[k]), row(k)
         if f[k] * f[k + 1] <= 0.0:
             w = f[k] / (f[k] - f[k + 1])
-            return float(trims[k] + w * (trims[k + 1] - trims[k])), _blend(rows[k], rows[k + 1], w)
+            return float(trims[k] + w * (trims[k + 1] - trims[k])), _blend(row(k), row(k + 1), w)
     if f[-1] == 0.0:
-        return float(trims[-1]), rows[-1]
+        return float(trims[-1]), row(len(trims) - 1)
     # Outside: estimate how far, from the MCT of the nearest end, to say so.
     end = 0 if abs(f[0]) < abs(f[-1]) else -1
-    est = trims[end] + (disp_t * f[end]) / (100.0 * rows[end]["mct"])
+    est = trims[end] + (disp_t * f[end]) / (100.0 * row(end % len(trims))["mct"])
     raise InputError(f"the condition trims about {est:+.2f} m (LCG {lcg_m:.3f} m), outside the "
                      f"hydrostatic table's trims {trims[0]:g} to {trims[-1]:g} m; the tables "
                      f"are not extrapolated")

@@ -94,7 +94,8 @@ def arm_area_mrad(lambda0: float, start_deg: float, end_deg: float) -> float:
 
 
 def _difference(curve: GZCurve, lambda0: float):
-    return lambda h: float(curve(h)) - float(heeling_arm_m(lambda0, h))
+    """GZ − λ at one heel (deg), in floats (the curve's own cubic piece, GZCurve.local)."""
+    return lambda h: curve.local(h)[0] - float(heeling_arm_m(lambda0, h))
 
 
 def heel_angle_deg(curve: GZCurve, lambda0: float) -> float | None:

@@ -134,7 +134,11 @@ class KNCurve:
     def _piece(self, heel_deg: float) -> tuple[int, float]:
         """The index of the piece PPoly evaluates at θ, and θ less its start (deg)."""
         b = self._breaks
-        i = min(max(bisect_right(b, heel_deg) - 1, 0), len(b) - 2)
+        i = bisect_right(b, heel_deg) - 1
+        if i < 0:
+            i = 0
+        elif i > len(b) - 2:
+            i = len(b) - 2
         return i, heel_deg - b[i]
 
 
@@ -209,10 +213,12 @@ def area_mrad(curve: GZCurve, start_deg: float, end_deg: float, level_m: float =
 def on_grid(curve: GZCurve, start_deg: float, end_deg: float) -> tuple[np.ndarray, np.ndarray]:
     """(heel deg, GZ m) at start, at the grid points strictly between, and at end."""
     gh, gv = curve.grid
-    lo, hi = np.searchsorted(gh, start_deg, "right"), np.searchsorted(gh, end_deg, "left")
-    heel = np.concatenate([[start_deg], gh[lo:hi], [end_deg]])
-    return heel, np.concatenate([[curve.local(start_deg)[0]], gv[lo:hi],
-                                 [curve.local(end_deg)[0]]])
+    lo = int(gh.searchsorted(start_deg, "right"))
+    n = max(int(gh.searchsorted(end_deg, "left")) - lo, 0)
+    heel, gz = np.empty(n + 2), np.empty(n + 2)
+    heel[0], heel[1:-1], heel[-1] = start_deg, gh[lo:lo + n], end_deg
+    gz[0], gz[1:-1], gz[-1] = curve.local(start_deg)[0], gv[lo:lo + n], curve.local(end_deg)[0]
+    return heel, gz
 
 
 def _newton_root(curve: GZCurve, x: float, lo: float, hi: float, level_m: float) -> float:

@@ -86,12 +86,11 @@ def checked(up: Upright, kg_fluid_m: float) -> Checked:
             side_curve, grain_rules.lambda0_m(up.grain.heeling_moment,
                                               up.loading.totals.displacement),
             flooding, up.angles.deck_edge.deg)
-    curve_b = booklet.curve_of(up.case.vessel) if "booklet" in core.needs(up.sets) else None
     pax = None
     if up.extras.passengers is not None and up.case.vessel.particulars.service_speed:
         pax = _passenger_heel(up, kg_fluid_m, side_curve)
     state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx,
-                  grain, kg_fluid_m, up.loading.totals.displacement, curve_b, pax)
+                  grain, kg_fluid_m, up.loading.totals.displacement, up.booklet, pax)
     return Checked(kg_fluid_m, gm, curve, side_curve, state, wx, core.run(up.sets, state))
 
 

@@ -17,7 +17,7 @@ from reportgen import draughts as marks_rules
 from reportgen import extras as allowance_stage
 from reportgen import grain as grain_rules
 from reportgen import plausible
-from reportgen.criteria import core, rolling
+from reportgen.criteria import booklet, core, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.errors import InputError
 from reportgen.floating import Floating, floating_on_tables
@@ -56,6 +56,7 @@ class Upright:
     extras: allowance_stage.Extras = NO_EXTRAS  # timber, passengers, ice
     at_marks: dict[str, float] | None = None  # extreme draught at each mark, m
     survey: marks_rules.Survey | None = None  # the draughts read alongside, worked
+    booklet: booklet.Curve | None = None  # the booklet's limiting curve, when a set needs it
 
 
 def _floating(case: Case, vd: VesselData, loading: Loading) -> Floating:
@@ -78,20 +79,27 @@ def _kn(case: Case, vd: VesselData, fl: Floating) -> tuple[KNCurve, float, list[
     return kn, cross.heel_max_deg, warnings
 
 
-def _hull_angle(case: Case, vd: VesselData, loading: Loading):
+def _hull_angle(case: Case, vd: VesselData, loading: Loading, fl: Floating):
     """The immersion finder on the hull offsets at the condition's equilibrium (free trim,
-    xB = LCG), or None without offsets."""
+    xB = LCG), or None without offsets. The upright waterplane is solved from the floating
+    position the tables give (`fl`) as a first guess."""
     geom = vd.hull
     if geom is None:
         return None
-    from reportgen.hull.tables import heel_scan, immersion_angle
+    from reportgen.hull.equilibrium import equilibrium_plane
+    from reportgen.hull.hydrostatics import Plane
+    from reportgen.hull.tables import Scan, immersion_angle
 
     rho = case.condition.condition.water_density
     volume = loading.totals.displacement / rho
     lcg = loading.totals.lcg
     heels = [float(h) for h in vd.cross.heel_deg] if vd.cross is not None else \
         [float(h) for h in range(0, 91, 5)]
-    scanned = heel_scan(geom, volume, lcg, heels)
+    upright = None
+    if heels and heels[0] == 0.0:
+        guess = Plane.from_draft(fl.draughts.mid, fl.trim, 0.0, geom.length_bp_m)
+        upright = equilibrium_plane(geom, volume, 0.0, lcg, guess=guess)
+    scanned = Scan(geom, volume, lcg, heels, upright)  # solved as far as a search reads it
 
     def angle(points_xyz: np.ndarray) -> float:
         return immersion_angle(geom, points_xyz, volume, lcg, scanned)
@@ -124,7 +132,7 @@ def _angles(case: Case, vd: VesselData, loading: Loading, fl: Floating,
                       and (angle_rules.is_multi_trim(vd.flooding) or not v.openings))
     on_hull = finder is not None
     if not on_hull:
-        finder = _hull_angle(case, vd, loading) if needs_hull else None
+        finder = _hull_angle(case, vd, loading, fl) if needs_hull else None
     s = angle_rules.Situation(fl.displacement_table_t, fl.trim, fl.draughts.mid, finder)
     deck_points = None
     if finder is not None and vd.hull is not None:  # the hull is made only when needed
@@ -278,5 +286,7 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
     at_marks, survey = _marks(case, vd, loading, fl)
     if survey is not None:
         warnings += marks_rules.survey_warnings(survey, c.condition.water_density)
+    curve_b = booklet.curve_of(v) if "booklet" in core.needs(sets) else None
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
-                   tuple(warnings), cargo, extras, at_marks=at_marks, survey=survey)
+                   tuple(warnings), cargo, extras, at_marks=at_marks, survey=survey,
+                   booklet=curve_b)

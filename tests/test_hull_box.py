@@ -89,7 +89,7 @@ def test_box_kn_at_90_degrees(box):
 
 @pytest.mark.parametrize("heel", [0.0, 20.0, 47.0, 75.0])
 def test_fast_clip_matches_shapely_intersection(box, heel):
-    # Reference library: shapely.intersection (GEOS overlay) against the clip_by_rect path.
+    # Reference library: shapely.intersection (GEOS overlay) against the numpy edge cut.
     p = Plane.from_draft(4.0, 0.7, heel, L) if heel < 90 else Plane(2.0, 0.01, heel)
     a, b = clip_sections(box, p), clip_sections_by_intersection(box, p)
     for f in ("area_m2", "my_m3", "mz_m3", "breadth_m", "s1_m2", "s2_m3"):

@@ -171,3 +171,20 @@ def test_kn_pieces_in_floats_equal_scipys_spline_and_its_derivatives():
         assert slope == pytest.approx(float(d1(h)), abs=1e-12)
         assert curvature == pytest.approx(float(d2(h)), abs=1e-12)
         assert kn.integral_at(h) == pytest.approx(float(anti(h)), abs=1e-10)
+
+
+def test_on_grid_is_the_curve_at_its_ends_and_grid_points_between():
+    # Reference: scipy's PPoly evaluation of the same curve (GZCurve.__call__) at the heels
+    # on_grid returns, which must be the two ends and the 0.25° grid strictly between them.
+    from reportgen.stability import GRID_STEP_DEG, on_grid
+
+    cc = _cross(lambda h: 8.0 * math.sin(math.radians(h)) + 0.3 * math.sin(math.radians(2 * h)))
+    curve = gz_of(cc, 2000.0, 7.2, 0.05)
+    for start, end in ((0.0, 80.0), (3.1, 41.7), (30.0, 30.1), (12.0, 12.0), (-7.3, 2.5)):
+        heel, gz = on_grid(curve, start, end)
+        inner = heel[1:-1]
+        assert heel[0] == start and heel[-1] == end
+        assert np.all((inner > start) & (inner < end))
+        assert np.allclose(np.diff(inner), GRID_STEP_DEG)
+        assert len(inner) == sum(start < g < end for g in curve.grid[0])
+        np.testing.assert_allclose(gz, curve(heel), rtol=0, atol=1e-12)

@@ -7,6 +7,7 @@ passed, source paragraph). The sets are listed, as data, in reportgen.criteria.s
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cache
 from importlib import import_module
 from typing import TYPE_CHECKING, Any, Literal
 
@@ -93,5 +94,11 @@ def run(set_ids: list[str], state: State) -> list[Check]:
         info = SETS.get(sid)
         if info is None:
             raise InputError(f"criteria: unknown criteria set {sid!r}; known: {', '.join(SETS)}")
-        out.extend(import_module(info.module).checks(state))
+        out.extend(_module(info.module).checks(state))
     return out
+
+
+@cache
+def _module(name: str) -> Any:
+    """The criteria module of a set, imported once (run is called at every KG of a search)."""
+    return import_module(name)

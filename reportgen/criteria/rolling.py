@@ -33,19 +33,27 @@ KG_D_RANGE = (-0.3, 0.5)
 ROLL_PERIOD_LIMIT_S = 20.0
 
 
-def _table(table: tuple[tuple[float, float], ...], x: float) -> float:
+def _columns(table: tuple[tuple[float, float], ...]) -> tuple[np.ndarray, np.ndarray]:
+    """(arguments, factors) of a table as arrays (made once, at import)."""
     arg, val = zip(*table, strict=True)
-    return float(np.interp(x, arg, val))
+    return np.array(arg, dtype=float), np.array(val, dtype=float)
+
+
+_X1, _X2, _K, _S = (_columns(t) for t in (X1_TABLE, X2_TABLE, K_TABLE, S_TABLE))
+
+
+def _table(columns: tuple[np.ndarray, np.ndarray], x: float) -> float:
+    return float(np.interp(x, *columns))
 
 
 def factor_x1(b_over_d: float) -> float:
     """X1 by B/d, IS Code 2008 2.3.4 table 2.3.4-1."""
-    return _table(X1_TABLE, b_over_d)
+    return _table(_X1, b_over_d)
 
 
 def factor_x2(cb: float) -> float:
     """X2 by the block coefficient CB, IS Code 2008 2.3.4 table 2.3.4-2."""
-    return _table(X2_TABLE, cb)
+    return _table(_X2, cb)
 
 
 def factor_k(bilge: str, bilge_keel_area_m2: float, lwl_m: float, breadth_m: float) -> float:
@@ -55,12 +63,12 @@ def factor_k(bilge: str, bilge_keel_area_m2: float, lwl_m: float, breadth_m: flo
         return K_SHARP_BILGE
     if bilge_keel_area_m2 <= 0.0:
         return K_NO_KEELS
-    return _table(K_TABLE, bilge_keel_area_m2 * 100.0 / (lwl_m * breadth_m))
+    return _table(_K, bilge_keel_area_m2 * 100.0 / (lwl_m * breadth_m))
 
 
 def factor_s(roll_period_s: float) -> float:
     """s by the rolling period T (s), IS Code 2008 2.3.4 table 2.3.4-4."""
-    return _table(S_TABLE, roll_period_s)
+    return _table(_S, roll_period_s)
 
 
 def factor_r(og_m: float, draft_m: float) -> float:

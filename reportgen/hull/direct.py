@@ -67,7 +67,7 @@ def on_hull(geom: HullGeometry, displacement_t: float, water_density: float, lcg
     kn = odd_spline(np.asarray(heels), np.array([e.kn_m for e in states]))
 
     def immersion(points_xyz: np.ndarray) -> float:
-        return immersion_angle(geom, points_xyz, volume, lcg_m, list(states))
+        return immersion_angle(geom, points_xyz, volume, lcg_m, [e.plane for e in states])
 
     return OnHull(fl, kn, heels[-1], states, immersion)
 

@@ -98,7 +98,11 @@ def _free_trim_residual(geom: HullGeometry, volume_m3: float, heel_deg: float, l
     w, x = geom.weights, geom.x_m
     lever = (0.5 * lpp - x) / lpp
 
+    last: list = [None, None]  # the last (z, result): a solve starts at the point just checked
+
     def fun(z: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        if last[0] is not None and np.array_equal(z, last[0]):
+            return last[1]
         plane = Plane(float(z[0]), float(z[1]) / lpp, heel_deg)
         sl = clip_sections(geom, plane)
         a, b = sl.area_m2, sl.breadth_m
@@ -108,6 +112,7 @@ def _free_trim_residual(geom: HullGeometry, volume_m3: float, heel_deg: float, l
         dv = np.array([w @ b, w @ (b * lever)])
         dmx = np.array([w @ (b * x), w @ (b * x * lever)])
         jac = np.vstack([dv / volume_m3, (dmx - lcg_m * dv) / (volume_m3 * lpp)])
+        last[0], last[1] = np.array(z, dtype=float), (f, jac)
         return f, jac
 
     return fun
@@ -117,12 +122,36 @@ def _converged(f: np.ndarray, lpp: float) -> bool:
     return abs(f[0]) < 10 * _VOL_RTOL and abs(f[1]) * lpp < _LCB_TOL_M
 
 
+NEWTON_MAX_STEPS = 8
+
+
+def _newton(fun, z0: np.ndarray, lpp: float) -> np.ndarray | None:
+    """Newton's method on the free-trim residual from z0 with its exact Jacobian, stopped
+    once converged and the step has fallen to hybrj's own tolerance (1e-10 of z); None when
+    it does not get there in NEWTON_MAX_STEPS (hybrj is then run from z0)."""
+    z = z0
+    for _ in range(NEWTON_MAX_STEPS):
+        f, jac = fun(z)
+        try:
+            step = np.linalg.solve(jac, f)
+        except np.linalg.LinAlgError:
+            return None
+        if not np.all(np.isfinite(step)):
+            return None
+        z = z - step
+        if _converged(f, lpp) and np.all(np.abs(step) <= 1e-10 * (np.abs(z) + 1e-10)):
+            return z
+    return None
+
+
 def solve_free_trim(geom: HullGeometry, volume_m3: float, heel_deg: float, lcg_m: float,
                     guess: Plane | None = None) -> Plane:
     """The plane at heel `heel_deg` immersing `volume_m3` with xB = `lcg_m`.
 
-    scipy.optimize.root (MINPACK hybrj) with the exact Jacobian from the waterline
-    breadths; if it does not converge, a nested brentq (trim outside, draught inside).
+    Newton's method with the exact Jacobian from the waterline breadths (from a nearby
+    guess it converges in two or three steps); where it does not, scipy.optimize.root
+    (MINPACK hybrj) with the same Jacobian; where neither converges, a nested brentq (trim
+    outside, draught inside).
     """
     lpp = geom.length_bp_m
     if guess is None:
@@ -131,6 +160,9 @@ def solve_free_trim(geom: HullGeometry, volume_m3: float, heel_deg: float, lcg_m
     z0 = np.array([guess.d_m, guess.slope * lpp])
     if _converged(fun(z0)[0], lpp):
         return Plane(guess.d_m, guess.slope, heel_deg)
+    z = _newton(fun, z0, lpp)
+    if z is not None:
+        return Plane(float(z[0]), float(z[1]) / lpp, heel_deg)
     sol = root(fun, z0, jac=True, method="hybr",
                options={"xtol": 1e-10})
     # Accept on the residual itself: hybrj reports "not making good progress" when it
@@ -162,13 +194,18 @@ def _free_trim_nested(geom: HullGeometry, volume_m3: float, heel_deg: float, lcg
     return solve_draft(geom, volume_m3, heel_deg, tau / lpp)
 
 
+def equilibrium_plane(geom: HullGeometry, volume_m3: float, heel_deg: float,
+                      lcg_m: float | None = None, guess: Plane | None = None) -> Plane:
+    """The equilibrium waterplane at heel alone (as `equilibrium`, without integrating the
+    centre of buoyancy there)."""
+    if lcg_m is None:
+        return solve_draft(geom, volume_m3, heel_deg, 0.0)
+    g = None if guess is None else Plane(guess.d_m, guess.slope, heel_deg)
+    return solve_free_trim(geom, volume_m3, heel_deg, lcg_m, g)
+
+
 def equilibrium(geom: HullGeometry, volume_m3: float, heel_deg: float,
                 lcg_m: float | None = None, guess: Plane | None = None) -> Equilibrium:
     """Equilibrium at heel: even keel (slope 0) when `lcg_m` is None, else free trim with
     xB = lcg_m. `guess` (a nearby plane at any heel) speeds up the free-trim solve."""
-    if lcg_m is None:
-        plane = solve_draft(geom, volume_m3, heel_deg, 0.0)
-    else:
-        g = None if guess is None else Plane(guess.d_m, guess.slope, heel_deg)
-        plane = solve_free_trim(geom, volume_m3, heel_deg, lcg_m, g)
-    return _state(geom, plane)
+    return _state(geom, equilibrium_plane(geom, volume_m3, heel_deg, lcg_m, guess))

@@ -14,9 +14,9 @@ draught at midships on the centreline is d/cosθ and the trim is slope·Lpp/cos�
 (d, slope) form stays regular up to 90° of heel, where the centreline heights do not. Heel
 is the angle of the waterline in the transverse section (the convention of cross curves).
 
-Sections are clipped by shapely (one vectorised call per waterplane for the immersed
-areas, one for the waterline breadths) and integrated along x with Simpson's rule
-(scipy.integrate.simpson, which also takes uneven spacing).
+Sections are cut at the waterline edge by edge with numpy, all stations at once (Green's
+theorem, clip_sections; shapely's overlay is the reference), and integrated along x with
+Simpson's rule (scipy.integrate.simpson, which also takes uneven spacing).
 """
 
 from __future__ import annotations
@@ -26,6 +26,7 @@ from dataclasses import dataclass
 import numpy as np
 import shapely
 from scipy.integrate import simpson
+from shapely.geometry.polygon import orient
 
 from reportgen.hull.sections import Hull
 
@@ -73,8 +74,10 @@ class HullGeometry:
     deck_edge_yz: (n, 2) starboard deck-edge point (last offset) of each station, m.
     keel_z_m: height of each station's lowest offset point (the keel profile), m.
     vertices: each section's exterior ring, (k, 2) arrays of (y, z), m.
-    coords_yz, coords_index: all section coordinates as shapely.get_coordinates gives them,
-    and the station of each.
+    coords_yz, coords_index: the coordinates of every section ring (closed, anticlockwise
+    about the part it bounds), and the station of each.
+    edges_yz: every ring edge as a column (y0, z0, y1, z1), by station; edge_station: the
+    station of each edge.
     """
 
     x_m: np.ndarray
@@ -87,6 +90,8 @@ class HullGeometry:
     vertices: tuple[np.ndarray, ...]
     coords_yz: np.ndarray
     coords_index: np.ndarray
+    edges_yz: np.ndarray
+    edge_station: np.ndarray
 
 
 def simpson_weights(x_m: np.ndarray) -> np.ndarray:
@@ -106,7 +111,12 @@ def prepare_hull(hull: Hull, length_bp_m: float) -> HullGeometry:
     )
     allpts = np.vstack([v for v in verts if len(v)] or [np.zeros((1, 2))])
     size = 4.0 * (float(np.max(np.abs(allpts))) + float(np.ptp(hull.x_m)) + 1.0)
-    coords, index = shapely.get_coordinates(sections, return_index=True)
+    # Every ring anticlockwise about the part it bounds (holes clockwise), for clip_sections.
+    oriented = np.array([s if s.is_empty else orient(s, 1.0) for s in hull.sections],
+                        dtype=object)
+    rings, ring_station = shapely.get_rings(oriented, return_index=True)
+    coords, ring_of = shapely.get_coordinates(rings, return_index=True)
+    edge_start = np.flatnonzero(ring_of[1:] == ring_of[:-1])  # a point and the next
     return HullGeometry(
         x_m=np.asarray(hull.x_m, dtype=float),
         sections=sections,
@@ -117,7 +127,9 @@ def prepare_hull(hull: Hull, length_bp_m: float) -> HullGeometry:
         keel_z_m=np.array([float(np.min(p[:, 1])) for p in hull.half_points]),
         vertices=verts,
         coords_yz=coords,
-        coords_index=index,
+        coords_index=ring_station[ring_of],
+        edges_yz=np.vstack([coords[edge_start].T, coords[edge_start + 1].T]),
+        edge_station=ring_station[ring_of[edge_start]],
     )
 
 
@@ -152,51 +164,60 @@ class SectionSlices:
 
 
 def clip_sections(geom: HullGeometry, plane: Plane) -> SectionSlices:
-    """Immersed part of every section and its waterline breadth.
+    """Immersed part of every section and its waterline breadth, all stations at once.
 
-    All sections of the waterplane are clipped in one vectorised shapely call: the section
-    coordinates are taken to waterline axes (s along the waterline, h along its upward
-    normal, h measured from each station's own waterline) with shapely.set_coordinates, and
-    shapely.clip_by_rect keeps h <= 0. Areas and centroids come from shapely.area and
-    shapely.centroid (also vectorised); the waterline of a section is the part of the
-    clipped boundary lying on h = 0. clip_by_rect is GEOS's rectangle clipper, several
-    times faster than the general overlay (clip_sections_by_intersection, which the tests
-    use as the reference).
+    The section edges are taken to waterline axes (s along the waterline, h along its
+    upward normal, h measured from each station's own waterline) and each edge is cut at
+    h = 0, keeping its part below. By Green's theorem over the boundary of the immersed part
+    (the kept edge parts and the waterline, on which h = 0), the area and its first moments
+    are sums over the kept parts alone of the polygon (shoelace) terms
+    A = ½Σ(s₀h₁ − s₁h₀), ∫s dA = ⅙Σ(s₀ + s₁)(s₀h₁ − s₁h₀), ∫h dA = ⅙Σ(h₀ + h₁)(s₀h₁ − s₁h₀)
+    (the terms of an edge on h = 0 vanish); and since ∮ds, ∮s ds and ∮s² ds vanish round a
+    closed boundary, the waterline's length b = ∫ds, ∫s ds and ∫s² ds are the sums of
+    Δs, Δ(s²)/2 and Δ(s³)/3 over the kept parts that are not themselves on the waterline
+    (the rings run anticlockwise, as prepare_hull orients them). Shoelace and centroid of a
+    polygon: e.g. P. Bourke, "Calculating the area and centroid of a polygon" (1988);
+    Green's theorem: any calculus text. clip_sections_by_intersection, shapely's general
+    overlay, is the reference the tests hold this to.
     """
-    u, n = _axes(plane.heel_deg)
+    t = np.radians(plane.heel_deg)
+    cos, sin = float(np.cos(t)), float(np.sin(t))  # u = (cos, sin), n = (-sin, cos)
     c = plane_height(geom, plane)
-    r = geom.size_m
-    coords = geom.coords_yz @ np.column_stack([u, n])
-    coords[:, 1] -= c[geom.coords_index]
-    moved = shapely.set_coordinates(geom.sections.copy(), coords)
-    clipped = shapely.clip_by_rect(moved, -r, -r, r, 0.0)
-    area = shapely.area(clipped)
-    my = np.zeros_like(area)
-    mz = np.zeros_like(area)
-    full = area > 0.0
-    if np.any(full):
-        cen = shapely.get_coordinates(shapely.centroid(clipped[full]))
-        s_c, h_c = cen[:, 0], cen[:, 1] + c[full]
-        my[full] = area[full] * (s_c * u[0] + h_c * n[0])
-        mz[full] = area[full] * (s_c * u[1] + h_c * n[1])
-
-    breadth = np.zeros_like(area)
-    s1 = np.zeros_like(area)
-    s2 = np.zeros_like(area)
-    rings, ring_geom = shapely.get_rings(clipped, return_index=True)
-    if len(rings):
-        pts, ring_of = shapely.get_coordinates(rings, return_index=True)
-        same = ring_of[1:] == ring_of[:-1]
-        tol = 1e-9 * r
-        on_cut = (np.abs(pts[1:, 1]) < tol) & (np.abs(pts[:-1, 1]) < tol) & same
-        if np.any(on_cut):
-            a, b = pts[:-1, 0][on_cut], pts[1:, 0][on_cut]
-            lo, hi = np.minimum(a, b), np.maximum(a, b)
-            idx = ring_geom[ring_of[1:][on_cut]]
-            np.add.at(breadth, idx, hi - lo)
-            np.add.at(s1, idx, 0.5 * (hi**2 - lo**2))
-            np.add.at(s2, idx, (hi**3 - lo**3) / 3.0)
-    return SectionSlices(area, my, mz, breadth, s1, s2)
+    rot = np.array([[cos, sin, 0.0, 0.0], [-sin, cos, 0.0, 0.0],
+                    [0.0, 0.0, cos, sin], [0.0, 0.0, -sin, cos]])
+    q = rot @ geom.edges_yz  # rows s0, h0, s1, h1 of every edge, h from the station's origin
+    ce = c[geom.edge_station]
+    h0, h1 = q[1] - ce, q[3] - ce
+    below0, below1 = h0 <= 0.0, h1 <= 0.0
+    k = np.flatnonzero(below0 | below1)  # the edges with a part below the waterline
+    s0, s1, h0, h1 = q[0, k], q[2, k], h0[k], h1[k]
+    for ok, s_end, h_end in ((below0[k], s0, h0), (below1[k], s1, h1)):
+        x = np.flatnonzero(~ok)  # an edge crossing the waterline ends there (h = 0)
+        s_end[x] = s0[x] + h0[x] / (h0[x] - h1[x]) * (s1[x] - s0[x])
+        h_end[x] = 0.0
+    tol = 1e-9 * geom.size_m
+    ds = np.where(np.minimum(h0, h1) <= -tol, s1 - s0, 0.0)  # 0 on the waterline itself
+    terms = np.empty((6, len(k)))
+    cross = np.multiply(s0, h1, out=terms[0])
+    cross -= s1 * h0
+    np.multiply(s0 + s1, cross, out=terms[1])
+    np.multiply(h0 + h1, cross, out=terms[2])
+    terms[3] = ds
+    np.multiply(ds, s0 + s1, out=terms[4])
+    np.multiply(ds, s0 * s0 + s0 * s1 + s1 * s1, out=terms[5])
+    sums = np.zeros((6, len(geom.x_m)))
+    if len(k):
+        st = geom.edge_station[k]
+        first = np.empty(len(k), dtype=bool)
+        first[0] = True
+        np.not_equal(st[1:], st[:-1], out=first[1:])
+        at = np.flatnonzero(first)
+        sums[:, st[at]] = np.add.reduceat(terms, at, axis=1)
+    area = 0.5 * sums[0]
+    m_s = sums[1] / 6.0
+    m_h = sums[2] / 6.0 + c * area  # ∫h dA from the section's origin
+    return SectionSlices(area, m_s * cos - m_h * sin, m_s * sin + m_h * cos, sums[3],
+                         0.5 * sums[4], sums[5] / 3.0)
 
 
 def clip_sections_by_intersection(geom: HullGeometry, plane: Plane) -> SectionSlices:

@@ -13,7 +13,13 @@ from typing import Any
 import numpy as np
 from scipy.optimize import brentq
 
-from reportgen.hull.equilibrium import Equilibrium, equilibrium, solve_draft
+from reportgen.hull.equilibrium import (
+    Equilibrium,
+    _state,
+    equilibrium,
+    equilibrium_plane,
+    solve_draft,
+)
 from reportgen.hull.hydrostatics import (
     HullGeometry,
     Plane,
@@ -111,41 +117,39 @@ def immersion_angle(
     points_xyz: np.ndarray,
     volume_m3: float,
     lcg_m: float | None,
-    scanned: Sequence[Equilibrium],
+    scanned: Sequence[Plane],
 ) -> float:
     """Least heel, deg, at which any of the points reaches the equilibrium waterplane.
 
-    `scanned`: equilibria at increasing heels (the cross-curve heels) of this displacement.
-    The first scanned heel at which a point is immersed brackets the angle with the one
-    before; brentq on the heel then finds it, solving the equilibrium (free trim with xB =
-    lcg_m, or even keel when lcg_m is None) at every trial heel. A point immersed already
-    at the first heel gives that heel; one never immersed up to the last scanned heel gives
-    that heel (90° for the default scan), the end of the range the tables cover.
+    `scanned`: the equilibrium waterplanes at increasing heels (the cross-curve heels) of
+    this displacement, a list or a `Scan` that solves them only as they are read. The first
+    scanned heel at which a point is immersed brackets the angle with the one before (the
+    heels beyond it are not read); brentq on the heel then finds it, solving the equilibrium
+    (free trim with xB = lcg_m, or even keel when lcg_m is None) at every trial heel. A point
+    immersed already at the first heel gives that heel; one never immersed up to the last
+    scanned heel gives that heel (90° for the default scan), the end of the range the tables
+    cover.
     """
-    gaps = [clearance_m(geom, e.plane, points_xyz) for e in scanned]
-    heels = [e.plane.heel_deg for e in scanned]
-    if gaps[0] <= 0.0:
-        return heels[0]
+    if clearance_m(geom, scanned[0], points_xyz) <= 0.0:
+        return scanned[0].heel_deg
     for j in range(1, len(scanned)):
-        if gaps[j] <= 0.0:
-            prev = scanned[j - 1].plane
-
-            nxt = scanned[j].plane
+        if clearance_m(geom, scanned[j], points_xyz) <= 0.0:
+            prev, nxt = scanned[j - 1], scanned[j]
 
             def gap(h: float, prev: Plane = prev, nxt: Plane = nxt) -> float:
-                e = equilibrium(geom, volume_m3, h, lcg_m, guess=_between(prev, nxt, h))
-                return clearance_m(geom, e.plane, points_xyz)
+                p = equilibrium_plane(geom, volume_m3, h, lcg_m, guess=_between(prev, nxt, h))
+                return clearance_m(geom, p, points_xyz)
 
-            return float(brentq(gap, heels[j - 1], heels[j], xtol=1e-4))
-    return heels[-1]
+            return float(brentq(gap, prev.heel_deg, nxt.heel_deg, xtol=1e-4))
+    return scanned[-1].heel_deg
 
 
 def first_immersed(geom: HullGeometry, points_xyz: np.ndarray, volume_m3: float,
-                   lcg_m: float | None, heel_deg: float, scanned: Sequence[Equilibrium]) -> int:
+                   lcg_m: float | None, heel_deg: float, scanned: Sequence[Plane]) -> int:
     """Index of the point nearest the water (least clearance) at `heel_deg`, deg: the one that
     governs the immersion angle found there."""
-    near = min(scanned, key=lambda e: abs(e.plane.heel_deg - heel_deg)).plane
-    plane = equilibrium(geom, volume_m3, heel_deg, lcg_m, guess=near).plane
+    near = min(scanned, key=lambda p: abs(p.heel_deg - heel_deg))
+    plane = equilibrium_plane(geom, volume_m3, heel_deg, lcg_m, guess=near)
     return int(np.argmin([clearance_m(geom, plane, p[None, :]) for p in points_xyz]))
 
 
@@ -160,21 +164,49 @@ def opening_points(openings: Sequence[Any]) -> np.ndarray:
                     ).reshape(-1, 3)
 
 
+class Scan(Sequence[Plane]):
+    """Equilibrium waterplanes at increasing heels (deg, the first 0) for one volume (m³),
+    solved only as they are read and kept: free trim with xB = lcg_m, or even keel when
+    lcg_m is None; each solve starts from the last ones (the same chain of first guesses
+    however far it is read). An immersion search reads only up to the first heel that
+    immerses its points."""
+
+    def __init__(self, geom: HullGeometry, volume_m3: float, lcg_m: float | None,
+                 heels_deg: Sequence[float], upright: Plane | None = None) -> None:
+        self._geom, self._volume, self._lcg = geom, volume_m3, lcg_m
+        self._heels = [float(h) for h in heels_deg]
+        self._upright = upright
+        self._planes: list[Plane] = []
+
+    def __len__(self) -> int:
+        return len(self._heels)
+
+    def __getitem__(self, i):  # type: ignore[override]
+        if isinstance(i, slice):
+            return [self[k] for k in range(*i.indices(len(self)))]
+        k = range(len(self))[i]
+        planes = self._planes
+        while len(planes) <= k:
+            h = self._heels[len(planes)]
+            if h == 0.0 and self._upright is not None:
+                p = self._upright
+            else:
+                guess = (None if not planes else planes[-1] if len(planes) < 2
+                         else _between(planes[-2], planes[-1], h))
+                p = equilibrium_plane(self._geom, self._volume, h, self._lcg, guess=guess)
+            planes.append(p)
+        return planes[k]
+
+
 def heel_scan(geom: HullGeometry, volume_m3: float, lcg_m: float | None,
               heels_deg: Sequence[float], upright: Equilibrium | None = None
               ) -> list[Equilibrium]:
-    """Equilibria at increasing heels (deg, the first 0) for one volume (m³): free trim with
-    xB = lcg_m, or even keel when lcg_m is None; each solve starts from the last ones."""
-    states: list[Equilibrium] = []
-    for h in heels_deg:
-        if h == 0.0 and upright is not None:
-            e = upright
-        else:
-            guess = (None if not states else states[-1].plane if len(states) < 2
-                     else _between(states[-2].plane, states[-1].plane, h))
-            e = equilibrium(geom, volume_m3, h, lcg_m, guess=guess)
-        states.append(e)
-    return states
+    """Equilibria at every heel of `heels_deg` (the whole `Scan`, with the centre of
+    buoyancy at each)."""
+    planes = Scan(geom, volume_m3, lcg_m, heels_deg,
+                  None if upright is None else upright.plane)
+    return [upright if upright is not None and p is upright.plane else _state(geom, p)
+            for p in planes]
 
 
 def default_heels(vessel: Any) -> list[float]:
@@ -275,10 +307,11 @@ def build_tables(
                 lcg = upright.lcb_m
             states = heel_scan(geom, vol, lcg, heels, upright=upright)
             kn_t.append(_round([e.kn_m for e in states], _DEC_LENGTH))
-            deck_t.append(immersion_angle(geom, deck, vol, lcg, states))
+            planes = [e.plane for e in states]
+            deck_t.append(immersion_angle(geom, deck, vol, lcg, planes))
             if len(vents):
-                flood_t.append(immersion_angle(geom, vents, vol, lcg, states))
-                gov_t.append(names[first_immersed(geom, vents, vol, lcg, flood_t[-1], states)])
+                flood_t.append(immersion_angle(geom, vents, vol, lcg, planes))
+                gov_t.append(names[first_immersed(geom, vents, vol, lcg, flood_t[-1], planes)])
             done += 1
             if progress is not None:
                 progress(done, total)
