@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import hashlib
 from dataclasses import dataclass
+from functools import cached_property
 from pathlib import Path
 
 from reportgen.docinfo import APPROVAL_SUFFIX
@@ -41,12 +42,12 @@ class Case:
     vessel_name: str  # basename of the vessel file
     vessel_approval: bytes | None = None  # the detached signature VESSEL.yaml.p7s, if present
 
-    @property
+    @cached_property  # the bytes never change: hashed once per case, not per evaluation
     def inputs_sha256(self) -> str:
         """SHA-256 of the condition file's bytes followed by the vessel file's bytes (SPEC)."""
         return hashlib.sha256(self.condition_bytes + self.vessel_bytes).hexdigest()
 
-    @property
+    @cached_property
     def vessel_sha256(self) -> str:
         """SHA-256 of the vessel file's bytes alone: the vessel data fingerprint (SPEC)."""
         return hashlib.sha256(self.vessel_bytes).hexdigest()
