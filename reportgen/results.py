@@ -5,9 +5,12 @@ Every float is rounded to DECIMALS when the model is made, so a model made by an
 and one read back from its JSON are equal. Optional sections (`weather`, `limits`, ...) are
 left out of the JSON when they do not apply; SPEC's null values (`vanishing`, `thetac`, ...)
 are kept as null. The JSON Schema of the document is `Results.model_json_schema()`.
-"""
 
-from __future__ import annotations
+Speed (benchmarks/bench_check.py): the models are built at their first use (defer_build), in
+one piece with Results rather than each section again on its own; the annotations are real
+objects, not strings (no `from __future__ import annotations`), which pydantic would otherwise
+compile one by one at import.
+"""
 
 import math
 from typing import Any, Literal
@@ -49,7 +52,7 @@ def clean(value: Any) -> Any:
 
 
 class Section(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True)
+    model_config = ConfigDict(extra="forbid", frozen=True, defer_build=True)
 
 
 F = float  # m, t, deg, ... as each field's comment says
@@ -365,5 +368,5 @@ class Results(Section):
         return self.model_dump(mode="json")
 
     @classmethod
-    def from_json(cls, text: str) -> Results:
+    def from_json(cls, text: str) -> "Results":
         return cls.model_validate_json(text)
