@@ -13,8 +13,10 @@ compile one by one at import.
 """
 
 import math
+from collections.abc import Sequence
 from typing import Any, Literal
 
+import numpy as np
 from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_validator
 
 from reportgen.results_draughts import DraughtMarks, Observed
@@ -27,10 +29,33 @@ OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison", "t
                      "observed")  # left out of the JSON when None
 
 
+class Rounded(list):
+    """A list of floats already as `clean` makes them (see `rounded`); `clean` keeps it."""
+
+
+def rounded(values: Sequence[float]) -> Rounded:
+    """The floats of `values` as `clean` makes each (round(x, DECIMALS), −0.0 as 0.0,
+    non-finite as None), rounded as one numpy array: rint(x·10⁶)/10⁶, which equals Python's
+    correctly rounded round(x, 6) (the division of an integer below 2⁵³ by 10⁶ is correctly
+    rounded too) except where x·10⁶ lies within its own rounding error of a half, or is too
+    large for an exact integer; those few, and non-finite values, go through `clean`."""
+    a = np.asarray(values, dtype=float)
+    scale = 10.0 ** DECIMALS
+    y = a * scale
+    out = (np.rint(y) / scale + 0.0).tolist()  # + 0.0: −0.0 becomes 0.0
+    with np.errstate(invalid="ignore"):
+        exact = (np.abs(y - np.floor(y) - 0.5) > np.spacing(np.abs(y))) & (np.abs(y) < 2.0**52)
+    for i in np.flatnonzero(~exact):  # NaN compares False: non-finite values land here
+        out[i] = clean(float(a[i]))
+    return Rounded(out)
+
+
 def clean(value: Any) -> Any:
     """Plain JSON data: floats rounded to DECIMALS (−0.0 as 0.0), tuples as lists, numpy
     scalars as Python numbers, non-finite floats as null; key order kept."""
     t = type(value)
+    if t is Rounded:
+        return value
     if t is float:
         if not math.isfinite(value):
             return None
