@@ -20,7 +20,7 @@ import numpy as np
 from reportgen.errors import InputError
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)  # arrays: == has no truth value; compared by identity
 class TankTable:
     """A tank's sounding table as arrays: sounding m, volume m³, lcg/vcg/tcg m, fsi m⁴."""
 
