@@ -33,6 +33,7 @@ from reportgen.report.render import (
     _stylesheet,
     _svg_data_uri,
     approval_described,
+    collector_paused,
     template_environment,
 )
 
@@ -86,10 +87,11 @@ def render_limits(vessel_name: str, vessel_bytes: bytes, doc: dict,
     ] + ([weasyprint.Attachment(string=approval, name=approval_name(vessel_name),
                                 description=words["approval"], relationship="Source", **made)]
          if approval is not None else [])
-    document = weasyprint.HTML(string=limits_html(doc, vessel_sets, approved)).render(
-        stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT, font_config=fonts.font_config())
     identifier = hashlib.sha256((doc["inputs_sha256"] + data).encode("utf-8")).hexdigest()
-    with _source_date_epoch(when):
+    with collector_paused(), _source_date_epoch(when):
+        document = weasyprint.HTML(string=limits_html(doc, vessel_sets, approved)).render(
+            stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
+            font_config=fonts.font_config())
         return document.write_pdf(finisher=_finisher, pdf_variant=PDF_VARIANT,
                                   attachments=attachments,
                                   pdf_identifier=identifier[:32].encode("ascii"))

@@ -315,10 +315,9 @@ def render_package(pkg: Package) -> bytes:
     """The package as PDF/A-3b bytes; equal inputs give equal bytes."""
     data_json = package_json(pkg)
     when = sheet.document_date(package_date(pkg)[:10])
-    document = layout_package(pkg)
     identifier = hashlib.sha256((pkg.inputs_sha256 + data_json).encode("utf-8")).hexdigest()
-    with sheet._source_date_epoch(when):
-        return document.write_pdf(finisher=sheet._finisher, pdf_variant=sheet.PDF_VARIANT,
+    with sheet.collector_paused(), sheet._source_date_epoch(when):
+        return layout_package(pkg).write_pdf(finisher=sheet._finisher, pdf_variant=sheet.PDF_VARIANT,
                                   attachments=_attachments(pkg, data_json),
                                   pdf_identifier=identifier[:32].encode("ascii"))
 

@@ -16,6 +16,7 @@ Lengths in this module: CSS px from WeasyPrint's layout, PDF points in the file
 from __future__ import annotations
 
 import base64
+import gc
 import hashlib
 import json
 import math
@@ -326,15 +327,32 @@ def render_sheet(case: Any, results: Results) -> bytes:
     """The calculation sheet as PDF/A-3b bytes; equal inputs give equal bytes."""
     results_json = results.to_json()
     when = document_date(results.condition.date)
-    document = layout_sheet(case, results)
     identifier = hashlib.sha256((results.inputs_sha256 + results_json).encode("utf-8")).hexdigest()
-    with _source_date_epoch(when):
-        return document.write_pdf(
+    with collector_paused(), _source_date_epoch(when):
+        return layout_sheet(case, results).write_pdf(
             finisher=_finisher,
             pdf_variant=PDF_VARIANT,
             attachments=_attachments(case, results_json, when),
             pdf_identifier=identifier[:32].encode("ascii"),
         )
+
+
+@contextmanager
+def collector_paused() -> Iterator[None]:
+    """The cyclic garbage collector paused while a document is made (restored afterwards).
+
+    Laying out and painting a document creates a few million short-lived objects; the
+    collector's passes over them took about 30 % of the package's rendering time and freed
+    almost nothing (the peak memory is within 6 % either way). Reference counting still frees
+    everything that is not in a cycle; the next collection after the pause takes the rest.
+    """
+    was = gc.isenabled()
+    gc.disable()
+    try:
+        yield
+    finally:
+        if was:
+            gc.enable()
 
 
 @contextmanager
