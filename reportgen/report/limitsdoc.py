@@ -24,6 +24,7 @@ from reportgen.files import check_output, write_atomic
 from reportgen.limitcurve import LIMITS_NAME, NOT_ON_CURVE, REQUEST_NAME, to_json
 from reportgen.provenance import approval_name
 from reportgen.report import fonts
+from reportgen.report.engine import collector_paused, document_html
 from reportgen.report.limitsfig import limits_figure_svg
 from reportgen.report.render import (
     FIXED_EPOCH,
@@ -33,7 +34,6 @@ from reportgen.report.render import (
     _stylesheet,
     _svg_data_uri,
     approval_described,
-    collector_paused,
     template_environment,
 )
 
@@ -89,7 +89,7 @@ def render_limits(vessel_name: str, vessel_bytes: bytes, doc: dict,
          if approval is not None else [])
     identifier = hashlib.sha256((doc["inputs_sha256"] + data).encode("utf-8")).hexdigest()
     with collector_paused(), _source_date_epoch(when):
-        document = weasyprint.HTML(string=limits_html(doc, vessel_sets, approved)).render(
+        document = document_html(limits_html(doc, vessel_sets, approved)).render(
             stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
             font_config=fonts.font_config())
         return document.write_pdf(finisher=_finisher, pdf_variant=PDF_VARIANT,

@@ -16,7 +16,6 @@ Lengths in this module: CSS px from WeasyPrint's layout, PDF points in the file
 from __future__ import annotations
 
 import base64
-import gc
 import hashlib
 import json
 import math
@@ -39,6 +38,7 @@ from reportgen.docinfo import RESULTS_NAME, ROLES, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
+from reportgen.report.engine import collector_paused, document_html
 from reportgen.report.figure_heeling import heeling_figure_svg
 from reportgen.report.figures import gz_figure_svg, weather_figure_svg
 from reportgen.report.grainfigure import grain_figure_svg
@@ -318,7 +318,7 @@ def _finisher(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
 
 def layout_sheet(case: Any, results: Results) -> weasyprint.Document:
     """The laid-out pages of the sheet (WeasyPrint document) for a results document."""
-    html = weasyprint.HTML(string=sheet_html(case, results))
+    html = document_html(sheet_html(case, results))
     return html.render(stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
                        font_config=fonts.font_config())
 
@@ -335,24 +335,6 @@ def render_sheet(case: Any, results: Results) -> bytes:
             attachments=_attachments(case, results_json, when),
             pdf_identifier=identifier[:32].encode("ascii"),
         )
-
-
-@contextmanager
-def collector_paused() -> Iterator[None]:
-    """The cyclic garbage collector paused while a document is made (restored afterwards).
-
-    Laying out and painting a document creates a few million short-lived objects; the
-    collector's passes over them took about 30 % of the package's rendering time and freed
-    almost nothing (the peak memory is within 6 % either way). Reference counting still frees
-    everything that is not in a cycle; the next collection after the pause takes the rest.
-    """
-    was = gc.isenabled()
-    gc.disable()
-    try:
-        yield
-    finally:
-        if was:
-            gc.enable()
 
 
 @contextmanager
