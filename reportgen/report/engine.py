@@ -6,19 +6,24 @@
   (``::footnote-call``, ``::marker`` ...), so every element of a sheet got six computed
   pseudo-element styles that were never used: about 8 % of a package's layout time. A
   WeasyPrint version whose stylesheet reads otherwise keeps its stylesheet unchanged.
-- ``collector_paused``: the cyclic garbage collector paused while a document is made.
+- ``collector_paused``: the cyclic garbage collector paused while a document is made (the
+  reader's own pause, reportgen.inputs.yamlread.cyclic_gc_paused). Laying out and painting a
+  document creates a few million objects that live until the document is written; the
+  collector's passes over them took 5 to 15 % of the package process's CPU time (best of
+  two, on a shared machine) and freed almost nothing (peak memory within 6 % either way).
 """
 
 from __future__ import annotations
 
-import gc
 import re
-from collections.abc import Iterator
-from contextlib import contextmanager
 from functools import lru_cache
 
 import weasyprint
 from weasyprint import html as weasyprint_html
+
+from reportgen.inputs.yamlread import cyclic_gc_paused as collector_paused
+
+__all__ = ["collector_paused", "document_html", "trimmed_user_agent_css"]
 
 # Rules of WeasyPrint's html5_ua.css (one line each) for the notes of CSS GCPM 3 (footnotes)
 # and its note areas: reportgen's documents have neither.
@@ -47,22 +52,3 @@ class _DocumentHTML(weasyprint.HTML):
 def document_html(text: str) -> weasyprint.HTML:
     """The HTML text as a WeasyPrint document to lay out."""
     return _DocumentHTML(string=text)
-
-
-@contextmanager
-def collector_paused() -> Iterator[None]:
-    """The cyclic garbage collector paused while a document is made (restored afterwards).
-
-    Laying out and painting a document creates a few million objects that live until the
-    document is written; the collector's passes over them took 5 to 15 % of the package
-    process's CPU time (best of two, on a shared machine) and freed almost nothing (the peak
-    memory is within 6 % either way). Reference counting still frees everything that is not
-    in a cycle; the next collection after the pause takes the rest.
-    """
-    was = gc.isenabled()
-    gc.disable()
-    try:
-        yield
-    finally:
-        if was:
-            gc.enable()
