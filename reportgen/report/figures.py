@@ -14,6 +14,7 @@ sheet's embedded font subset, as PDF/A requires; faster than glyphs drawn as pat
 from __future__ import annotations
 
 import io
+import xml.etree.ElementTree as ET
 from collections.abc import Mapping
 
 import matplotlib
@@ -49,11 +50,38 @@ NEGATIVE_SHARE = 0.6  # GZ figure: lowest lever drawn, as a share of the highest
 STEP_DEG = 0.25  # resampling step of the shaded areas; the data grid is 1°
 
 
+_SVG_NS = "http://www.w3.org/2000/svg"
+ET.register_namespace("", _SVG_NS)
+ET.register_namespace("xlink", "http://www.w3.org/1999/xlink")
+
+
+def lean_svg(svg: str) -> str:
+    """The same drawing with fewer elements for WeasyPrint to walk: matplotlib's metadata
+    dropped and every group that carries nothing but an id (no style, transform or clip)
+    replaced by its children, in order. Each element costs WeasyPrint a graphics state and
+    a style cascade; a sheet's two figures lose about half their elements."""
+    root = ET.fromstring(svg)
+    group, metadata = f"{{{_SVG_NS}}}g", f"{{{_SVG_NS}}}metadata"
+
+    def flatten(element: ET.Element) -> None:
+        children = []
+        for child in element:
+            flatten(child)
+            if child.tag == group and set(child.attrib) <= {"id"}:
+                children.extend(child)
+            elif child.tag != metadata:
+                children.append(child)
+        element[:] = children
+
+    flatten(root)
+    return ET.tostring(root, encoding="unicode")
+
+
 def _svg(fig: Figure) -> str:
     buffer = io.StringIO()
     with matplotlib.rc_context(_RC):
         fig.savefig(buffer, format="svg", metadata={"Date": None})
-    return svg_with_sheet_font(buffer.getvalue())
+    return lean_svg(svg_with_sheet_font(buffer.getvalue()))
 
 
 def _new_axes(labels: Mapping[str, str], side_word: str):

@@ -24,6 +24,7 @@ from reportgen.files import check_output, write_atomic
 from reportgen.limitcurve import LIMITS_NAME, NOT_ON_CURVE, REQUEST_NAME, to_json
 from reportgen.provenance import approval_name
 from reportgen.report import fonts
+from reportgen.report.engine import collector_paused, document_html
 from reportgen.report.limitsfig import limits_figure_svg
 from reportgen.report.render import (
     FIXED_EPOCH,
@@ -86,10 +87,11 @@ def render_limits(vessel_name: str, vessel_bytes: bytes, doc: dict,
     ] + ([weasyprint.Attachment(string=approval, name=approval_name(vessel_name),
                                 description=words["approval"], relationship="Source", **made)]
          if approval is not None else [])
-    document = weasyprint.HTML(string=limits_html(doc, vessel_sets, approved)).render(
-        stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT, font_config=fonts.font_config())
     identifier = hashlib.sha256((doc["inputs_sha256"] + data).encode("utf-8")).hexdigest()
-    with _source_date_epoch(when):
+    with collector_paused(), _source_date_epoch(when):
+        document = document_html(limits_html(doc, vessel_sets, approved)).render(
+            stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
+            font_config=fonts.font_config())
         return document.write_pdf(finisher=_finisher, pdf_variant=PDF_VARIANT,
                                   attachments=attachments,
                                   pdf_identifier=identifier[:32].encode("ascii"))

@@ -41,6 +41,7 @@ from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
 from reportgen.report import render as sheet
 from reportgen.report.appendix import vessel_appendix
+from reportgen.report.engine import collector_paused, document_html
 from reportgen.report.limitsfig import limits_figure_svg
 from reportgen.results import Results
 
@@ -284,7 +285,7 @@ def layout_package(pkg: Package) -> weasyprint.Document:
     condition's own pages come from CSS (target-counter, page groups), which WeasyPrint
     resolves while it paginates."""
     contexts = [sheet.condition_context(m.case, m.results) for m in pkg.members]
-    html = weasyprint.HTML(string=package_html(pkg, contexts, limits_page(pkg)))
+    html = document_html(package_html(pkg, contexts, limits_page(pkg)))
     return html.render(stylesheets=[_page_css(len(pkg.members))],
                        pdf_variant=sheet.PDF_VARIANT, font_config=fonts.font_config())
 
@@ -315,10 +316,9 @@ def render_package(pkg: Package) -> bytes:
     """The package as PDF/A-3b bytes; equal inputs give equal bytes."""
     data_json = package_json(pkg)
     when = sheet.document_date(package_date(pkg)[:10])
-    document = layout_package(pkg)
     identifier = hashlib.sha256((pkg.inputs_sha256 + data_json).encode("utf-8")).hexdigest()
-    with sheet._source_date_epoch(when):
-        return document.write_pdf(finisher=sheet._finisher, pdf_variant=sheet.PDF_VARIANT,
+    with collector_paused(), sheet._source_date_epoch(when):
+        return layout_package(pkg).write_pdf(finisher=sheet._finisher, pdf_variant=sheet.PDF_VARIANT,
                                   attachments=_attachments(pkg, data_json),
                                   pdf_identifier=identifier[:32].encode("ascii"))
 

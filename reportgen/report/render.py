@@ -38,6 +38,7 @@ from reportgen.docinfo import RESULTS_NAME, ROLES, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
+from reportgen.report.engine import collector_paused, document_html
 from reportgen.report.figure_heeling import heeling_figure_svg
 from reportgen.report.figures import gz_figure_svg, weather_figure_svg
 from reportgen.report.grainfigure import grain_figure_svg
@@ -317,7 +318,7 @@ def _finisher(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
 
 def layout_sheet(case: Any, results: Results) -> weasyprint.Document:
     """The laid-out pages of the sheet (WeasyPrint document) for a results document."""
-    html = weasyprint.HTML(string=sheet_html(case, results))
+    html = document_html(sheet_html(case, results))
     return html.render(stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
                        font_config=fonts.font_config())
 
@@ -326,10 +327,9 @@ def render_sheet(case: Any, results: Results) -> bytes:
     """The calculation sheet as PDF/A-3b bytes; equal inputs give equal bytes."""
     results_json = results.to_json()
     when = document_date(results.condition.date)
-    document = layout_sheet(case, results)
     identifier = hashlib.sha256((results.inputs_sha256 + results_json).encode("utf-8")).hexdigest()
-    with _source_date_epoch(when):
-        return document.write_pdf(
+    with collector_paused(), _source_date_epoch(when):
+        return layout_sheet(case, results).write_pdf(
             finisher=_finisher,
             pdf_variant=PDF_VARIANT,
             attachments=_attachments(case, results_json, when),
