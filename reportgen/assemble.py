@@ -6,14 +6,11 @@ from dataclasses import fields
 from functools import cache
 
 from reportgen import NAME, __version__
-from reportgen import draughts as marks_rules
-from reportgen.assemble_extras import icing_section, passengers_section, timber_section
 from reportgen.criteria.core import Check
 from reportgen.criteria.sets import SETS
 from reportgen.criteria.weather import WIND_PRESSURE_N_M2, Weather
-from reportgen.grain import allowable_lambda0_m
 from reportgen.inputs import Case
-from reportgen.results import Results
+from reportgen.results import Results, rounded
 from reportgen.stability import gz_grid, list_side
 from reportgen.stages import AtKG, Upright, listed
 
@@ -115,6 +112,8 @@ def grain_section(up: Upright, k: AtKG) -> dict | None:
     cargo, g = up.grain, k.state.grain
     if cargo is None or g is None:
         return None
+    from reportgen.grain import allowable_lambda0_m
+
     delta = up.loading.totals.displacement
     lam = allowable_lambda0_m(k.side_curve, up.angles.flooding.deg, up.angles.deck_edge.deg,
                               k.gm_fluid_m)
@@ -161,12 +160,37 @@ def assumptions_section(up: Upright) -> dict:
     }
 
 
+def marks_sections(up: Upright) -> dict:
+    """`draught_marks` and `observed` (reportgen.draughts, imported only for a vessel with
+    draught marks)."""
+    if up.at_marks is None and up.survey is None:
+        return {"draught_marks": None, "observed": None}
+    from reportgen import draughts as marks_rules
+
+    return {"draught_marks": None if up.at_marks is None else marks_rules.marks_section(
+                up.case.vessel.draught_marks.model_dump(), up.at_marks),
+            "observed": None if up.survey is None else marks_rules.observed_section(up.survey)}
+
+
+def extras_sections(up: Upright, k: AtKG) -> dict:
+    """`timber`, `passengers` and `icing` (reportgen.assemble_extras, imported only for a
+    condition that asks for an allowance)."""
+    if up.extras is None:
+        return {"timber": None, "passengers": None, "icing": None}
+    from reportgen.assemble_extras import icing_section, passengers_section, timber_section
+
+    return {"timber": timber_section(up.extras),
+            "passengers": passengers_section(up.extras, k.state.passengers),
+            "icing": icing_section(up.extras)}
+
+
 def results(up: Upright, k: AtKG, fsc: float, limits: dict | None = None) -> Results:
     """The Results of a condition from its upright stage and its stage at its own KG (and
     its KG margin, reportgen.limits.condition_limits)."""
     case = up.case
     heel, gz, kn = gz_grid(k.curve)
     cond_file, vessel_file = attachment_names(case.condition_name, case.vessel_name)
+    marks, extras = marks_sections(up), extras_sections(up, k)
     return Results.model_validate({
         "software": {"name": NAME, "version": __version__},
         "inputs_sha256": case.inputs_sha256,
@@ -175,16 +199,15 @@ def results(up: Upright, k: AtKG, fsc: float, limits: dict | None = None) -> Res
         "vessel": vessel_section(case),
         "loading": loading_section(up),
         "hydrostatics": hydrostatics_section(up, k, fsc),
-        "gz": {"heel": heel, "gz": gz, "kn": kn},
+        "gz": {"heel": rounded(heel), "gz": rounded(gz), "kn": rounded(kn)},  # numpy at once
         "angles": angles_section(up, k),
         "weather": weather_section(k.weather),
         "load_line": load_line_section(up),
-        "draught_marks": None if up.at_marks is None else marks_rules.marks_section(
-            up.case.vessel.draught_marks.model_dump(), up.at_marks),
-        "observed": None if up.survey is None else marks_rules.observed_section(up.survey),
-        "timber": timber_section(up.extras),
-        "passengers": passengers_section(up.extras, k.state.passengers),
-        "icing": icing_section(up.extras),
+        "draught_marks": marks["draught_marks"],
+        "observed": marks["observed"],
+        "timber": extras["timber"],
+        "passengers": extras["passengers"],
+        "icing": extras["icing"],
         "grain": grain_section(up, k),
         "limits": limits,
         "criteria": [criterion(c) for c in k.checks],

@@ -31,7 +31,7 @@ from reportgen.errors import InputError
 COLUMNS = ("draft", "lcb", "lcf", "kmt", "mct", "tpc", "lwl", "cb")
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)  # arrays: == has no truth value; compared by identity
 class HydroTable:
     """A hydrostatic table as arrays, made at `density` (t/m³).
 

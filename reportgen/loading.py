@@ -20,7 +20,7 @@ import numpy as np
 from reportgen.errors import InputError
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)  # arrays: == has no truth value; compared by identity
 class TankTable:
     """A tank's sounding table as arrays: sounding m, volume m³, lcg/vcg/tcg m, fsi m⁴."""
 
@@ -270,12 +270,13 @@ def condition_loading(vessel, condition, tank_tables: dict[str, TankTable]) -> L
         lines.append(tank_line(tank.id, tank.name, tank.content, tank.fs_role, density, state,
                                ullage, is_slack(state.percent, full),
                                c.fsm_tm if c else 0.0, c.reason if c else None))
-    from reportgen.grainload import grain_cargo
+    if condition.grain is not None:  # the grain modules are imported only for grain
+        from reportgen.grainload import grain_cargo
 
-    cargo = grain_cargo(vessel, condition)
-    for g in cargo.loads if cargo is not None else ():
-        lines.append(grain_line(g.id, g.name, g.volume, cargo.stowage_factor, g.mass, g.lcg,
-                                g.vcg))
+        cargo = grain_cargo(vessel, condition)
+        for g in cargo.loads:
+            lines.append(grain_line(g.id, g.name, g.volume, cargo.stowage_factor, g.mass,
+                                    g.lcg, g.vcg))
     for it in condition.items:
         lines.append(item_line(it.name, it.mass, it.lcg, it.vcg, it.tcg))
     return Loading(tuple(lines), totals(lines), tuple(counted.values()),

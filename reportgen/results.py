@@ -5,13 +5,18 @@ Every float is rounded to DECIMALS when the model is made, so a model made by an
 and one read back from its JSON are equal. Optional sections (`weather`, `limits`, ...) are
 left out of the JSON when they do not apply; SPEC's null values (`vanishing`, `thetac`, ...)
 are kept as null. The JSON Schema of the document is `Results.model_json_schema()`.
+
+Speed (benchmarks/bench_check.py): the models are built at their first use (defer_build), in
+one piece with Results rather than each section again on its own; the annotations are real
+objects, not strings (no `from __future__ import annotations`), which pydantic would otherwise
+compile one by one at import.
 """
 
-from __future__ import annotations
-
 import math
+from collections.abc import Sequence
 from typing import Any, Literal
 
+import numpy as np
 from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_validator
 
 from reportgen.results_draughts import DraughtMarks, Observed
@@ -24,10 +29,33 @@ OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison", "t
                      "observed")  # left out of the JSON when None
 
 
+class Rounded(list):
+    """A list of floats already as `clean` makes them (see `rounded`); `clean` keeps it."""
+
+
+def rounded(values: Sequence[float]) -> Rounded:
+    """The floats of `values` as `clean` makes each (round(x, DECIMALS), −0.0 as 0.0,
+    non-finite as None), rounded as one numpy array: rint(x·10⁶)/10⁶, which equals Python's
+    correctly rounded round(x, 6) (the division of an integer below 2⁵³ by 10⁶ is correctly
+    rounded too) except where x·10⁶ lies within its own rounding error of a half, or is too
+    large for an exact integer; those few, and non-finite values, go through `clean`."""
+    a = np.asarray(values, dtype=float)
+    scale = 10.0 ** DECIMALS
+    y = a * scale
+    out = (np.rint(y) / scale + 0.0).tolist()  # + 0.0: −0.0 becomes 0.0
+    with np.errstate(invalid="ignore"):
+        exact = (np.abs(y - np.floor(y) - 0.5) > np.spacing(np.abs(y))) & (np.abs(y) < 2.0**52)
+    for i in np.flatnonzero(~exact):  # NaN compares False: non-finite values land here
+        out[i] = clean(float(a[i]))
+    return Rounded(out)
+
+
 def clean(value: Any) -> Any:
     """Plain JSON data: floats rounded to DECIMALS (−0.0 as 0.0), tuples as lists, numpy
     scalars as Python numbers, non-finite floats as null; key order kept."""
     t = type(value)
+    if t is Rounded:
+        return value
     if t is float:
         if not math.isfinite(value):
             return None
@@ -49,7 +77,7 @@ def clean(value: Any) -> Any:
 
 
 class Section(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True)
+    model_config = ConfigDict(extra="forbid", frozen=True, defer_build=True)
 
 
 F = float  # m, t, deg, ... as each field's comment says
@@ -365,5 +393,5 @@ class Results(Section):
         return self.model_dump(mode="json")
 
     @classmethod
-    def from_json(cls, text: str) -> Results:
+    def from_json(cls, text: str) -> "Results":
         return cls.model_validate_json(text)

@@ -1,8 +1,6 @@
 """The results document's `draught_marks` and `observed` sections (SPEC.md, "Draught marks and
 observed draughts"; reportgen.draughts computes them). Units as each field's comment says."""
 
-from __future__ import annotations
-
 from typing import Literal
 
 from pydantic import BaseModel, ConfigDict
@@ -12,7 +10,7 @@ OptF = float | None
 
 
 class Section(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True)
+    model_config = ConfigDict(extra="forbid", frozen=True, defer_build=True)  # see results.py
 
 
 class MarkDraught(Section):

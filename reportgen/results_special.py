@@ -3,8 +3,6 @@
 only when its subject applies. Units as each field's comment says.
 """
 
-from __future__ import annotations
-
 from pydantic import BaseModel, ConfigDict
 
 F = float
@@ -12,7 +10,7 @@ OptF = float | None
 
 
 class _Section(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True)
+    model_config = ConfigDict(extra="forbid", frozen=True, defer_build=True)  # see results.py
 
 
 class TimberItem(_Section):

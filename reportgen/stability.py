@@ -55,7 +55,7 @@ def _weights(value: float, axis: np.ndarray) -> tuple[int, float]:
     return i, min(max(float(w), 0.0), 1.0)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)  # arrays: == has no truth value; compared by identity
 class CrossCurves:
     """KN tables: heel_deg (from 0), displacement t (at the hydrostatic table's density),
     trims m (None: one table), kn (k, n_disp, n_heel) m.

@@ -12,9 +12,9 @@ arrays and plain values.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
-from reportgen import grain as grain_rules
-from reportgen.criteria import booklet, core, passenger, rolling
+from reportgen.criteria import core, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.criteria.core import Check, State
 from reportgen.stability import (
@@ -30,6 +30,9 @@ from reportgen.stability import (
     vanishing_angle,
 )
 from reportgen.upright import Upright, upright  # noqa: F401 (the first stage, re-exported)
+
+if TYPE_CHECKING:  # imported where a condition needs them (passengers)
+    from reportgen.criteria import passenger
 
 
 @dataclass(frozen=True)
@@ -82,12 +85,15 @@ def checked(up: Upright, kg_fluid_m: float) -> Checked:
                                                            flooding), source)
     grain = None
     if up.grain is not None:
+        from reportgen import grain as grain_rules
+
         grain = grain_rules.stability(
             side_curve, grain_rules.lambda0_m(up.grain.heeling_moment,
                                               up.loading.totals.displacement),
             flooding, up.angles.deck_edge.deg)
     pax = None
-    if up.extras.passengers is not None and up.case.vessel.particulars.service_speed:
+    if (up.extras is not None and up.extras.passengers is not None
+            and up.case.vessel.particulars.service_speed):
         pax = _passenger_heel(up, kg_fluid_m, side_curve)
     state = State(side_curve, credited, gz_max_deg, gm, flooding, up.angles.deck_edge.deg, wx,
                   grain, kg_fluid_m, up.loading.totals.displacement, up.booklet, pax)
@@ -122,7 +128,10 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
         if a.theta_lw2 is not None and flooding < a.theta_lw2:
             warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below the first "
                             f"intercept of lw2 with GZ ({a.theta_lw2:.1f}°): area b is zero.")
-    warnings += booklet.warnings(c.state)
+    if c.state.booklet is not None:
+        from reportgen.criteria.booklet import warnings as booklet_warnings
+
+        warnings += booklet_warnings(c.state)
     return AtKG(kg_fluid_m, c.gm_fluid_m, c.curve, c.side_curve, heel, c.state,
                 vanishing_angle(c.side_curve, c.state.gz_max_deg), wx, c.checks,
                 tuple(warnings))
@@ -131,6 +140,8 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
 def _passenger_heel(up: Upright, kg_fluid_m: float,
                     side_curve: GZCurve) -> passenger.PassengerHeel:
     """The crowding and turning heels of Part A 3.1 on the curve towards the list's side."""
+    from reportgen.criteria import passenger
+
     p, fl = up.case.vessel.particulars, up.floating
     pax = up.extras.passengers
     lwl = fl.lwl if fl.lwl is not None else p.length_bp

@@ -9,19 +9,16 @@ the modules they call take arrays and plain values.
 from __future__ import annotations
 
 from dataclasses import dataclass, replace
+from typing import TYPE_CHECKING
 
 import numpy as np
 
 from reportgen import angles as angle_rules
-from reportgen import draughts as marks_rules
-from reportgen import extras as allowance_stage
-from reportgen import grain as grain_rules
 from reportgen import plausible
-from reportgen.criteria import booklet, core, rolling
+from reportgen.criteria import core, rolling
 from reportgen.criteria import weather as weather23
 from reportgen.errors import InputError
 from reportgen.floating import Floating, floating_on_tables
-from reportgen.grainload import GrainCargo, grain_cargo
 from reportgen.inputs import Case
 from reportgen.loading import Loading, condition_loading
 from reportgen.loadline import SALT_WATER_T_M3, LoadLine, load_line, summer_row
@@ -31,9 +28,14 @@ from reportgen.stability import (
 )
 from reportgen.vesseldata import VesselData
 
+if TYPE_CHECKING:  # imported where a condition needs them (grain, marks, allowances, booklet)
+    from reportgen import draughts as marks_rules
+    from reportgen.criteria import booklet
+    from reportgen.extras import Extras
+    from reportgen.grainload import GrainCargo
+
 MIN_LENGTH_M = 24.0  # IS Code 2008 Part A 2.3 and SPEC.md: ships of 24 m in length and over
 SINGLE_TRIM_TOLERANCE = angle_rules.SINGLE_TRIM_TOLERANCE
-NO_EXTRAS = allowance_stage.Extras()
 
 
 @dataclass(frozen=True)
@@ -53,7 +55,7 @@ class Upright:
     load_line: LoadLine | None
     warnings: tuple[str, ...]
     grain: GrainCargo | None = None  # grain in bulk (Grain Code), None without
-    extras: allowance_stage.Extras = NO_EXTRAS  # timber, passengers, ice
+    extras: Extras | None = None  # timber, passengers, ice; None: the condition asks for none
     at_marks: dict[str, float] | None = None  # extreme draught at each mark, m
     survey: marks_rules.Survey | None = None  # the draughts read alongside, worked
     booklet: booklet.Curve | None = None  # the booklet's limiting curve, when a set needs it
@@ -195,6 +197,8 @@ def _marks(case: Case, vd: VesselData, loading: Loading, fl: Floating):
     v, obs = case.vessel, case.condition.observed
     if v.draught_marks is None:
         return None, None
+    from reportgen import draughts as marks_rules
+
     p = v.particulars
     x = v.draught_marks.model_dump()
     at = marks_rules.draughts_at_marks(x, fl.draughts.mid, fl.trim, p.length_bp,
@@ -234,6 +238,19 @@ def _float(method: str, case: Case, vd: VesselData, loading: Loading):
     return fl, kn, heel_max, None, kn_warnings
 
 
+def _allowance_stage(case: Case, sets: list[str]):
+    """The module of the ship-type allowances (reportgen.extras) when the condition asks for
+    any (timber items, passengers, ice, or the timber criteria), else None: it is imported
+    only then. Its functions decide, from the vessel's data too, what each allowance adds."""
+    c = case.condition
+    if (c.passengers is None and c.icing == "none" and "is2008.timber" not in sets
+            and not any(it.timber for it in c.items)):
+        return None
+    from reportgen import extras
+
+    return extras
+
+
 def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
     """Loading, floating position, KN, angles and wind of a condition (no KG needed), by the
     vessel's calculation.method or by `method` (tables | hull) when given."""
@@ -245,22 +262,28 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
         warnings.append(f"The IS Code 2008 criteria apply to ships of {MIN_LENGTH_M:g} m in "
                         f"length and over; this ship is {v.particulars.length_bp:g} m.")
     loading = condition_loading(v, c, vd.tanks)
-    timber, timber_lines = allowance_stage.timber_lines(case)
-    pax, pax_lines = allowance_stage.passenger_lines(case)
-    loading = allowance_stage.with_lines(loading, timber_lines + pax_lines)
+    stage = _allowance_stage(case, sets)
+    timber = pax = icing = None
+    if stage is not None:
+        timber, timber_lines = stage.timber_lines(case)
+        pax, pax_lines = stage.passenger_lines(case)
+        loading = stage.with_lines(loading, timber_lines + pax_lines)
     p = v.particulars
     plausible.check_positions(loading.lines, p.length_bp, p.breadth, p.depth)
     fl, kn, heel_max, finder, kn_warnings = _float(method, case, vd, loading)
     plausible.check_draughts(fl.draughts, p.depth)
-    icing = allowance_stage.icing_of(case, vd.profile, fl.draughts.mid, fl.trim)
+    if stage is not None:
+        icing = stage.icing_of(case, vd.profile, fl.draughts.mid, fl.trim)
     if icing is not None:  # ice at the waterline without it, then float again (Part B 6)
-        loading = allowance_stage.with_lines(loading, allowance_stage.ice_lines(icing))
+        loading = stage.with_lines(loading, stage.ice_lines(icing))
         fl, kn, heel_max, finder, kn_warnings = _float(method, case, vd, loading)
         plausible.check_draughts(fl.draughts, p.depth)
-        icing = allowance_stage.iced_windage(case, vd.profile, icing, fl.draughts.mid, fl.trim)
+        icing = stage.iced_windage(case, vd.profile, icing, fl.draughts.mid, fl.trim)
     warnings += kn_warnings
-    extras = allowance_stage.Extras(timber, pax, icing)
-    warnings += allowance_stage.extras_warnings(sets, extras)
+    extras = None
+    if stage is not None:
+        extras = stage.Extras(timber, pax, icing)
+        warnings += stage.extras_warnings(sets, extras)
     ll, ll_warnings = _load_line(case, vd, fl)
     warnings += ll_warnings
     ang = _angles(case, vd, loading, fl, finder)
@@ -278,15 +301,25 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
                      f"profile, but gives no wind_area: its windage is not in the weather "
                      f"criterion (IS Code 2008 Part A 2.3); give wind_area and wind_z."
                      for name in bare]
-    cargo = grain_cargo(v, c)
-    if cargo is not None:
+    cargo = None
+    if c.grain is not None:
+        from reportgen import grain as grain_rules
+        from reportgen.grainload import grain_cargo
+
+        cargo = grain_cargo(v, c)
         warnings += grain_rules.cargo_warnings(
             "grain.2008" in sets, _scan_heels(method, v),
             has_list(loading.totals.tcg))
     at_marks, survey = _marks(case, vd, loading, fl)
     if survey is not None:
-        warnings += marks_rules.survey_warnings(survey, c.condition.water_density)
-    curve_b = booklet.curve_of(v) if "booklet" in core.needs(sets) else None
+        from reportgen.draughts import survey_warnings
+
+        warnings += survey_warnings(survey, c.condition.water_density)
+    curve_b = None
+    if "booklet" in core.needs(sets):
+        from reportgen.criteria.booklet import curve_of
+
+        curve_b = curve_of(v)
     return Upright(case, sets, loading, fl, kn, heel_max, ang, wind, roll_hull, cb_source, ll,
                    tuple(warnings), cargo, extras, at_marks=at_marks, survey=survey,
                    booklet=curve_b)

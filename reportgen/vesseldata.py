@@ -22,7 +22,7 @@ if TYPE_CHECKING:
     from reportgen.inputs import Vessel
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)  # arrays: == has no truth value; compared by identity
 class AngleTable:
     """An angle table (deck edge or flooding): trims m or None, displacement t, angle (k, n)
     deg."""
@@ -63,7 +63,7 @@ def angle_table(t) -> AngleTable | None:
                       rows_of(t.angle, k), names)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)  # arrays: == has no truth value; compared by identity
 class VesselData:
     """Arrays and polygons of one vessel's tables; the hull geometry made when first asked."""
 

@@ -154,3 +154,22 @@ def test_table_flow_agrees_with_the_hull(documents, name):
         eq = equilibrium(geom, volume, heel, lcg_m=load["lcg"])
         direct = eq.kn_m - kg * np.sin(np.radians(heel))
         assert gz[heel] == pytest.approx(direct, abs=0.05), heel
+
+
+def test_arrays_rounded_at_once_equal_python_round():
+    """The GZ arrays are rounded with numpy (results.rounded) and must give what Python's
+    round(x, 6) gives value by value (the reference: Python's documentation, built-in
+    round(), correctly rounded, ties to even), including values at a tie of the 7th decimal
+    and just beside it, −0.0, and non-finite values (null)."""
+    from reportgen.results import clean, rounded
+
+    rng = np.random.default_rng(7)
+    k = rng.integers(-10**9, 10**9, 20000)
+    ties = (k + 0.5) / 1e6
+    values = np.concatenate([
+        rng.normal(0.0, 1.0, 20000), rng.normal(0.0, 1e4, 20000), ties,
+        np.nextafter(ties, np.inf), np.nextafter(ties, -np.inf),
+        [0.0, -0.0, -1e-9, 5e-7, -5e-7, 2.675, 0.0078125, 1e16 + 2.0, np.inf, -np.inf, np.nan]])
+    got = rounded(values)
+    want = [clean(float(x)) for x in values]
+    assert [repr(g) for g in got] == [repr(w) for w in want]
