@@ -11,7 +11,6 @@ it again and compare (reportgen.signing.recompute, kind "limits").
 
 from __future__ import annotations
 
-import hashlib
 import os
 from functools import lru_cache
 from pathlib import Path
@@ -24,16 +23,15 @@ from reportgen.files import check_output, write_atomic
 from reportgen.limitcurve import LIMITS_NAME, NOT_ON_CURVE, REQUEST_NAME, to_json
 from reportgen.provenance import approval_name
 from reportgen.report import fonts
-from reportgen.report.engine import collector_paused, document_html
+from reportgen.report.engine import document_html
 from reportgen.report.limitsfig import limits_figure_svg
 from reportgen.report.render import (
     FIXED_EPOCH,
     PDF_VARIANT,
-    _finisher,
-    _source_date_epoch,
     _stylesheet,
     _svg_data_uri,
     approval_described,
+    pdf_bytes,
     template_environment,
 )
 
@@ -87,14 +85,13 @@ def render_limits(vessel_name: str, vessel_bytes: bytes, doc: dict,
     ] + ([weasyprint.Attachment(string=approval, name=approval_name(vessel_name),
                                 description=words["approval"], relationship="Source", **made)]
          if approval is not None else [])
-    identifier = hashlib.sha256((doc["inputs_sha256"] + data).encode("utf-8")).hexdigest()
-    with collector_paused(), _source_date_epoch(when):
-        document = document_html(limits_html(doc, vessel_sets, approved)).render(
+
+    def layout() -> weasyprint.Document:
+        return document_html(limits_html(doc, vessel_sets, approved)).render(
             stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
             font_config=fonts.font_config())
-        return document.write_pdf(finisher=_finisher, pdf_variant=PDF_VARIANT,
-                                  attachments=attachments,
-                                  pdf_identifier=identifier[:32].encode("ascii"))
+
+    return pdf_bytes(layout, when, doc["inputs_sha256"], data, attachments)
 
 
 def write_limits(vessel_bytes: bytes, doc: dict, out_path: str | os.PathLike,

@@ -41,7 +41,7 @@ from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
 from reportgen.report import render as sheet
 from reportgen.report.appendix import vessel_appendix
-from reportgen.report.engine import collector_paused, document_html
+from reportgen.report.engine import document_html
 from reportgen.report.limitsfig import limits_figure_svg
 from reportgen.results import Results
 
@@ -316,11 +316,8 @@ def render_package(pkg: Package) -> bytes:
     """The package as PDF/A-3b bytes; equal inputs give equal bytes."""
     data_json = package_json(pkg)
     when = sheet.document_date(package_date(pkg)[:10])
-    identifier = hashlib.sha256((pkg.inputs_sha256 + data_json).encode("utf-8")).hexdigest()
-    with collector_paused(), sheet._source_date_epoch(when):
-        return layout_package(pkg).write_pdf(finisher=sheet._finisher, pdf_variant=sheet.PDF_VARIANT,
-                                  attachments=_attachments(pkg, data_json),
-                                  pdf_identifier=identifier[:32].encode("ascii"))
+    return sheet.pdf_bytes(lambda: layout_package(pkg), when, pkg.inputs_sha256, data_json,
+                           _attachments(pkg, data_json))
 
 
 def write_package(pkg: Package, out_path: str | os.PathLike, force: bool = False) -> None:

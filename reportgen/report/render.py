@@ -20,7 +20,7 @@ import hashlib
 import json
 import math
 import os
-from collections.abc import Iterator
+from collections.abc import Callable, Iterator
 from contextlib import contextmanager
 from datetime import UTC, date, datetime
 from functools import lru_cache
@@ -327,14 +327,20 @@ def render_sheet(case: Any, results: Results) -> bytes:
     """The calculation sheet as PDF/A-3b bytes; equal inputs give equal bytes."""
     results_json = results.to_json()
     when = document_date(results.condition.date)
-    identifier = hashlib.sha256((results.inputs_sha256 + results_json).encode("utf-8")).hexdigest()
+    return pdf_bytes(lambda: layout_sheet(case, results), when, results.inputs_sha256,
+                     results_json, _attachments(case, results_json, when))
+
+
+def pdf_bytes(layout: Callable[[], weasyprint.Document], when: datetime, inputs_sha256: str,
+              data_json: str, attachments: list[weasyprint.Attachment]) -> bytes:
+    """A document (sheet, package, limits) as PDF/A-3b bytes, equal for equal inputs: laid out
+    by ``layout`` and written with the garbage collector paused and the fonts' clock at
+    ``when``; its file identifier is the SHA-256 of the inputs' hash and the embedded data."""
+    identifier = hashlib.sha256((inputs_sha256 + data_json).encode("utf-8")).hexdigest()
     with collector_paused(), _source_date_epoch(when):
-        return layout_sheet(case, results).write_pdf(
-            finisher=_finisher,
-            pdf_variant=PDF_VARIANT,
-            attachments=_attachments(case, results_json, when),
-            pdf_identifier=identifier[:32].encode("ascii"),
-        )
+        return layout().write_pdf(finisher=_finisher, pdf_variant=PDF_VARIANT,
+                                  attachments=attachments,
+                                  pdf_identifier=identifier[:32].encode("ascii"))
 
 
 @contextmanager
