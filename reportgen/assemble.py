@@ -190,7 +190,6 @@ def results(up: Upright, k: AtKG, fsc: float, limits: dict | None = None) -> Res
     case = up.case
     heel, gz, kn = gz_grid(k.curve)
     cond_file, vessel_file = attachment_names(case.condition_name, case.vessel_name)
-    marks, extras = marks_sections(up), extras_sections(up, k)
     return Results.model_validate({
         "software": {"name": NAME, "version": __version__},
         "inputs_sha256": case.inputs_sha256,
@@ -203,11 +202,8 @@ def results(up: Upright, k: AtKG, fsc: float, limits: dict | None = None) -> Res
         "angles": angles_section(up, k),
         "weather": weather_section(k.weather),
         "load_line": load_line_section(up),
-        "draught_marks": marks["draught_marks"],
-        "observed": marks["observed"],
-        "timber": extras["timber"],
-        "passengers": extras["passengers"],
-        "icing": extras["icing"],
+        **marks_sections(up),  # draught_marks, observed
+        **extras_sections(up, k),  # timber, passengers, icing
         "grain": grain_section(up, k),
         "limits": limits,
         "criteria": [criterion(c) for c in k.checks],

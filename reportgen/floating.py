@@ -125,7 +125,7 @@ def float_trimmed(table: HydroTable, disp_t: float, lcg_m: float) -> tuple[float
         return float(trims[-1]), row(len(trims) - 1)
     # Outside: estimate how far, from the MCT of the nearest end, to say so.
     end = 0 if abs(f[0]) < abs(f[-1]) else -1
-    est = trims[end] + (disp_t * f[end]) / (100.0 * row(end % len(trims))["mct"])
+    est = trims[end] + (disp_t * f[end]) / (100.0 * row(end)["mct"])
     raise InputError(f"the condition trims about {est:+.2f} m (LCG {lcg_m:.3f} m), outside the "
                      f"hydrostatic table's trims {trims[0]:g} to {trims[-1]:g} m; the tables "
                      f"are not extrapolated")

@@ -74,10 +74,8 @@ class HullGeometry:
     deck_edge_yz: (n, 2) starboard deck-edge point (last offset) of each station, m.
     keel_z_m: height of each station's lowest offset point (the keel profile), m.
     vertices: each section's exterior ring, (k, 2) arrays of (y, z), m.
-    coords_yz, coords_index: the coordinates of every section ring (closed, anticlockwise
-    about the part it bounds), and the station of each.
-    edges_yz: every ring edge as a column (y0, z0, y1, z1), by station; edge_station: the
-    station of each edge.
+    edges_yz: every edge of every section ring (rings anticlockwise about the part they
+    bound) as a column (y0, z0, y1, z1), by station; edge_station: the station of each edge.
     """
 
     x_m: np.ndarray
@@ -88,8 +86,6 @@ class HullGeometry:
     deck_edge_yz: np.ndarray
     keel_z_m: np.ndarray
     vertices: tuple[np.ndarray, ...]
-    coords_yz: np.ndarray
-    coords_index: np.ndarray
     edges_yz: np.ndarray
     edge_station: np.ndarray
 
@@ -126,8 +122,6 @@ def prepare_hull(hull: Hull, length_bp_m: float) -> HullGeometry:
         deck_edge_yz=hull.deck_edge_yz,
         keel_z_m=np.array([float(np.min(p[:, 1])) for p in hull.half_points]),
         vertices=verts,
-        coords_yz=coords,
-        coords_index=ring_station[ring_of],
         edges_yz=np.vstack([coords[edge_start].T, coords[edge_start + 1].T]),
         edge_station=ring_station[ring_of[edge_start]],
     )
@@ -180,8 +174,8 @@ def clip_sections(geom: HullGeometry, plane: Plane) -> SectionSlices:
     Green's theorem: any calculus text. clip_sections_by_intersection, shapely's general
     overlay, is the reference the tests hold this to.
     """
-    t = np.radians(plane.heel_deg)
-    cos, sin = float(np.cos(t)), float(np.sin(t))  # u = (cos, sin), n = (-sin, cos)
+    u, _ = _axes(plane.heel_deg)
+    cos, sin = float(u[0]), float(u[1])  # u = (cos, sin), n = (-sin, cos)
     c = plane_height(geom, plane)
     rot = np.array([[cos, sin, 0.0, 0.0], [-sin, cos, 0.0, 0.0],
                     [0.0, 0.0, cos, sin], [0.0, 0.0, -sin, cos]])
