@@ -69,14 +69,10 @@ def limits(vessel: Path, trim: float, as_json: bool, output: Path | None, bookle
 def _approval_beside(vessel: Path, raw: bytes) -> bytes | None:
     """VESSEL.yaml.p7s beside the vessel file (SPEC "Verification": the document embeds it and
     prints who approved the data), checked against the vessel bytes now; None without one."""
-    from reportgen.docinfo import APPROVAL_SUFFIX
-    from reportgen.files import read_input
+    from reportgen.inputs.case import approval_beside
     from reportgen.report.render import approval_described
 
-    path = vessel.with_name(vessel.name + APPROVAL_SUFFIX)
-    if not path.is_file():
-        return None
-    p7s = read_input(path, "vessel data approval")
+    p7s = approval_beside(vessel)
     approval_described(p7s, raw, vessel.name)  # refused here, before the curve is computed
     return p7s
 

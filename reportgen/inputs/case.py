@@ -198,11 +198,14 @@ def load_case(condition_path: str | Path) -> Case:
     data = parse(cond_raw, str(cpath))
     vpath = vessel_path(cpath, data, cond_raw)
     vessel_raw = read_input(vpath, "vessel data file")
-    approval_path = vpath.with_name(vpath.name + APPROVAL_SUFFIX)
-    approval = (read_input(approval_path, "vessel data approval")
-                if approval_path.is_file() else None)
-    return case_from_bytes(cond_raw, vessel_raw, cpath.name, vpath.name, approval,
-                           str(cpath), str(vpath), data)
+    return case_from_bytes(cond_raw, vessel_raw, cpath.name, vpath.name,
+                           approval_beside(vpath), str(cpath), str(vpath), data)
+
+
+def approval_beside(vessel_path: Path) -> bytes | None:
+    """The bytes of the vessel's approval VESSEL.yaml.p7s beside its file, None without one."""
+    path = vessel_path.with_name(vessel_path.name + APPROVAL_SUFFIX)
+    return read_input(path, "vessel data approval") if path.is_file() else None
 
 
 def load_case_bytes(condition_bytes: bytes, vessel_bytes: bytes, condition_name: str,
