@@ -5,7 +5,8 @@ time of the libraries it needs. Targets (issue "house in order"): 0.5 ms per con
 
 What is kept between evaluations (so that "1000 conditions" measures 1000 evaluations, not a
 cache): only each vessel's arrays and prepared hull (VesselData, made once per vessel object,
-reportgen.vesseldata) and the criteria modules' lookup. Everything of a condition (loading,
+reportgen.vesseldata), the criteria modules' lookup, and each case's SHA-256 of its input
+files (a property of the bytes read, computed once per case). Everything of a condition (loading,
 floating, the heel scan on the hull, the angles, every KG of the margin search, the results)
 is computed afresh at each call.
 
