@@ -34,11 +34,11 @@ class Rounded(list):
 
 
 def rounded(values: Sequence[float]) -> Rounded:
-    """The floats of `values` as `clean` makes each (round(x, DECIMALS), −0.0 as 0.0,
+    """The floats of `values` as `round_float` makes each (round(x, DECIMALS), −0.0 as 0.0,
     non-finite as None), rounded as one numpy array: rint(x·10⁶)/10⁶, which equals Python's
     correctly rounded round(x, 6) (the division of an integer below 2⁵³ by 10⁶ is correctly
     rounded too) except where x·10⁶ lies within its own rounding error of a half, or is too
-    large for an exact integer; those few, and non-finite values, go through `clean`."""
+    large for an exact integer; those few, and non-finite values, go through `round_float`."""
     a = np.asarray(values, dtype=float)
     scale = 10.0 ** DECIMALS
     y = a * scale
@@ -46,34 +46,88 @@ def rounded(values: Sequence[float]) -> Rounded:
     with np.errstate(invalid="ignore"):
         exact = (np.abs(y - np.floor(y) - 0.5) > np.spacing(np.abs(y))) & (np.abs(y) < 2.0**52)
     for i in np.flatnonzero(~exact):  # NaN compares False: non-finite values land here
-        out[i] = clean(float(a[i]))
+        out[i] = round_float(float(a[i]))
     return Rounded(out)
 
 
+def round_float(value: float) -> float | None:
+    """One float as the document has it: round(x, DECIMALS) (Python's, correctly rounded,
+    ties to even), −0.0 as 0.0, non-finite as None. The reference of `rounded`."""
+    if not math.isfinite(value):
+        return None
+    r = round(value, DECIMALS)
+    return 0.0 if r == 0 else r
+
+
+_PLAIN = frozenset((str, int, bool, type(None)))  # kept as they are
+
+
 def clean(value: Any) -> Any:
-    """Plain JSON data: floats rounded to DECIMALS (−0.0 as 0.0), tuples as lists, numpy
-    scalars as Python numbers, non-finite floats as null; key order kept."""
+    """Plain JSON data: floats rounded as `round_float` (−0.0 as 0.0, non-finite as null),
+    tuples as lists, numpy scalars as Python numbers, models as their dump; key order kept.
+
+    One walk copies the containers and notes where each float goes; the floats are then
+    rounded together (`rounded`, value for value as `round_float`) and put in place."""
+    if type(value) is float:
+        return round_float(value)
+    where: list = []  # (container, key or index) of each float, in walk order
+    floats: list[float] = []
+    out = _walk(value, where, floats)
+    if floats:
+        for (container, key), r in zip(where, rounded(floats), strict=True):
+            container[key] = r
+    return out
+
+
+def _walk(value: Any, where: list, floats: list) -> Any:
+    """`value` with its containers copied as plain dicts and lists; each float is left in
+    place and noted in `where` and `floats` (for `clean` to round)."""
     t = type(value)
-    if t is Rounded:
-        return value
-    if t is float:
-        if not math.isfinite(value):
-            return None
-        r = round(value, DECIMALS)
-        return 0.0 if r == 0 else r
     if t is dict:
-        return {str(k): clean(v) for k, v in value.items()}
+        out: Any = {}
+        for k, v in value.items():
+            if type(k) is not str:
+                k = str(k)
+            tv = type(v)
+            if tv is float:
+                out[k] = v
+                where.append((out, k))
+                floats.append(v)
+            elif tv in _PLAIN:
+                out[k] = v
+            else:
+                out[k] = _walk(v, where, floats)
+        return out
     if t is list or t is tuple:
-        return [clean(v) for v in value]
-    if value is None or t is bool or t is str or t is int:
+        out = []
+        for v in value:
+            tv = type(v)
+            if tv is float:
+                where.append((out, len(out)))
+                floats.append(v)
+                out.append(v)
+            elif tv in _PLAIN:
+                out.append(v)
+            else:
+                out.append(_walk(v, where, floats))
+        return out
+    if t is Rounded or t in _PLAIN:
         return value
+    if t is float:  # a float inside a dict or list is noted there; this is a bare one
+        return round_float(value)
     if isinstance(value, BaseModel):
-        return clean(value.model_dump())
+        return _walk(value.model_dump(), where, floats)
     if hasattr(value, "item"):  # numpy scalar
-        return clean(value.item())
+        return _float_or(value.item(), where, floats)
     if isinstance(value, float):
-        return clean(float(value))
+        return _float_or(float(value), where, floats)
     raise TypeError(f"cannot put {type(value).__name__} into the results document")
+
+
+def _float_or(value: Any, where: list, floats: list) -> Any:
+    """A converted scalar: a float is rounded at once (it has no container here), anything
+    else walked."""
+    return round_float(value) if type(value) is float else _walk(value, where, floats)
 
 
 class Section(BaseModel):
