@@ -18,13 +18,15 @@ side, which is treated as if it had a twin; stated on the sheet).
 
 from __future__ import annotations
 
+from bisect import bisect_left
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 import numpy as np
 
 from reportgen.errors import InputError
-from reportgen.floating import check_in_range
+from reportgen.floating import check_in_range, outside, range_error
+from reportgen.interp import interp, interp_columns
 from reportgen.vesseldata import AngleTable
 
 NO_FLOODING_ANGLE_DEG = 90.0  # SPEC.md: with neither openings nor a table
@@ -57,18 +59,19 @@ class Angles:
 def from_table(table: AngleTable, displacement_table_t: float, trim_m: float, what: str
                ) -> float:
     """An angle (deg) from a displacement (-> trim) table: linear, never extrapolated."""
-    check_in_range(displacement_table_t, table.displacement, what)
-    rows = [float(np.interp(displacement_table_t, table.displacement, row))
-            for row in table.angle]
-    if table.trims is None or len(table.trims) == 1:
+    disp, lo, hi, angle, trims = table.lists
+    if outside(displacement_table_t, lo, hi):
+        raise range_error(displacement_table_t, lo, hi, what)
+    rows = interp_columns(displacement_table_t, disp, angle)
+    if trims is None or len(trims) == 1:
         return rows[0]
     check_in_range(trim_m, table.trims, f"{what}'s trims", unit="m")
-    return float(np.interp(trim_m, table.trims, rows))
+    return interp(trim_m, trims, rows)
 
 
-def _bracket(axis: np.ndarray, value: float) -> list[int]:
+def _bracket(axis: list[float], value: float) -> list[int]:
     """The indices of the table entries on either side of `value` (one when it is an entry)."""
-    i = int(np.clip(np.searchsorted(axis, value), 0, len(axis) - 1))
+    i = min(bisect_left(axis, value), len(axis) - 1)
     return sorted({i, max(i - 1, 0)} if axis[i] != value else {i})
 
 
@@ -79,10 +82,10 @@ def governing_opening(table: AngleTable, displacement_table_t: float, trim_m: fl
     None when the table names no openings."""
     if table.opening is None:
         return None
-    ks = [0] if table.trims is None or len(table.trims) == 1 else \
-        _bracket(table.trims, trim_m)
-    corners = [(table.angle[k][i], table.opening[k][i])
-               for k in ks for i in _bracket(table.displacement, displacement_table_t)]
+    disp, _, _, angle, trims = table.lists
+    ks = [0] if trims is None or len(trims) == 1 else _bracket(trims, trim_m)
+    corners = [(angle[k][i], table.opening[k][i])
+               for k in ks for i in _bracket(disp, displacement_table_t)]
     return str(min(corners, key=lambda c: c[0])[1])
 
 

@@ -46,6 +46,7 @@ import numpy as np
 
 from reportgen.errors import InputError
 from reportgen.floating import HydroTable, waterline_height
+from reportgen.interp import interp, interp_columns
 
 MARKS = ("aft", "mid", "fore")
 MCT_HALF_SPAN_M = 0.5  # MCT read 50 cm above and below the quarter mean (UN/ECE code)
@@ -137,9 +138,9 @@ def table_at_trim(table: HydroTable, draft_mid_m: float, trim_m: float) -> float
                          f"table's trims {trims[0]:g} to {trims[-1]:g} m; the table is not "
                          f"extrapolated")
     _in_table(draft_mid_m, table.draft[0], "quarter mean draught")
-    rows = [float(np.interp(draft_mid_m, table.draft[0], table.displacement[k]))
-            for k in range(len(trims))]
-    return float(np.interp(trim_m, trims, rows))
+    rows = table.row_lists  # per trim: (displacement, ..., columns), as lists
+    at = interp_columns(draft_mid_m, rows[0][3]["draft"], [r[0] for r in rows])
+    return interp(trim_m, trims.tolist(), at)
 
 
 @dataclass(frozen=True)

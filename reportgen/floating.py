@@ -23,10 +23,12 @@ tables). A displacement or trim outside the table raises InputError: never extra
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 
 from reportgen.errors import InputError
+from reportgen.interp import interp_columns
 
 COLUMNS = ("draft", "lcb", "lcf", "kmt", "mct", "tpc", "lwl", "cb")
 
@@ -50,6 +52,18 @@ class HydroTable:
     tpc: np.ndarray
     lwl: np.ndarray | None
     cb: np.ndarray | None
+
+    @cached_property
+    def row_lists(self) -> list[tuple[list[float], float, float, dict[str, list[float] | None]]]:
+        """Per trim row: (displacement as a list, its least and largest value, each column of
+        COLUMNS as a list or None), made once, for reportgen.interp."""
+        out = []
+        for k in range(self.displacement.shape[0]):
+            xp = self.displacement[k]
+            cols = {n: None if getattr(self, n) is None else getattr(self, n)[k].tolist()
+                    for n in COLUMNS}
+            out.append((xp.tolist(), float(np.min(xp)), float(np.max(xp)), cols))
+        return out
 
 
 @dataclass(frozen=True)
@@ -79,26 +93,36 @@ def table_displacement(displacement_t: float, water_density: float,
     return displacement_t * table_density / water_density
 
 
+def outside(value: float, lo: float, hi: float) -> bool:
+    """Whether `value` lies outside lo..hi beyond a relative 1e-9 (no extrapolation)."""
+    tol = 1e-9 * max(abs(lo), abs(hi), 1.0)
+    return not lo - tol <= value <= hi + tol
+
+
+def range_error(value: float, lo: float, hi: float, what: str, unit: str = "t") -> InputError:
+    return InputError(f"the {'displacement' if unit == 't' else 'value'} {value:.1f} {unit} "
+                      f"is outside the {what} ({lo:g} to {hi:g} {unit}); the tables are not "
+                      f"extrapolated")
+
+
 def check_in_range(value: float, column: np.ndarray, what: str, unit: str = "t") -> None:
     """InputError when `value` lies outside the table column (no extrapolation)."""
     lo, hi = float(np.min(column)), float(np.max(column))
-    tol = 1e-9 * max(abs(lo), abs(hi), 1.0)
-    if not lo - tol <= value <= hi + tol:
-        raise InputError(f"the {'displacement' if unit == 't' else 'value'} {value:.1f} {unit} "
-                         f"is outside the {what} ({lo:g} to {hi:g} {unit}); the tables are not "
-                         f"extrapolated")
+    if outside(value, lo, hi):
+        raise range_error(value, lo, hi, what, unit)
 
 
 def _row_values(table: HydroTable, k: int, disp_t: float,
                 names: tuple[str, ...] = COLUMNS) -> dict[str, float | None]:
     """Every column (or those named) at Δ_t in trim row k, linear in displacement."""
-    xp = table.displacement[k]
-    check_in_range(disp_t, xp, "hydrostatic table" + (
-        "" if table.trims is None else f" at trim {table.trims[k]:g} m"))
-    out: dict[str, float | None] = {}
-    for name in names:
-        col = getattr(table, name)
-        out[name] = None if col is None else float(np.interp(disp_t, xp, col[k]))
+    xp, lo, hi, cols = table.row_lists[k]
+    if outside(disp_t, lo, hi):
+        raise range_error(disp_t, lo, hi, "hydrostatic table" + (
+            "" if table.trims is None else f" at trim {table.trims[k]:g} m"))
+    present = [n for n in names if cols[n] is not None]
+    out: dict[str, float | None] = dict.fromkeys(names)
+    out.update(zip(present, interp_columns(disp_t, xp, [cols[n] for n in present]),
+                   strict=True))
     return out
 
 
@@ -108,21 +132,21 @@ def _blend(a: dict, b: dict, w: float) -> dict:
 
 def float_trimmed(table: HydroTable, disp_t: float, lcg_m: float) -> tuple[float, dict]:
     """(trim m, columns) at which LCB = LCG, between the table's trims (linear in trim)."""
-    trims = table.trims
-    lcb = [_row_values(table, k, disp_t, ("lcb",))["lcb"] for k in range(len(trims))]
-    f = np.array(lcb) - lcg_m  # LCB − LCG at each trim
+    trims = table.trims.tolist()
+    f = [_row_values(table, k, disp_t, ("lcb",))["lcb"] - lcg_m  # LCB − LCG at each trim
+         for k in range(len(trims))]
 
     def row(k: int) -> dict:  # every column, only at the trims the answer is made from
         return _row_values(table, k, disp_t)
 
     for k in range(len(trims) - 1):
         if f[k] == 0.0:
-            return float(trims[k]), row(k)
+            return trims[k], row(k)
         if f[k] * f[k + 1] <= 0.0:
             w = f[k] / (f[k] - f[k + 1])
-            return float(trims[k] + w * (trims[k + 1] - trims[k])), _blend(row(k), row(k + 1), w)
+            return trims[k] + w * (trims[k + 1] - trims[k]), _blend(row(k), row(k + 1), w)
     if f[-1] == 0.0:
-        return float(trims[-1]), row(len(trims) - 1)
+        return trims[-1], row(len(trims) - 1)
     # Outside: estimate how far, from the MCT of the nearest end, to say so.
     end = 0 if abs(f[0]) < abs(f[-1]) else -1
     est = trims[end] + (disp_t * f[end]) / (100.0 * row(end)["mct"])

@@ -13,11 +13,14 @@ count is decided by reportgen.freesurface (IS Code 2008 Part B 3.1).
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cached_property
+from math import isnan
 from typing import Literal
 
 import numpy as np
 
 from reportgen.errors import InputError
+from reportgen.interp import interp, interp_columns
 
 
 @dataclass(frozen=True, eq=False)  # arrays: == has no truth value; compared by identity
@@ -36,14 +39,20 @@ class TankTable:
         """From the columns sounding, volume, lcg, vcg, tcg, fsi, in that order."""
         return cls(*(np.asarray(c, dtype=float) for c in columns))
 
-    @property
+    @cached_property
     def capacity_m3(self) -> float:
         return float(self.volume[-1])
 
-    @property
+    @cached_property
     def fsi_max_m4(self) -> float:
         """The largest free-surface inertia of the table, m⁴ (Part B 3.1.3.2)."""
         return float(np.max(self.fsi))
+
+    @cached_property
+    def as_lists(self) -> tuple[list[float], list[float], list[list[float]]]:
+        """(sounding, volume, [lcg, vcg, tcg, fsi]) as lists, for reportgen.interp."""
+        return (self.sounding.tolist(), self.volume.tolist(),
+                [c.tolist() for c in (self.lcg, self.vcg, self.tcg, self.fsi)])
 
 
 @dataclass(frozen=True)
@@ -87,7 +96,7 @@ def tank_volume(table: TankTable, density_t_m3: float, kind: str, value: float,
                      f"ullage {value:g} m (sounding {sounding:.3f} m)")
             raise InputError(f"{label}: {given} is outside the tank's sounding table "
                              f"({lo:g} to {hi:g} m)")
-        volume = float(np.interp(sounding, table.sounding, table.volume))
+        volume = interp(sounding, *table.as_lists[:2])
     cap = table.capacity_m3
     if not table.volume[0] - 1e-9 <= volume <= cap * (1 + 1e-9) + 1e-9:
         raise InputError(f"{label}: {kind} {value:g} gives {volume:.3f} m³, outside the tank's "
@@ -100,18 +109,16 @@ def tank_state(table: TankTable, density_t_m3: float, kind: str, value: float,
     """The tank at a filling (see tank_volume); the sounding follows from the volume by
     inverse interpolation, and the centres and fsi at that sounding."""
     volume, sounding = tank_volume(table, density_t_m3, kind, value, ullage_reference_m, label)
-    if np.isnan(sounding):
-        sounding = float(np.interp(volume, table.volume, table.sounding))
-    at = (sounding, table.sounding)
+    soundings, volumes, columns = table.as_lists
+    if isnan(sounding):
+        sounding = interp(volume, volumes, soundings)
+    lcg, vcg, tcg, fsi = interp_columns(sounding, soundings, columns)
     return TankState(
         sounding=float(sounding),
         volume=float(volume),
         percent=float(100.0 * volume / table.capacity_m3),
         mass=float(volume * density_t_m3),
-        lcg=float(np.interp(*at, table.lcg)),
-        vcg=float(np.interp(*at, table.vcg)),
-        tcg=float(np.interp(*at, table.tcg)),
-        fsi_m4=float(np.interp(*at, table.fsi)),
+        lcg=lcg, vcg=vcg, tcg=tcg, fsi_m4=fsi,
     )
 
 

@@ -32,6 +32,14 @@ class AngleTable:
     angle: np.ndarray
     opening: np.ndarray | None = None  # (k, n) names of the governing openings, or None
 
+    @cached_property
+    def lists(self) -> tuple[list[float], float, float, list[list[float]], list[float] | None]:
+        """(displacement, its least and largest value, the angle rows, the trims or None) as
+        lists, made once, for reportgen.interp."""
+        d = self.displacement
+        return (d.tolist(), float(np.min(d)), float(np.max(d)), self.angle.tolist(),
+                None if self.trims is None else self.trims.tolist())
+
 
 def _trims(values: list[float] | None) -> np.ndarray | None:
     return None if values is None else np.asarray(values, dtype=float)
