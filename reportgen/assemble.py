@@ -10,7 +10,7 @@ from reportgen.criteria.core import Check
 from reportgen.criteria.sets import SETS
 from reportgen.criteria.weather import WIND_PRESSURE_N_M2, Weather
 from reportgen.inputs import Case
-from reportgen.results import Results, rounded
+from reportgen.results import Floats, Results
 from reportgen.stability import gz_grid, list_side
 from reportgen.stages import AtKG, Upright, listed
 
@@ -198,7 +198,7 @@ def results(up: Upright, k: AtKG, fsc: float, limits: dict | None = None) -> Res
         "vessel": vessel_section(case),
         "loading": loading_section(up),
         "hydrostatics": hydrostatics_section(up, k, fsc),
-        "gz": {"heel": rounded(heel), "gz": rounded(gz), "kn": rounded(kn)},  # numpy at once
+        "gz": {"heel": Floats(heel), "gz": Floats(gz), "kn": Floats(kn)},  # rounded at once
         "angles": angles_section(up, k),
         "weather": weather_section(k.weather),
         "load_line": load_line_section(up),

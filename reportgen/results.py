@@ -29,11 +29,12 @@ OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison", "t
                      "observed")  # left out of the JSON when None
 
 
-class Rounded(list):
-    """A list of floats already as `clean` makes them (see `rounded`); `clean` keeps it."""
+class Floats(list):
+    """A list of plain floats (or None) for `clean` to round with the document's other floats
+    in one go, rather than one by one: the GZ arrays."""
 
 
-def rounded(values: Sequence[float]) -> Rounded:
+def rounded(values: Sequence[float]) -> list[float | None]:
     """The floats of `values` as `round_float` makes each (round(x, DECIMALS), −0.0 as 0.0,
     non-finite as None), rounded as one numpy array: rint(x·10⁶)/10⁶, which equals Python's
     correctly rounded round(x, 6) (the division of an integer below 2⁵³ by 10⁶ is correctly
@@ -47,7 +48,7 @@ def rounded(values: Sequence[float]) -> Rounded:
         exact = (np.abs(y - np.floor(y) - 0.5) > np.spacing(np.abs(y))) & (np.abs(y) < 2.0**52)
     for i in np.flatnonzero(~exact):  # NaN compares False: non-finite values land here
         out[i] = round_float(float(a[i]))
-    return Rounded(out)
+    return out
 
 
 def round_float(value: float) -> float | None:
@@ -66,22 +67,30 @@ def clean(value: Any) -> Any:
     """Plain JSON data: floats rounded as `round_float` (−0.0 as 0.0, non-finite as null),
     tuples as lists, numpy scalars as Python numbers, models as their dump; key order kept.
 
-    One walk copies the containers and notes where each float goes; the floats are then
-    rounded together (`rounded`, value for value as `round_float`) and put in place."""
+    One walk copies the containers and notes where each float goes (and each `Floats` list);
+    all the floats are then rounded together (`rounded`, value for value as `round_float`)
+    and put in place."""
     if type(value) is float:
         return round_float(value)
     where: list = []  # (container, key or index) of each float, in walk order
     floats: list[float] = []
-    out = _walk(value, where, floats)
+    lists: list = []  # (container, key or index, Floats) of each Floats list
+    out = _walk(value, where, floats, lists)
+    i = len(floats)  # the lists' floats follow the single ones
+    for _, _, f in lists:
+        floats += f
     if floats:
-        for (container, key), r in zip(where, rounded(floats), strict=True):
-            container[key] = r
+        r = rounded(floats)
+        for (container, key), v in zip(where, r[:i], strict=True):
+            container[key] = v
+        for container, key, f in lists:
+            container[key], i = r[i:i + len(f)], i + len(f)
     return out
 
 
-def _walk(value: Any, where: list, floats: list) -> Any:
+def _walk(value: Any, where: list, floats: list, lists: list) -> Any:
     """`value` with its containers copied as plain dicts and lists; each float is left in
-    place and noted in `where` and `floats` (for `clean` to round)."""
+    place and noted in `where` and `floats`, each `Floats` list in `lists` (for `clean`)."""
     t = type(value)
     if t is dict:
         out: Any = {}
@@ -95,8 +104,11 @@ def _walk(value: Any, where: list, floats: list) -> Any:
                 floats.append(v)
             elif tv in _PLAIN:
                 out[k] = v
+            elif tv is Floats:
+                out[k] = v
+                lists.append((out, k, v))
             else:
-                out[k] = _walk(v, where, floats)
+                out[k] = _walk(v, where, floats, lists)
         return out
     if t is list or t is tuple:
         out = []
@@ -109,25 +121,25 @@ def _walk(value: Any, where: list, floats: list) -> Any:
             elif tv in _PLAIN:
                 out.append(v)
             else:
-                out.append(_walk(v, where, floats))
+                out.append(_walk(v, where, floats, lists))
         return out
-    if t is Rounded or t in _PLAIN:
+    if t in _PLAIN:
         return value
-    if t is float:  # a float inside a dict or list is noted there; this is a bare one
-        return round_float(value)
+    if t is float or t is Floats:  # bare: there is no container to note
+        return round_float(value) if t is float else rounded(value)
     if isinstance(value, BaseModel):
-        return _walk(value.model_dump(), where, floats)
+        return _walk(value.model_dump(), where, floats, lists)
     if hasattr(value, "item"):  # numpy scalar
-        return _float_or(value.item(), where, floats)
+        return _scalar(value.item(), where, floats, lists)
     if isinstance(value, float):
-        return _float_or(float(value), where, floats)
+        return _scalar(float(value), where, floats, lists)
     raise TypeError(f"cannot put {type(value).__name__} into the results document")
 
 
-def _float_or(value: Any, where: list, floats: list) -> Any:
+def _scalar(value: Any, where: list, floats: list, lists: list) -> Any:
     """A converted scalar: a float is rounded at once (it has no container here), anything
     else walked."""
-    return round_float(value) if type(value) is float else _walk(value, where, floats)
+    return round_float(value) if type(value) is float else _walk(value, where, floats, lists)
 
 
 class Section(BaseModel):
