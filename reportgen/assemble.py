@@ -10,7 +10,8 @@ from reportgen.criteria.core import Check
 from reportgen.criteria.sets import SETS
 from reportgen.criteria.weather import WIND_PRESSURE_N_M2, Weather
 from reportgen.inputs import Case
-from reportgen.results import Floats, Results
+from reportgen.plainjson import Floats
+from reportgen.results import Results
 from reportgen.stability import gz_grid, list_side
 from reportgen.stages import AtKG, Upright, listed
 

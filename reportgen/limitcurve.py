@@ -28,7 +28,7 @@ from reportgen.inputs import Case
 from reportgen.inputs.condition import Condition
 from reportgen.inputs.vessel import Lightship, Vessel
 from reportgen.limitsmodel import LimitsDocument
-from reportgen.results import clean
+from reportgen.plainjson import clean
 from reportgen.vesseldata import VesselData, vessel_data
 
 LIMITS_FORMAT = docinfo.LIMITS_FORMAT

@@ -236,46 +236,79 @@ class Loading:
     rule: str  # code | actual | maximum
 
 
-def condition_loading(vessel, condition, tank_tables: dict[str, TankTable]) -> Loading:
+@dataclass(frozen=True, eq=False)  # holds arrays: compared by identity
+class VesselTank:
+    """A tank of the vessel as the loading reads it, made once per vessel
+    (reportgen.vesseldata): its file facts, its table, and its free surface and state when a
+    condition leaves it empty (reportgen.freesurface.TankSurface; the state made when first
+    needed, as a table that does not start at 0 m³ refuses it)."""
+
+    id: str
+    name: str
+    content: str
+    role: str  # fixed | consumable (the tank's role, or its content's default)
+    pair: str | None
+    density: float  # t/m³
+    ullage_reference: float | None  # m
+    table: TankTable
+    empty_surface: object  # reportgen.freesurface.TankSurface at 0 %
+
+    @cached_property
+    def empty_state(self) -> TankState:
+        return tank_state(self.table, self.density, "volume", 0.0)
+
+
+def vessel_tank(tank, table: TankTable) -> VesselTank:
+    """The VesselTank of a vessel file's tank model and its table's arrays."""
+    from reportgen.freesurface import TankSurface
+
+    role, density = tank.fs_role, tank.density
+    return VesselTank(tank.id, tank.name, tank.content, role, tank.pair, density,
+                      tank.ullage_reference, table,
+                      TankSurface(tank.id, tank.content, role, tank.pair, 0.0, 0.0 * density,
+                                  table.fsi_max_m4 * density))
+
+
+def condition_loading(vessel, condition, tanks: tuple[VesselTank, ...]) -> Loading:
     """Loading lines of a condition: the lightship, every tank named in the condition or whose
     free surface counts (in the vessel's tank order), then the items in the condition's order.
 
-    vessel, condition: reportgen.inputs models; tank_tables: arrays of each tank's table.
+    vessel, condition: reportgen.inputs models; tanks: the vessel's tanks (vessel_tank), in
+    the vessel's order.
     """
     from reportgen.freesurface import TankSurface, counted_tanks, is_slack
 
     full = vessel.calculation.full_percent
     states: dict[str, tuple[TankState, float, float | None]] = {}
     surfaces: list[TankSurface] = []
-    for tank in vessel.tanks:
-        table = tank_tables[tank.id]
-        filling = condition.tanks.get(tank.id)
-        density = tank.density
-        if filling is not None:
-            density = filling.density if filling.density is not None else tank.density
-            state = tank_state(table, density, filling.kind, filling.value,
-                               tank.ullage_reference, label=f"tanks.{tank.id}")
-            ullage = filling.value if filling.kind == "ullage" else None
-            states[tank.id] = (state, density, ullage)
-        percent = states[tank.id][0].percent if tank.id in states else 0.0
-        fsi = states[tank.id][0].fsi_m4 if tank.id in states else 0.0
-        surfaces.append(TankSurface(tank.id, tank.content, tank.fs_role, tank.pair, percent,
-                                    fsi * density, table.fsi_max_m4 * density))
+    fillings = condition.tanks
+    for t in tanks:
+        filling = fillings.get(t.id)
+        if filling is None:
+            surfaces.append(t.empty_surface)
+            continue
+        density = filling.density if filling.density is not None else t.density
+        kind = filling.kind
+        value = getattr(filling, kind)
+        state = tank_state(t.table, density, kind, value, t.ullage_reference,
+                           label=f"tanks.{t.id}")
+        states[t.id] = (state, density, value if kind == "ullage" else None)
+        surfaces.append(TankSurface(t.id, t.content, t.role, t.pair, state.percent,
+                                    state.fsi_m4 * density, t.table.fsi_max_m4 * density))
     counted = {c.id: c for c in counted_tanks(surfaces, condition.free_surface, full)}
 
     ls = vessel.lightship
     lines = [lightship_line(ls.mass, ls.lcg, ls.vcg, ls.tcg)]
-    for tank in vessel.tanks:
-        if tank.id not in states and tank.id not in counted:
+    for t in tanks:
+        if t.id in states:
+            state, density, ullage = states[t.id]
+        elif t.id in counted:  # empty, but its free surface counts (Part B 3.1.4, or maximum)
+            state, density, ullage = t.empty_state, t.density, None
+        else:
             continue
-        if tank.id in states:
-            state, density, ullage = states[tank.id]
-        else:  # empty, but its free surface counts (Part B 3.1.4, or the maximum rule)
-            state = tank_state(tank_tables[tank.id], tank.density, "volume", 0.0)
-            density, ullage = tank.density, None
-        c = counted.get(tank.id)
-        lines.append(tank_line(tank.id, tank.name, tank.content, tank.fs_role, density, state,
-                               ullage, is_slack(state.percent, full),
+        c = counted.get(t.id)
+        lines.append(tank_line(t.id, t.name, t.content, t.role, density, state, ullage,
+                               is_slack(state.percent, full),
                                c.fsm_tm if c else 0.0, c.reason if c else None))
     if condition.grain is not None:  # the grain modules are imported only for grain
         from reportgen.grainload import grain_cargo

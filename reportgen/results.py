@@ -12,134 +12,18 @@ objects, not strings (no `from __future__ import annotations`), which pydantic w
 compile one by one at import.
 """
 
-import math
-from collections.abc import Sequence
 from typing import Any, Literal
 
-import numpy as np
 from pydantic import BaseModel, ConfigDict, Field, model_serializer, model_validator
 
+from reportgen.plainjson import DECIMALS, clean, rounded  # noqa: F401 (DECIMALS, rounded: re-exported)
 from reportgen.results_draughts import DraughtMarks, Observed
 from reportgen.results_special import Icing, Passengers, Timber
 
 RESULTS_FORMAT = "reportgen/results-1"
-DECIMALS = 6  # every float in the document is rounded to this many decimals
 OPTIONAL_SECTIONS = ("weather", "load_line", "grain", "limits", "comparison", "timber",
                      "passengers", "icing", "draught_marks",
                      "observed")  # left out of the JSON when None
-
-
-class Floats(list):
-    """A list of plain floats (or None) for `clean` to round with the document's other floats
-    in one go, rather than one by one: the GZ arrays."""
-
-
-def rounded(values: Sequence[float]) -> list[float | None]:
-    """The floats of `values` as `round_float` makes each (round(x, DECIMALS), −0.0 as 0.0,
-    non-finite as None), rounded as one numpy array: rint(x·10⁶)/10⁶, which equals Python's
-    correctly rounded round(x, 6) (the division of an integer below 2⁵³ by 10⁶ is correctly
-    rounded too) except where x·10⁶ lies within its own rounding error of a half, or is too
-    large for an exact integer; those few, and non-finite values, go through `round_float`."""
-    a = np.asarray(values, dtype=float)
-    scale = 10.0 ** DECIMALS
-    y = a * scale
-    out = (np.rint(y) / scale + 0.0).tolist()  # + 0.0: −0.0 becomes 0.0
-    with np.errstate(invalid="ignore"):
-        exact = (np.abs(y - np.floor(y) - 0.5) > np.spacing(np.abs(y))) & (np.abs(y) < 2.0**52)
-    for i in np.flatnonzero(~exact):  # NaN compares False: non-finite values land here
-        out[i] = round_float(float(a[i]))
-    return out
-
-
-def round_float(value: float) -> float | None:
-    """One float as the document has it: round(x, DECIMALS) (Python's, correctly rounded,
-    ties to even), −0.0 as 0.0, non-finite as None. The reference of `rounded`."""
-    if not math.isfinite(value):
-        return None
-    r = round(value, DECIMALS)
-    return 0.0 if r == 0 else r
-
-
-_PLAIN = frozenset((str, int, bool, type(None)))  # kept as they are
-
-
-def clean(value: Any) -> Any:
-    """Plain JSON data: floats rounded as `round_float` (−0.0 as 0.0, non-finite as null),
-    tuples as lists, numpy scalars as Python numbers, models as their dump; key order kept.
-
-    One walk copies the containers and notes where each float goes (and each `Floats` list);
-    all the floats are then rounded together (`rounded`, value for value as `round_float`)
-    and put in place."""
-    if type(value) is float:
-        return round_float(value)
-    where: list = []  # (container, key or index) of each float, in walk order
-    floats: list[float] = []
-    lists: list = []  # (container, key or index, Floats) of each Floats list
-    out = _walk(value, where, floats, lists)
-    i = len(floats)  # the lists' floats follow the single ones
-    for _, _, f in lists:
-        floats += f
-    if floats:
-        r = rounded(floats)
-        for (container, key), v in zip(where, r[:i], strict=True):
-            container[key] = v
-        for container, key, f in lists:
-            container[key], i = r[i:i + len(f)], i + len(f)
-    return out
-
-
-def _walk(value: Any, where: list, floats: list, lists: list) -> Any:
-    """`value` with its containers copied as plain dicts and lists; each float is left in
-    place and noted in `where` and `floats`, each `Floats` list in `lists` (for `clean`)."""
-    t = type(value)
-    if t is dict:
-        out: Any = {}
-        for k, v in value.items():
-            if type(k) is not str:
-                k = str(k)
-            tv = type(v)
-            if tv is float:
-                out[k] = v
-                where.append((out, k))
-                floats.append(v)
-            elif tv in _PLAIN:
-                out[k] = v
-            elif tv is Floats:
-                out[k] = v
-                lists.append((out, k, v))
-            else:
-                out[k] = _walk(v, where, floats, lists)
-        return out
-    if t is list or t is tuple:
-        out = []
-        for v in value:
-            tv = type(v)
-            if tv is float:
-                where.append((out, len(out)))
-                floats.append(v)
-                out.append(v)
-            elif tv in _PLAIN:
-                out.append(v)
-            else:
-                out.append(_walk(v, where, floats, lists))
-        return out
-    if t in _PLAIN:
-        return value
-    if t is float or t is Floats:  # bare: there is no container to note
-        return round_float(value) if t is float else rounded(value)
-    if isinstance(value, BaseModel):
-        return _walk(value.model_dump(), where, floats, lists)
-    if hasattr(value, "item"):  # numpy scalar
-        return _scalar(value.item(), where, floats, lists)
-    if isinstance(value, float):
-        return _scalar(float(value), where, floats, lists)
-    raise TypeError(f"cannot put {type(value).__name__} into the results document")
-
-
-def _scalar(value: Any, where: list, floats: list, lists: list) -> Any:
-    """A converted scalar: a float is rounded at once (it has no container here), anything
-    else walked."""
-    return round_float(value) if type(value) is float else _walk(value, where, floats, lists)
 
 
 class Section(BaseModel):

@@ -173,3 +173,45 @@ def test_arrays_rounded_at_once_equal_python_round():
     got = rounded(values)
     want = [clean(float(x)) for x in values]
     assert [repr(g) for g in got] == [repr(w) for w in want]
+
+
+def _clean_by_round(value):
+    """The document's rule value by value with Python's round (the reference of
+    reportgen.plainjson.clean): floats round(x, 6), −0.0 as 0.0, non-finite as None; tuples
+    as lists; numpy scalars as Python numbers."""
+    if isinstance(value, dict):
+        return {str(k): _clean_by_round(v) for k, v in value.items()}
+    if isinstance(value, list | tuple):
+        return [_clean_by_round(v) for v in value]
+    if isinstance(value, bool | str | int) or value is None:
+        return value
+    if hasattr(value, "item"):
+        return _clean_by_round(value.item())
+    x = float(value)
+    if not np.isfinite(x):
+        return None
+    r = round(x, 6)
+    return 0.0 if r == 0 else r
+
+
+def test_clean_rounds_a_whole_document_as_round_does():
+    """clean walks the document once and rounds every float (and each Floats list) in one
+    numpy call: the result must be what Python's round gives value by value, in place, with
+    the document's shape and key order."""
+    from reportgen.plainjson import Floats, clean
+
+    rng = np.random.default_rng(3)
+    ties = ((rng.integers(-10**9, 10**9, 50) + 0.5) / 1e6).tolist()
+    odd = [0.0, -0.0, -1e-9, 5e-7, -5e-7, 2.675, 1e16 + 2.0, float("inf"), float("nan")]
+    doc = {
+        "a": ties[:10] + odd, "b": tuple(rng.normal(0, 1e3, 10).tolist()),
+        "c": {"x": np.float64(1.0000005), "y": np.int64(3), "z": np.bool_(True), 7: 0.1234565},
+        "d": [{"k": t, "n": None, "s": "text", "i": 2, "t": True} for t in ties[10:30]],
+        "gz": Floats(ties[30:] + odd), "e": [[1.0000005, [2.0000005, (3.0000005,)]]],
+        "f": 1.5e-7,
+    }
+    want = _clean_by_round({**doc, "gz": list(doc["gz"])})
+    got = clean(doc)
+    assert json.dumps(got) == json.dumps(want)
+    assert [repr(v) for v in got["gz"]] == [repr(v) for v in want["gz"]]
+    assert clean(-0.0) == 0.0 and clean(float("nan")) is None and clean([]) == []
