@@ -31,8 +31,11 @@ def _field_names(cls: type) -> tuple[str, ...]:
 
 
 def flat(obj: object) -> dict:
-    """A dataclass of plain values as a dict, field by field (dataclasses.asdict without its
-    deep copy: the loading lines and grain loads hold only numbers, strings and None)."""
+    """A dataclass (or NamedTuple) of plain values as a dict, field by field (dataclasses.asdict
+    without its deep copy: the loading lines and grain loads hold only numbers, strings and
+    None)."""
+    if isinstance(obj, tuple):
+        return obj._asdict()
     return {name: getattr(obj, name) for name in _field_names(type(obj))}
 
 

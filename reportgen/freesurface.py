@@ -17,15 +17,14 @@ Units: FSM in t·m, fillings in percent of a tank's capacity.
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import Literal
+from typing import Literal, NamedTuple
 
 FULL_TOLERANCE_PERCENT = 1e-9  # a filling given as mass or volume equal to 98 % counts as 98 %
 
 Reason = Literal["slack", "largest_of_table", "worst_pair", "worst_single", "maximum_rule"]
 
 
-@dataclass(frozen=True)
-class TankSurface:
+class TankSurface(NamedTuple):  # an immutable record, one per tank of each condition
     """What the rules read of one tank of the vessel (listed in the condition or not).
 
     percent: filling, % of capacity (0 for a tank the condition leaves empty);

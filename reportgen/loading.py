@@ -15,7 +15,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from functools import cached_property
 from math import isnan
-from typing import Literal
+from typing import Literal, NamedTuple
 
 import numpy as np
 
@@ -55,8 +55,7 @@ class TankTable:
                 [c.tolist() for c in (self.lcg, self.vcg, self.tcg, self.fsi)])
 
 
-@dataclass(frozen=True)
-class TankState:
+class TankState(NamedTuple):  # an immutable record, made at every tank of every condition
     """A tank at one filling: sounding m, volume m³, percent of capacity, mass t, centre m,
     fsi_m4 at the filling."""
 
@@ -122,8 +121,7 @@ def tank_state(table: TankTable, density_t_m3: float, kind: str, value: float,
     )
 
 
-@dataclass(frozen=True)
-class Line:
+class Line(NamedTuple):  # an immutable record (a NamedTuple: made several times a condition)
     """One line of the loading table (the results' loading.lines entry).
 
     fsm: the free-surface moment counted for the line, t·m; fs_basis: why it counts
