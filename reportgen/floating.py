@@ -28,7 +28,7 @@ from functools import cached_property
 import numpy as np
 
 from reportgen.errors import InputError
-from reportgen.interp import interp_columns
+from reportgen.interp import interp, interp_columns
 
 COLUMNS = ("draft", "lcb", "lcf", "kmt", "mct", "tpc", "lwl", "cb")
 
@@ -112,18 +112,30 @@ def check_in_range(value: float, column: np.ndarray, what: str, unit: str = "t")
         raise range_error(value, lo, hi, what, unit)
 
 
-def _row_values(table: HydroTable, k: int, disp_t: float,
-                names: tuple[str, ...] = COLUMNS) -> dict[str, float | None]:
-    """Every column (or those named) at Δ_t in trim row k, linear in displacement."""
+def _row(table: HydroTable, k: int, disp_t: float) -> tuple[list[float], dict]:
+    """Trim row k's displacements and columns (HydroTable.row_lists); InputError when Δ_t
+    lies outside them."""
     xp, lo, hi, cols = table.row_lists[k]
     if outside(disp_t, lo, hi):
         raise range_error(disp_t, lo, hi, "hydrostatic table" + (
             "" if table.trims is None else f" at trim {table.trims[k]:g} m"))
-    present = [n for n in names if cols[n] is not None]
-    out: dict[str, float | None] = dict.fromkeys(names)
+    return xp, cols
+
+
+def _row_values(table: HydroTable, k: int, disp_t: float) -> dict[str, float | None]:
+    """Every column at Δ_t in trim row k, linear in displacement (None: no such column)."""
+    xp, cols = _row(table, k, disp_t)
+    present = [n for n in COLUMNS if cols[n] is not None]
+    out: dict[str, float | None] = dict.fromkeys(COLUMNS)
     out.update(zip(present, interp_columns(disp_t, xp, [cols[n] for n in present]),
                    strict=True))
     return out
+
+
+def _lcb_at(table: HydroTable, k: int, disp_t: float) -> float:
+    """LCB (m) at Δ_t in trim row k."""
+    xp, cols = _row(table, k, disp_t)
+    return interp(disp_t, xp, cols["lcb"])
 
 
 def _blend(a: dict, b: dict, w: float) -> dict:
@@ -133,8 +145,7 @@ def _blend(a: dict, b: dict, w: float) -> dict:
 def float_trimmed(table: HydroTable, disp_t: float, lcg_m: float) -> tuple[float, dict]:
     """(trim m, columns) at which LCB = LCG, between the table's trims (linear in trim)."""
     trims = table.trims.tolist()
-    f = [_row_values(table, k, disp_t, ("lcb",))["lcb"] - lcg_m  # LCB − LCG at each trim
-         for k in range(len(trims))]
+    f = [_lcb_at(table, k, disp_t) - lcg_m for k in range(len(trims))]  # LCB − LCG by trim
 
     def row(k: int) -> dict:  # every column, only at the trims the answer is made from
         return _row_values(table, k, disp_t)

@@ -40,17 +40,20 @@ def position_problems(lines: Sequence[Line], length_bp_m: float, breadth_m: floa
     for ln in lines:
         if ln.mass <= 0.0:
             continue
-        label = f"{ln.kind} {ln.id or ln.name!r}"
+        found = []
         if not x_lo <= ln.lcg <= x_hi:
-            problems.append(f"{label}: lcg {ln.lcg:g} m is outside the ship (from {x_lo:g} to "
-                            f"{x_hi:g} m, Lpp {length_bp_m:g} m with overhangs of "
-                            f"{OVERHANG_FRACTION:.0%} of Lpp)")
+            found.append(f"lcg {ln.lcg:g} m is outside the ship (from {x_lo:g} to "
+                         f"{x_hi:g} m, Lpp {length_bp_m:g} m with overhangs of "
+                         f"{OVERHANG_FRACTION:.0%} of Lpp)")
         if abs(ln.tcg) > breadth_m / 2.0:
-            problems.append(f"{label}: tcg {ln.tcg:g} m is outside the ship's breadth "
-                            f"({breadth_m / 2.0:g} m each side of the centreline)")
+            found.append(f"tcg {ln.tcg:g} m is outside the ship's breadth "
+                         f"({breadth_m / 2.0:g} m each side of the centreline)")
         if not 0.0 <= ln.vcg <= z_hi:
-            problems.append(f"{label}: vcg {ln.vcg:g} m is outside 0 to {z_hi:g} m (from the "
-                            f"base line to a breadth above the deck)")
+            found.append(f"vcg {ln.vcg:g} m is outside 0 to {z_hi:g} m (from the "
+                         f"base line to a breadth above the deck)")
+        if found:  # the label made only for a line named in the message
+            label = f"{ln.kind} {ln.id or ln.name!r}"
+            problems += [f"{label}: {text}" for text in found]
     return problems
 
 
