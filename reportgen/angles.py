@@ -25,7 +25,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from reportgen.errors import InputError
-from reportgen.floating import check_in_range, outside, range_error
+from reportgen.floating import outside, range_error
 from reportgen.interp import interp, interp_columns
 from reportgen.vesseldata import AngleTable
 
@@ -59,13 +59,14 @@ class Angles:
 def from_table(table: AngleTable, displacement_table_t: float, trim_m: float, what: str
                ) -> float:
     """An angle (deg) from a displacement (-> trim) table: linear, never extrapolated."""
-    disp, lo, hi, angle, trims = table.lists
+    disp, (lo, hi), angle, trims, trim_range = table.lists
     if outside(displacement_table_t, lo, hi):
         raise range_error(displacement_table_t, lo, hi, what)
     rows = interp_columns(displacement_table_t, disp, angle)
     if trims is None or len(trims) == 1:
         return rows[0]
-    check_in_range(trim_m, table.trims, f"{what}'s trims", unit="m")
+    if outside(trim_m, *trim_range):
+        raise range_error(trim_m, *trim_range, f"{what}'s trims", unit="m")
     return interp(trim_m, trims, rows)
 
 
@@ -82,7 +83,7 @@ def governing_opening(table: AngleTable, displacement_table_t: float, trim_m: fl
     None when the table names no openings."""
     if table.opening is None:
         return None
-    disp, _, _, angle, trims = table.lists
+    disp, _, angle, trims, _ = table.lists
     ks = [0] if trims is None or len(trims) == 1 else _bracket(trims, trim_m)
     corners = [(angle[k][i], table.opening[k][i])
                for k in ks for i in _bracket(disp, displacement_table_t)]

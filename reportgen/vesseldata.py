@@ -33,12 +33,14 @@ class AngleTable:
     opening: np.ndarray | None = None  # (k, n) names of the governing openings, or None
 
     @cached_property
-    def lists(self) -> tuple[list[float], float, float, list[list[float]], list[float] | None]:
-        """(displacement, its least and largest value, the angle rows, the trims or None) as
-        lists, made once, for reportgen.interp."""
-        d = self.displacement
-        return (d.tolist(), float(np.min(d)), float(np.max(d)), self.angle.tolist(),
-                None if self.trims is None else self.trims.tolist())
+    def lists(self) -> tuple[list[float], tuple[float, float], list[list[float]],
+                             list[float] | None, tuple[float, float] | None]:
+        """(displacement, its least and largest value, the angle rows, the trims and their
+        least and largest, or Nones) as lists, made once, for reportgen.interp."""
+        d, t = self.displacement, self.trims
+        return (d.tolist(), (float(np.min(d)), float(np.max(d))), self.angle.tolist(),
+                None if t is None else t.tolist(),
+                None if t is None else (float(np.min(t)), float(np.max(t))))
 
 
 def _trims(values: list[float] | None) -> np.ndarray | None:
