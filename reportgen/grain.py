@@ -83,8 +83,10 @@ def lambda0_m(heeling_moment_t_m: float, displacement_t: float) -> float:
 
 def heeling_arm_m(lambda0: float, heel_deg: float | np.ndarray) -> np.ndarray:
     """The grain heeling arm (m) at heel (deg): the straight line through λ0 at 0° and
-    0.8·λ0 at 40° (A 7 figure), continued as the same line beyond 40°."""
-    return lambda0 * (1.0 - (1.0 - LAMBDA40_FACTOR) * np.asarray(heel_deg, float) / ARM_END_DEG)
+    0.8·λ0 at 40° (A 7 figure), continued as the same line beyond 40°. A float heel gives a
+    float, in the same arithmetic (the root searches call this for one heel at a time)."""
+    h = heel_deg if type(heel_deg) is float else np.asarray(heel_deg, float)
+    return lambda0 * (1.0 - (1.0 - LAMBDA40_FACTOR) * h / ARM_END_DEG)
 
 
 def arm_area_mrad(lambda0: float, start_deg: float, end_deg: float) -> float:
