@@ -12,7 +12,7 @@ from reportgen.criteria.weather import WIND_PRESSURE_N_M2, Weather
 from reportgen.inputs import Case
 from reportgen.plainjson import Floats
 from reportgen.results import Results
-from reportgen.stability import gz_grid, list_side
+from reportgen.stability import gz_arrays, list_side
 from reportgen.stages import AtKG, Upright, listed
 
 VESSEL_PREFIX = "vessel-"  # the vessel attachment's prefix when both basenames are equal
@@ -192,7 +192,7 @@ def results(up: Upright, k: AtKG, fsc: float, limits: dict | None = None) -> Res
     """The Results of a condition from its upright stage and its stage at its own KG (and
     its KG margin, reportgen.limits.condition_limits)."""
     case = up.case
-    heel, gz, kn = gz_grid(k.curve)
+    heel, gz, kn = gz_arrays(k.curve)
     cond_file, vessel_file = attachment_names(case.condition_name, case.vessel_name)
     return Results.model_validate({
         "software": {"name": NAME, "version": __version__},

@@ -20,9 +20,14 @@ from pydantic import BaseModel
 DECIMALS = 6  # every float in the document is rounded to this many decimals
 
 
-class Floats(list):
-    """A list of plain floats (or None) for `clean` to round with the document's other floats
-    in one go, rather than one by one: the GZ arrays."""
+class Floats:
+    """Plain floats (a list, or a 1-D float array) for `clean` to round with the document's
+    other floats in one go, rather than one by one: the GZ arrays. It becomes a list."""
+
+    __slots__ = ("values",)
+
+    def __init__(self, values: Sequence[float] | np.ndarray) -> None:
+        self.values = values
 
 
 def rounded(values: Sequence[float]) -> list[float | None]:
@@ -68,14 +73,15 @@ def clean(value: Any) -> Any:
     lists: list = []  # (container, key or index, Floats) of each Floats list
     out = _walk(value, where, floats, lists)
     i = len(floats)  # the lists' floats follow the single ones
-    for _, _, f in lists:
-        floats += f
-    if floats:
-        r = rounded(floats)
+    every = floats if not lists else np.concatenate(
+        [np.asarray(floats, dtype=float), *(np.asarray(f.values, dtype=float) for *_, f in lists)])
+    if len(every):
+        r = rounded(every)
         for (container, key), v in zip(where, r[:i], strict=True):
             container[key] = v
         for container, key, f in lists:
-            container[key], i = r[i:i + len(f)], i + len(f)
+            n = len(f.values)
+            container[key], i = r[i:i + n], i + n
     return out
 
 
@@ -117,7 +123,7 @@ def _walk(value: Any, where: list, floats: list, lists: list) -> Any:
     if t in _PLAIN:
         return value
     if t is float or t is Floats:  # bare: there is no container to note
-        return round_float(value) if t is float else rounded(value)
+        return round_float(value) if t is float else rounded(value.values)
     if isinstance(value, BaseModel):
         return _walk(value.model_dump(), where, floats, lists)
     if hasattr(value, "item"):  # numpy scalar

@@ -292,13 +292,19 @@ def vanishing_angle(curve: GZCurve, gz_max_deg: float) -> float | None:
     return down[0] if down else None
 
 
-def gz_grid(curve: GZCurve) -> tuple[list[float], list[float], list[float]]:
+def gz_arrays(curve: GZCurve) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The GZ curve on a 1° grid from −min(60°, θmax) to θmax: heel (deg, + starboard), GZ
     (m) and the KN (m) it is made from."""
     top = int(np.floor(curve.heel_max_deg + 1e-9))
     bottom = -min(60, top)
     heel = np.arange(bottom, top + 1, dtype=float)
-    return heel.tolist(), curve(heel).tolist(), curve.kn(heel).tolist()
+    return heel, curve(heel), curve.kn(heel)
+
+
+def gz_grid(curve: GZCurve) -> tuple[list[float], list[float], list[float]]:
+    """gz_arrays as lists."""
+    heel, gz, kn = gz_arrays(curve)
+    return heel.tolist(), gz.tolist(), kn.tolist()
 
 
 # --- initial stability ---------------------------------------------------------------------------

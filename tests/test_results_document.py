@@ -207,10 +207,11 @@ def test_clean_rounds_a_whole_document_as_round_does():
         "a": ties[:10] + odd, "b": tuple(rng.normal(0, 1e3, 10).tolist()),
         "c": {"x": np.float64(1.0000005), "y": np.int64(3), "z": np.bool_(True), 7: 0.1234565},
         "d": [{"k": t, "n": None, "s": "text", "i": 2, "t": True} for t in ties[10:30]],
-        "gz": Floats(ties[30:] + odd), "e": [[1.0000005, [2.0000005, (3.0000005,)]]],
+        "gz": Floats(ties[30:] + odd), "arr": Floats(np.array(ties[:5])),
+        "e": [[1.0000005, [2.0000005, (3.0000005,)]]],
         "f": 1.5e-7,
     }
-    want = _clean_by_round({**doc, "gz": list(doc["gz"])})
+    want = _clean_by_round({**doc, "gz": doc["gz"].values, "arr": ties[:5]})
     got = clean(doc)
     assert json.dumps(got) == json.dumps(want)
     assert [repr(v) for v in got["gz"]] == [repr(v) for v in want["gz"]]
