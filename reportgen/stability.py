@@ -20,7 +20,7 @@ as KN is odd, that is the same KN with the sign of TCG reversed (GZCurve.towards
 from __future__ import annotations
 
 import math
-from bisect import bisect_right
+from bisect import bisect_left, bisect_right
 from dataclasses import dataclass, field
 from functools import cached_property
 from typing import Literal
@@ -28,7 +28,7 @@ from typing import Literal
 import numpy as np
 from scipy.interpolate import CubicSpline, PPoly
 
-from reportgen.floating import check_in_range
+from reportgen.floating import outside, range_error
 
 GRID_STEP_DEG = 0.25  # grid on which sign changes and maxima are first located
 NEWTON_STEPS = 3  # refinements of each root or maximum from the grid (quadratic convergence)
@@ -49,10 +49,17 @@ def odd_spline(heel_deg: np.ndarray, kn: np.ndarray) -> CubicSpline:
     return CubicSpline(heel, full, axis=-1)
 
 
-def _weights(value: float, axis: np.ndarray) -> tuple[int, float]:
-    i = int(np.clip(np.searchsorted(axis, value) - 1, 0, len(axis) - 2))
+def _weights(value: float, axis: list[float]) -> tuple[int, float]:
+    """(i, w): `value` lies w of the way from axis[i] to axis[i + 1] (w clamped to 0..1;
+    axis strictly increasing, at least two entries), in floats."""
+    i = min(max(bisect_left(axis, value) - 1, 0), len(axis) - 2)
     w = (value - axis[i]) / (axis[i + 1] - axis[i])
-    return i, min(max(float(w), 0.0), 1.0)
+    return i, min(max(w, 0.0), 1.0)
+
+
+def _axis(values: np.ndarray) -> tuple[list[float], float, float]:
+    """A table axis as a list, with its least and largest value (made once per table)."""
+    return values.tolist(), float(np.min(values)), float(np.max(values))
 
 
 @dataclass(frozen=True, eq=False)  # arrays: == has no truth value; compared by identity
@@ -74,6 +81,11 @@ class CrossCurves:
     def __post_init__(self) -> None:
         object.__setattr__(self, "_rows", odd_spline(self.heel_deg, self.kn))
 
+    @cached_property
+    def _axes(self) -> tuple[tuple, tuple | None]:
+        """The displacement and trim axes as (list, least, largest), made once."""
+        return _axis(self.displacement), None if self.trims is None else _axis(self.trims)
+
     @property
     def heel_max_deg(self) -> float:
         return float(self.heel_deg[-1])
@@ -81,15 +93,18 @@ class CrossCurves:
     def kn_spline(self, displacement_table_t: float, trim_m: float = 0.0) -> PPoly:
         """KN(θ°) at Δ_t and trim: the spline through the rows interpolated linearly in
         displacement and (with trims) in trim; odd by symmetry. Never extrapolated."""
-        check_in_range(displacement_table_t, self.displacement, "cross curves")
-        i, w = _weights(displacement_table_t, self.displacement)
+        (disp, lo, hi), trims = self._axes
+        if outside(displacement_table_t, lo, hi):
+            raise range_error(displacement_table_t, lo, hi, "cross curves")
+        i, w = _weights(displacement_table_t, disp)
         c = self._rows.c  # (4, intervals, k, n_disp)
         rows = (1.0 - w) * c[..., i] + w * c[..., i + 1]  # (4, intervals, k)
-        if self.trims is None:
+        if trims is None:
             coef = rows[..., 0]
         else:
-            check_in_range(trim_m, self.trims, "cross curves' trims", unit="m")
-            k, v = _weights(trim_m, self.trims)
+            if outside(trim_m, trims[1], trims[2]):
+                raise range_error(trim_m, trims[1], trims[2], "cross curves' trims", unit="m")
+            k, v = _weights(trim_m, trims[0])
             coef = (1.0 - v) * rows[..., k] + v * rows[..., k + 1]
         return PPoly.construct_fast(np.ascontiguousarray(coef), self._rows.x)
 
