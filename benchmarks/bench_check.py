@@ -5,10 +5,12 @@ time of the libraries it needs. Targets (issue "house in order"): 0.5 ms per con
 
 What is kept between evaluations (so that "1000 conditions" measures 1000 evaluations, not a
 cache): only each vessel's arrays and prepared hull (VesselData, made once per vessel object,
-reportgen.vesseldata), the criteria modules' lookup, and each case's SHA-256 of its input
-files (a property of the bytes read, computed once per case). Everything of a condition (loading,
-floating, the heel scan on the hull, the angles, every KG of the margin search, the results)
-is computed afresh at each call.
+reportgen.vesseldata: with its tables' columns as lists, their ranges, and each tank's free
+surface when empty), the criteria modules' lookup, the heel grid of the GZ searches with its
+sines and cosines (one per largest heel of the cross curves, reportgen.stability._grid), and
+each case's SHA-256 of its input files (a property of the bytes read, computed once per case).
+Everything of a condition (loading, floating, the heel scan on the hull, the angles, every KG
+of the margin search, the results) is computed afresh at each call.
 
 Usage: python benchmarks/bench_check.py [CONDITION.yaml]   (default: conditions/*.yaml)
 """

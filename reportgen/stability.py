@@ -22,7 +22,7 @@ from __future__ import annotations
 import math
 from bisect import bisect_left, bisect_right
 from dataclasses import dataclass, field
-from functools import cached_property
+from functools import cache, cached_property
 from typing import Literal
 
 import numpy as np
@@ -109,6 +109,18 @@ class CrossCurves:
         return PPoly.construct_fast(np.ascontiguousarray(coef), self._rows.x)
 
 
+@cache
+def _grid(heel_max_deg: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The GRID_STEP_DEG grid over −θmax..θmax (deg) with its sines and cosines: read-only
+    arrays, made once per θmax (a pure function of it; benchmarks/bench_check.py says so)."""
+    n = round(2.0 * heel_max_deg / GRID_STEP_DEG) + 1
+    heel = np.linspace(-heel_max_deg, heel_max_deg, n)
+    out = (heel, np.sin(heel * DEG), np.cos(heel * DEG))
+    for a in out:
+        a.flags.writeable = False
+    return out
+
+
 class KNCurve:
     """KN(θ°) of one displacement and trim (m), θ over −θmax..θmax: the spline, with its
     derivatives, its antiderivative and its values on the GRID_STEP_DEG grid made once, so
@@ -117,11 +129,8 @@ class KNCurve:
     def __init__(self, spline: PPoly, heel_max_deg: float) -> None:
         self.spline = spline
         self.heel_max_deg = float(heel_max_deg)
-        n = round(2.0 * self.heel_max_deg / GRID_STEP_DEG) + 1
-        self.grid_heel = np.linspace(-self.heel_max_deg, self.heel_max_deg, n)
+        self.grid_heel, self.grid_sin, self.grid_cos = _grid(self.heel_max_deg)
         self.grid_kn = spline(self.grid_heel)
-        self.grid_sin = np.sin(self.grid_heel * DEG)
-        self.grid_cos = np.cos(self.grid_heel * DEG)
         self._breaks = spline.x.tolist()
         self._pieces = np.asarray(spline.c).T.tolist()  # per piece: cubic .. constant term
         # ∫KN dθ° (m·deg), the spline's antiderivative: per piece quartic .. constant term

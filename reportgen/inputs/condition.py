@@ -54,7 +54,10 @@ class Filling(Model):
 
     @property
     def kind(self) -> str:
-        return next(k for k in FILLING_KINDS if getattr(self, k) is not None)
+        for k in FILLING_KINDS:  # a loop, not next(generator): read for every tank filled
+            if getattr(self, k) is not None:
+                return k
+        raise AssertionError("a filling has one kind (checked by the model)")
 
     @property
     def value(self) -> float:
