@@ -100,6 +100,7 @@ def outside(value: float, lo: float, hi: float) -> bool:
 
 
 def range_error(value: float, lo: float, hi: float, what: str, unit: str = "t") -> InputError:
+    """The refusal of a value outside a table's lo..hi (`what` names the table)."""
     return InputError(f"the {'displacement' if unit == 't' else 'value'} {value:.1f} {unit} "
                       f"is outside the {what} ({lo:g} to {hi:g} {unit}); the tables are not "
                       f"extrapolated")

@@ -15,12 +15,15 @@ from __future__ import annotations
 from dataclasses import dataclass
 from functools import cached_property
 from math import isnan
-from typing import Literal, NamedTuple
+from typing import TYPE_CHECKING, Literal, NamedTuple
 
 import numpy as np
 
 from reportgen.errors import InputError
 from reportgen.interp import interp, interp_columns
+
+if TYPE_CHECKING:  # imported where it is used (reportgen.freesurface)
+    from reportgen.freesurface import TankSurface
 
 
 @dataclass(frozen=True, eq=False)  # arrays: == has no truth value; compared by identity
@@ -249,7 +252,7 @@ class VesselTank:
     density: float  # t/m³
     ullage_reference: float | None  # m
     table: TankTable
-    empty_surface: object  # reportgen.freesurface.TankSurface at 0 %
+    empty_surface: TankSurface  # at 0 %
 
     @cached_property
     def empty_state(self) -> TankState:
