@@ -161,10 +161,15 @@ class Centre:
     fsm: float
 
 
+def _masses(lines: list[Line]) -> tuple[np.ndarray, float]:
+    """The lines' masses (t) as an array, and Σm."""
+    m = np.array([ln.mass for ln in lines], dtype=float)
+    return m, float(m.sum())
+
+
 def centre_of(lines: list[Line]) -> Centre:
     """Σm and the mass-weighted centre Σ(m·g)/Σm of lines (the moment sum); ΣFSM."""
-    m = np.array([ln.mass for ln in lines], dtype=float)
-    mass = float(m.sum())
+    m, mass = _masses(lines)
     fsm = float(sum(ln.fsm for ln in lines))
     if mass <= 0.0:
         return Centre(mass, None, None, None, fsm)
@@ -192,8 +197,8 @@ def totals(lines: list[Line]) -> Totals:
     whole = centre_of(lines)
     if whole.lcg is None:
         raise InputError("the condition has no displacement")
-    light = centre_of([ln for ln in lines if ln.kind == "lightship"])
-    return Totals(light.mass, centre_of([ln for ln in lines if ln.kind != "lightship"]),
+    _, light = _masses([ln for ln in lines if ln.kind == "lightship"])
+    return Totals(light, centre_of([ln for ln in lines if ln.kind != "lightship"]),
                   whole.mass, whole.lcg, whole.vcg, whole.tcg, whole.fsm)
 
 
