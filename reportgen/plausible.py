@@ -19,7 +19,8 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
-from shapely.geometry import Point, Polygon
+import shapely
+from shapely.geometry import Polygon
 
 from reportgen.errors import InputError
 from reportgen.floating import Draughts
@@ -82,8 +83,15 @@ def check_draughts(d: Draughts, depth_m: float) -> None:
 def unwinded_deck_items(lines: Sequence[Line], windage_profile: Polygon, depth_m: float,
                         items_with_wind: set[str]) -> list[str]:
     """Names of items whose centre is above the deck and outside the lateral windage profile,
-    with no wind area of their own (`items_with_wind`: names of items that give one)."""
-    return [ln.name for ln in lines
-            if ln.kind == "item" and ln.mass > 0.0 and ln.vcg > depth_m
-            and ln.name not in items_with_wind
-            and not windage_profile.covers(Point(ln.lcg, ln.vcg))]
+    with no wind area of their own (`items_with_wind`: names of items that give one).
+
+    "Outside" is "not covered" (inside or on the outline is covered): for a point that is
+    shapely's intersects, asked for every item at once (intersects_xy; tests/test_plausible.py
+    compares it with covers)."""
+    above = [ln for ln in lines if ln.kind == "item" and ln.mass > 0.0 and ln.vcg > depth_m
+             and ln.name not in items_with_wind]
+    if not above:
+        return []
+    covered = shapely.intersects_xy(windage_profile, [ln.lcg for ln in above],
+                                    [ln.vcg for ln in above])
+    return [ln.name for ln, inside in zip(above, covered.tolist(), strict=True) if not inside]

@@ -131,3 +131,23 @@ def test_displacement_above_a_block_coefficient_of_one_is_refused():
 def test_the_demo_vessel_file_is_plausible():
     v = parse_vessel(DEMO_VESSEL.read_bytes(), "demo")
     assert table_problems(v.particulars, v.hydrostatics, v.cross_curves, v.grain) == []
+
+
+def test_items_outside_the_profile_as_shapely_covers_finds_them():
+    """unwinded_deck_items asks shapely's intersects_xy for every item at once; for a point
+    that is the same as shapely's covers (inside or on the outline: the reference), checked
+    at the demo profile's vertices, on its edges and at random points."""
+    from shapely.geometry import Point, Polygon
+
+    from reportgen.loading import item_line
+    from reportgen.plausible import unwinded_deck_items
+
+    profile = Polygon(yaml.safe_load(DEMO_VESSEL.read_text())["windage"]["profile"])
+    xy = np.asarray(profile.exterior.coords)
+    rng = np.random.default_rng(5)
+    on_edges = xy[:-1] + rng.uniform(0.0, 1.0, (len(xy) - 1, 1)) * (xy[1:] - xy[:-1])
+    points = np.vstack([xy, on_edges, rng.uniform([-5.0, 0.0], [105.0, 25.0], (400, 2))])
+    lines = [item_line(f"p{i}", 1.0, x, z, 0.0) for i, (x, z) in enumerate(points)]
+    want = [ln.name for ln in lines if not profile.covers(Point(ln.lcg, ln.vcg))]
+    assert unwinded_deck_items(lines, profile, -1.0, set()) == want
+    assert 0 < len(want) < len(lines)
