@@ -325,12 +325,6 @@ def gz_arrays(curve: GZCurve) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     return heel, curve(heel), curve.kn(heel)
 
 
-def gz_grid(curve: GZCurve) -> tuple[list[float], list[float], list[float]]:
-    """gz_arrays as lists."""
-    heel, gz, kn = gz_arrays(curve)
-    return heel.tolist(), gz.tolist(), kn.tolist()
-
-
 # --- initial stability ---------------------------------------------------------------------------
 
 

@@ -21,8 +21,8 @@ from reportgen.stability import (
     area_mrad,
     crossings,
     equilibrium_heel,
+    gz_arrays,
     gz_curve,
-    gz_grid,
     max_gz,
     vanishing_angle,
 )
@@ -112,9 +112,9 @@ def test_maximum_and_vanishing():
     assert vanishing_angle(rising, max_gz(rising, 0, 80)[0]) is None
 
 
-def test_gz_grid_covers_spec_range():
+def test_gz_arrays_cover_spec_range():
     curve = gz_of(_cross(lambda h: 8.0 * math.sin(math.radians(h))), 1000.0, 7.0, 0.0)
-    heel, gz, kn = gz_grid(curve)
+    heel, gz, kn = (a.tolist() for a in gz_arrays(curve))
     assert heel[0] == -60.0 and heel[-1] == 80.0 and len(heel) == 141
     assert gz[heel.index(30.0)] == pytest.approx(0.5, abs=1e-4)
     # KN = 8·sin θ as tabulated; GZ = KN − KG·sin θ with KG = 7 m.
