@@ -76,7 +76,7 @@ def phases(conditions: list[Path]) -> list[tuple[str, float]]:
             f" SVG, matplotlib)")
         text = package.package_html(pkg, contexts, package.limits_page(pkg))
         lap("limits page figure and HTML text")
-        document = document_html(text).render(
+        document = document_html(text, "the demo conditions").render(
             stylesheets=[package._page_css(len(pkg.members))],
             pdf_variant=render.PDF_VARIANT, font_config=font_config())
         lap(f"WeasyPrint layout ({len(document.pages)} pages)")

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import io
 
+import yaml
 from eval_box import RHO, B, L, condition_dict, write_case
 from pypdf import PdfReader
 
@@ -51,3 +52,29 @@ def test_sheet_of_a_capsizing_box_draws_its_figures(tmp_path):
     with warnings.catch_warnings():
         warnings.simplefilter("error", UserWarning)
         assert "Severe wind and rolling" in sheet_html(case, results)
+
+
+def test_text_the_typeface_cannot_draw_is_refused_with_nothing_written(tmp_path):
+    # Source: the typeface's own character map (DejaVu Sans as matplotlib ships it, read with
+    # fontTools). It has no glyph for the control character BEL (U+0007, written here as the
+    # YAML escape "\a") nor for the CJK ideograph U+6E2F; WeasyPrint would draw each as an
+    # empty box on a signed record. It has the Latin, Greek and mathematical signs a sheet
+    # prints (checked here on a sample).
+    from click.testing import CliRunner
+
+    from reportgen.cli import main
+    from reportgen.report.fonts import unprintable
+
+    assert unprintable("Göteborg – Gdańsk, Şile; Δ θ φ ≥ ≤ − · ² ° ✓ ✗\n\t") == []
+    assert unprintable("bell\a, port 港") == ["\a", "港"]
+    item = {"name": "Cargo", "mass": 3000.0, "lcg": L / 2, "vcg": 4.0}
+    for title, named in (("bell\a here", "U+0007"), ("Port 港", "U+6E2F")):
+        case = write_case(tmp_path, condition_dict(items=[item]))
+        text = case.read_text(encoding="utf-8").replace(
+            "Box barge test condition", yaml.safe_dump(title, default_style='"').strip())
+        case.write_text(text, encoding="utf-8")
+        out = tmp_path / "sheet.pdf"
+        result = CliRunner().invoke(main, ["sheet", str(case), "-o", str(out)])
+        assert result.exit_code == 2, result.output
+        assert named in result.output and "typeface" in result.output
+        assert not out.exists()

@@ -13,6 +13,11 @@
   document creates a few million objects that live until the document is written; the
   collector's passes over them took 5 to 15 % of the package process's CPU time (best of
   two, on a shared machine) and freed almost nothing (peak memory within 6 % either way).
+
+``document_html`` also refuses (InputError) a text with characters the documents' typeface
+cannot draw (reportgen.report.fonts.unprintable): WeasyPrint would print each as an empty box
+on a record that is signed and filed, and leave the PDF's text unreadable to extraction. A
+control character written as a YAML escape ("\a") is one of them.
 """
 
 from __future__ import annotations
@@ -23,7 +28,9 @@ from functools import lru_cache
 import weasyprint
 from weasyprint import html as weasyprint_html
 
+from reportgen.errors import InputError
 from reportgen.inputs.yamlread import cyclic_gc_paused as collector_paused
+from reportgen.report import fonts
 
 __all__ = ["collector_paused", "document_html", "trimmed_user_agent_css"]
 
@@ -63,6 +70,15 @@ def without_table_white_space(text: str) -> str:
     return _BETWEEN_TABLE_TAGS.sub(r"\1", text)
 
 
-def document_html(text: str) -> weasyprint.HTML:
-    """The HTML text as a WeasyPrint document to lay out."""
+def document_html(text: str, where: str) -> weasyprint.HTML:
+    """The HTML text as a WeasyPrint document to lay out; `where` names the input files the
+    text comes from, for the message when it holds characters the typeface cannot draw."""
+    missing = fonts.unprintable(text)
+    if missing:
+        shown = ", ".join(f"U+{ord(c):04X}" + (f" {c!r}" if c.isprintable() else "")
+                          for c in missing[:8])
+        raise InputError(f"{where}: {len(missing)} character(s) cannot be printed in the "
+                         f"documents' typeface ({fonts.TYPEFACE}) and would show as empty "
+                         f"boxes: {shown}{' ...' if len(missing) > 8 else ''}; write the "
+                         f"text with other characters")
     return _DocumentHTML(string=without_table_white_space(text))

@@ -15,17 +15,40 @@ import weasyprint
 from weasyprint.text.fonts import FontConfiguration
 
 FAMILY = "Sheet Sans"
+TYPEFACE = "DejaVu Sans"  # the typeface FAMILY names, for messages
 _FILES = {"normal": "DejaVuSans.ttf", "bold": "DejaVuSans-Bold.ttf"}
 MATPLOTLIB_FAMILY = "DejaVu Sans"  # the name matplotlib writes into SVG text styles
 
 
+LAYOUT_CHARACTERS = frozenset("\n\r\t")  # laid out as white space, drawn with no glyph
+
+
+def _font_paths() -> dict[str, Path]:
+    folder = Path(matplotlib.get_data_path()) / "fonts" / "ttf"
+    return {weight: folder / name for weight, name in _FILES.items()}
+
+
 def font_face_css() -> str:
     """@font-face rules for the regular and bold weights of FAMILY."""
-    folder = Path(matplotlib.get_data_path()) / "fonts" / "ttf"
     return "".join(
         f'@font-face {{ font-family: "{FAMILY}"; font-weight: {weight}; '
-        f'src: url("{(folder / name).as_uri()}"); }}\n'
-        for weight, name in _FILES.items())
+        f'src: url("{path.as_uri()}"); }}\n'
+        for weight, path in _font_paths().items())
+
+
+@lru_cache(maxsize=1)
+def printable_characters() -> frozenset[str]:
+    """The characters that both weights of FAMILY have a glyph for (their Unicode cmaps)."""
+    from fontTools.ttLib import TTFont  # loaded with WeasyPrint, which subsets with it
+
+    cmaps = [set(TTFont(path, lazy=True).getBestCmap()) for path in _font_paths().values()]
+    return frozenset(map(chr, set.intersection(*cmaps))) | LAYOUT_CHARACTERS
+
+
+def unprintable(text: str) -> list[str]:
+    """The characters of `text` that FAMILY cannot draw, in code point order. WeasyPrint would
+    draw each as an empty box (.notdef) and leave the PDF's text unreadable to extraction."""
+    return sorted(set(text) - printable_characters())
 
 
 @lru_cache(maxsize=1)

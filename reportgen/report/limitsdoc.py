@@ -87,7 +87,7 @@ def render_limits(vessel_name: str, vessel_bytes: bytes, doc: dict,
          if approval is not None else [])
 
     def layout() -> weasyprint.Document:
-        return document_html(limits_html(doc, vessel_sets, approved)).render(
+        return document_html(limits_html(doc, vessel_sets, approved), vessel_name).render(
             stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
             font_config=fonts.font_config())
 

@@ -285,7 +285,8 @@ def layout_package(pkg: Package) -> weasyprint.Document:
     condition's own pages come from CSS (target-counter, page groups), which WeasyPrint
     resolves while it paginates."""
     contexts = [sheet.condition_context(m.case, m.results) for m in pkg.members]
-    html = document_html(package_html(pkg, contexts, limits_page(pkg)))
+    html = document_html(package_html(pkg, contexts, limits_page(pkg)),
+                         "the package's title, condition files or vessel file")
     return html.render(stylesheets=[_page_css(len(pkg.members))],
                        pdf_variant=sheet.PDF_VARIANT, font_config=fonts.font_config())
 

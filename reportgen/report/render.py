@@ -318,7 +318,8 @@ def _finisher(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
 
 def layout_sheet(case: Any, results: Results) -> weasyprint.Document:
     """The laid-out pages of the sheet (WeasyPrint document) for a results document."""
-    html = document_html(sheet_html(case, results))
+    html = document_html(sheet_html(case, results),
+                         f"{case.condition_name} (vessel {case.vessel_name})")
     return html.render(stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
                        font_config=fonts.font_config())
 
