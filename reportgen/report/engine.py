@@ -6,6 +6,8 @@
   (``::footnote-call``, ``::marker`` ...), so every element of a sheet got six computed
   pseudo-element styles that were never used: about 8 % of a package's layout time. A
   WeasyPrint version whose stylesheet reads otherwise keeps its stylesheet unchanged.
+  The text goes in without the white space between the tags of a table's structure, which
+  is never rendered: about 1 % fewer calls in a package's layout, the PDF byte-identical.
 - ``collector_paused``: the cyclic garbage collector paused while a document is made (the
   reader's own pause, reportgen.inputs.yamlread.cyclic_gc_paused). Laying out and painting a
   document creates a few million objects that live until the document is written; the
@@ -56,6 +58,18 @@ class _DocumentHTML(weasyprint.HTML):
         return [_user_agent_sheet()]
 
 
+# White space between two tags of a table's structure (rows, cells, row groups, columns): the
+# HTML parser keeps it as text nodes and WeasyPrint makes boxes of them only to drop them again
+# (CSS 2.1, 17.2.1: white space between table-internal boxes is not rendered).
+_TABLE_TAG = r"</?(?:table|thead|tbody|tfoot|tr|td|th|colgroup|col)\b[^>]*>"
+_BETWEEN_TABLE_TAGS = re.compile(rf"({_TABLE_TAG})\s+(?={_TABLE_TAG})")
+
+
+def without_table_white_space(text: str) -> str:
+    """The HTML text without the white space between two tags of a table's structure."""
+    return _BETWEEN_TABLE_TAGS.sub(r"\1", text)
+
+
 def document_html(text: str, where: str) -> weasyprint.HTML:
     """The HTML text as a WeasyPrint document to lay out; `where` names the input files the
     text comes from, for the message when it holds characters the typeface cannot draw."""
@@ -67,4 +81,4 @@ def document_html(text: str, where: str) -> weasyprint.HTML:
                          f"documents' typeface ({fonts.TYPEFACE}) and would show as empty "
                          f"boxes: {shown}{' ...' if len(missing) > 8 else ''}; write the "
                          f"text with other characters")
-    return _DocumentHTML(string=text)
+    return _DocumentHTML(string=without_table_white_space(text))
