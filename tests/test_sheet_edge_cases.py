@@ -78,3 +78,34 @@ def test_text_the_typeface_cannot_draw_is_refused_with_nothing_written(tmp_path)
         assert result.exit_code == 2, result.output
         assert named in result.output and "typeface" in result.output
         assert not out.exists()
+
+
+def test_a_name_longer_than_its_column_stays_inside_its_cell(tmp_path):
+    # A name with no space to break at is broken inside the word (CSS Text 3, overflow-wrap:
+    # break-word) instead of running over the next column's figures.
+    from weasyprint.formatting_structure import boxes
+
+    from reportgen.report.render import layout_sheet
+
+    name = "Hold1cargoloadedbythestarboardcranesinthreetiersWITHOUTANYSPACEATALL"
+    item = {"name": name, "mass": 3000.0, "lcg": L / 2, "vcg": 4.0}
+    case = load_case(write_case(tmp_path, condition_dict(items=[item])))
+    document = layout_sheet(case, evaluate(case))
+
+    def descendants(box):
+        yield box
+        for child in getattr(box, "children", None) or []:
+            yield from descendants(child)
+
+    cells = [b for page in document.pages for b in descendants(page._page_box)
+             if isinstance(b, boxes.TableCellBox)]
+    named = [c for c in cells
+             if name[:8] in "".join(t.text for t in descendants(c)
+                                    if isinstance(t, boxes.TextBox))]
+    assert named
+    for cell in named:
+        left, right = cell.content_box_x(), cell.content_box_x() + cell.width
+        texts = [t for t in descendants(cell) if isinstance(t, boxes.TextBox)]
+        assert len(texts) > 1  # broken over lines
+        for t in texts:
+            assert left - 0.5 <= t.position_x and t.position_x + t.width <= right + 0.5, t.text
