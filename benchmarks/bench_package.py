@@ -8,7 +8,8 @@
 - where the time goes: the same package made again in this process, step by step (after a
   warm-up render of one condition, so that fonts and lazy imports are loaded; nothing else is
   cached between steps): reading and evaluating, the limiting KG curve, the figures, the HTML
-  text, WeasyPrint's layout (with the check that every figure fits its column), and its painting and writing of the PDF.
+  text, WeasyPrint's layout (with the check that every figure fits its column), and its
+  painting and writing of the PDF.
 
 Target (the package issue): the whole process within the import time + 0.5 s per condition.
 
