@@ -8,7 +8,8 @@
 - where the time goes: the same package made again in this process, step by step (after a
   warm-up render of one condition, so that fonts and lazy imports are loaded; nothing else is
   cached between steps): reading and evaluating, the limiting KG curve, the figures, the HTML
-  text, WeasyPrint's layout, and its painting and writing of the PDF.
+  text, WeasyPrint's layout (with the check that every figure fits its column), and its
+  painting and writing of the PDF.
 
 Target (the package issue): the whole process within the import time + 0.5 s per condition.
 
@@ -54,7 +55,7 @@ def phases(conditions: list[Path]) -> list[tuple[str, float]]:
     from reportgen.inputs import load_case
     from reportgen.pipeline import evaluate
     from reportgen.report import package, render
-    from reportgen.report.engine import collector_paused, document_html
+    from reportgen.report.engine import collector_paused, lay_out
     from reportgen.report.fonts import font_config
 
     warm = load_case(conditions[0])
@@ -76,10 +77,10 @@ def phases(conditions: list[Path]) -> list[tuple[str, float]]:
             f" SVG, matplotlib)")
         text = package.package_html(pkg, contexts, package.limits_page(pkg))
         lap("limits page figure and HTML text")
-        document = document_html(text, "the demo conditions").render(
-            stylesheets=[package._page_css(len(pkg.members))],
-            pdf_variant=render.PDF_VARIANT, font_config=font_config())
-        lap(f"WeasyPrint layout ({len(document.pages)} pages)")
+        document = lay_out(text, "the demo conditions", [package._page_css(len(pkg.members))],
+                           pdf_variant=render.PDF_VARIANT, font_config=font_config())
+        lap(f"WeasyPrint layout and the check that every figure fits its column "
+            f"({len(document.pages)} pages)")
         document.write_pdf(pdf_variant=render.PDF_VARIANT)
         lap("WeasyPrint painting and PDF writing")
     return steps

@@ -18,21 +18,31 @@
 cannot draw (reportgen.report.fonts.unprintable): WeasyPrint would print each as an empty box
 on a record that is signed and filed, and leave the PDF's text unreadable to extraction. A
 control character written as a YAML escape ("\a") is one of them.
+
+``lay_out`` lays a document out. The data tables have fixed column widths (cheap to lay out,
+sized for the demo ships' figures); where a figure is wider than its column (a ship of a few
+hundred thousand tonnes) it would run into its neighbour and read as another number. The
+document is then laid out again with every table sized by its content (CSS 2.1, 17.5.2.2,
+automatic table layout), and refused (InputError) if a figure still does not fit.
 """
 
 from __future__ import annotations
 
 import re
+from collections.abc import Iterator
 from functools import lru_cache
+from typing import Any
 
 import weasyprint
 from weasyprint import html as weasyprint_html
+from weasyprint.formatting_structure import boxes
 
 from reportgen.errors import InputError
 from reportgen.inputs.yamlread import cyclic_gc_paused as collector_paused
 from reportgen.report import fonts
 
-__all__ = ["collector_paused", "document_html", "trimmed_user_agent_css"]
+__all__ = ["collector_paused", "document_html", "lay_out", "overflowing_figures",
+           "trimmed_user_agent_css"]
 
 # Rules of WeasyPrint's html5_ua.css (one line each) for the notes of CSS GCPM 3 (footnotes)
 # and its note areas: reportgen's documents have neither.
@@ -82,3 +92,53 @@ def document_html(text: str, where: str) -> weasyprint.HTML:
                          f"boxes: {shown}{' ...' if len(missing) > 8 else ''}; write the "
                          f"text with other characters")
     return _DocumentHTML(string=without_table_white_space(text))
+
+
+_FIGURE = re.compile(r"[−+-]?\d[\d.,]*")  # a number as the documents print it
+OVERFLOW_TOLERANCE_PT = 0.5  # a figure may touch its cell's edge by this much (CSS px = pt·4/3)
+CONTENT_SIZED_TABLES = "table { table-layout: auto !important; }"
+
+
+def _descendants(box: boxes.Box) -> Iterator[boxes.Box]:
+    yield box
+    for child in getattr(box, "children", None) or ():
+        yield from _descendants(child)
+
+
+def overflowing_figures(document: weasyprint.Document) -> list[str]:
+    """The figures (numbers) of the document's table cells that reach beyond their cell's
+    padding box (into a neighbouring cell) or beyond the page's content area (into the margin
+    or off the page), in page order."""
+    slack = OVERFLOW_TOLERANCE_PT * 4.0 / 3.0  # WeasyPrint's unit is the CSS px
+    found = []
+    for page in document.pages:
+        area = page._page_box
+        area_left, area_right = area.content_box_x(), area.content_box_x() + area.width
+        for cell in _descendants(area):
+            if not isinstance(cell, boxes.TableCellBox):
+                continue
+            left = max(cell.content_box_x() - cell.padding_left, area_left) - slack
+            right = min(cell.content_box_x() + cell.width + cell.padding_right,
+                        area_right) + slack
+            found += [t.text for t in _descendants(cell)
+                      if isinstance(t, boxes.TextBox) and _FIGURE.fullmatch(t.text.strip())
+                      and (t.position_x < left or t.position_x + t.width > right)]
+    return found
+
+
+def lay_out(text: str, where: str, stylesheets: list[weasyprint.CSS],
+            **options: Any) -> weasyprint.Document:
+    """The laid-out pages of the HTML text (module docstring): with the stylesheets' fixed
+    column widths, or with tables sized by their content where a figure does not fit."""
+    html = document_html(text, where)
+    document = html.render(stylesheets=stylesheets, **options)
+    if not overflowing_figures(document):
+        return document
+    sized = weasyprint.CSS(string=CONTENT_SIZED_TABLES)
+    document = html.render(stylesheets=[*stylesheets, sized], **options)
+    wide = overflowing_figures(document)
+    if wide:
+        raise InputError(f"{where}: {len(wide)} figure(s) are too wide for the document's "
+                         f"tables even with columns sized by their content, and would run "
+                         f"into the next column: {', '.join(wide[:5])}")
+    return document

@@ -23,7 +23,7 @@ from reportgen.files import check_output, write_atomic
 from reportgen.limitcurve import LIMITS_NAME, NOT_ON_CURVE, REQUEST_NAME, to_json
 from reportgen.provenance import approval_name
 from reportgen.report import fonts
-from reportgen.report.engine import document_html
+from reportgen.report.engine import lay_out
 from reportgen.report.limitsfig import limits_figure_svg
 from reportgen.report.render import (
     FIXED_EPOCH,
@@ -87,9 +87,8 @@ def render_limits(vessel_name: str, vessel_bytes: bytes, doc: dict,
          if approval is not None else [])
 
     def layout() -> weasyprint.Document:
-        return document_html(limits_html(doc, vessel_sets, approved), vessel_name).render(
-            stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
-            font_config=fonts.font_config())
+        return lay_out(limits_html(doc, vessel_sets, approved), vessel_name, [_stylesheet()],
+                       pdf_variant=PDF_VARIANT, font_config=fonts.font_config())
 
     return pdf_bytes(layout, when, doc["inputs_sha256"], data, attachments)
 

@@ -41,7 +41,7 @@ from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
 from reportgen.report import render as sheet
 from reportgen.report.appendix import vessel_appendix
-from reportgen.report.engine import document_html
+from reportgen.report.engine import lay_out
 from reportgen.report.limitsfig import limits_figure_svg
 from reportgen.results import Results
 
@@ -285,10 +285,10 @@ def layout_package(pkg: Package) -> weasyprint.Document:
     condition's own pages come from CSS (target-counter, page groups), which WeasyPrint
     resolves while it paginates."""
     contexts = [sheet.condition_context(m.case, m.results) for m in pkg.members]
-    html = document_html(package_html(pkg, contexts, limits_page(pkg)),
-                         "the package's title, condition files or vessel file")
-    return html.render(stylesheets=[_page_css(len(pkg.members))],
-                       pdf_variant=sheet.PDF_VARIANT, font_config=fonts.font_config())
+    return lay_out(package_html(pkg, contexts, limits_page(pkg)),
+                   "the package's title, condition files or vessel file",
+                   [_page_css(len(pkg.members))], pdf_variant=sheet.PDF_VARIANT,
+                   font_config=fonts.font_config())
 
 
 def _attachments(pkg: Package, data_json: str) -> list[weasyprint.Attachment]:

@@ -38,7 +38,7 @@ from reportgen.docinfo import RESULTS_NAME, ROLES, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
-from reportgen.report.engine import collector_paused, document_html
+from reportgen.report.engine import collector_paused, lay_out
 from reportgen.report.figure_heeling import heeling_figure_svg
 from reportgen.report.figures import gz_figure_svg, weather_figure_svg
 from reportgen.report.grainfigure import grain_figure_svg
@@ -318,10 +318,8 @@ def _finisher(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
 
 def layout_sheet(case: Any, results: Results) -> weasyprint.Document:
     """The laid-out pages of the sheet (WeasyPrint document) for a results document."""
-    html = document_html(sheet_html(case, results),
-                         f"{case.condition_name} (vessel {case.vessel_name})")
-    return html.render(stylesheets=[_stylesheet()], pdf_variant=PDF_VARIANT,
-                       font_config=fonts.font_config())
+    return lay_out(sheet_html(case, results), f"{case.condition_name} (vessel {case.vessel_name})",
+                   [_stylesheet()], pdf_variant=PDF_VARIANT, font_config=fonts.font_config())
 
 
 def render_sheet(case: Any, results: Results) -> bytes:
