@@ -140,5 +140,5 @@ def lay_out(text: str, where: str, stylesheets: list[weasyprint.CSS],
     if wide:
         raise InputError(f"{where}: {len(wide)} figure(s) are too wide for the document's "
                          f"tables even with columns sized by their content, and would run "
-                         f"into the next column: {', '.join(wide[:5])}")
+                         f"into the next column or off the page: {', '.join(wide[:5])}")
     return document
