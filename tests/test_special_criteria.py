@@ -227,6 +227,15 @@ def test_ice_on_the_box_by_hand(tmp_path, allowance, f):
     assert d["hydrostatics"]["kg_solid"] == pytest.approx(kg, abs=1e-6)
 
 
+def test_iced_decks_below_the_waterline_are_refused(tmp_path):
+    # IS Code 2008 Part B 6.1: the ice allowance is for exposed weather decks and gangways,
+    # above the waterline; an ice centre at or below the summer draught would lower KG.
+    low = {"icing": {**ICE_VESSEL["icing"], "deck_vcg": 3.0}}  # summer draught 10 m
+    path = write_case(tmp_path, condition_dict(items=[], icing="full"), vessel_dict(**low))
+    with pytest.raises(InputError, match="not above the summer draught"):
+        evaluate_path(path)
+
+
 def test_icing_needs_the_vessels_areas(tmp_path):
     path = write_case(tmp_path, condition_dict(items=[], icing="full"),
                       vessel_dict())

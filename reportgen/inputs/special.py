@@ -50,7 +50,8 @@ def vessel_problems(p: Particulars, passengers: VesselPassengers | None,
                     icing: VesselIcing | None, top_m: float) -> list[str]:
     """Passenger decks and icing areas that lie outside the ship (SPEC.md: physically impossible
     positions are refused): x outside −0.05·Lpp … 1.05·Lpp, |y| > B/2, z below the base or above
-    the top of the windage profile (`top_m`)."""
+    the top of the windage profile (`top_m`); and exposed decks that ice up with their centre
+    at or below the summer draught (under water in the deepest condition)."""
     top = top_m
     lo_x, hi_x = -0.05 * p.length_bp, 1.05 * p.length_bp
     out = []
@@ -70,6 +71,11 @@ def vessel_problems(p: Particulars, passengers: VesselPassengers | None,
         if not 0.0 <= ice.deck_vcg <= top:
             out.append(f"icing.deck_vcg: {ice.deck_vcg:g} m is outside the ship (0 to "
                        f"{top:g} m)")
+        elif ice.deck_vcg <= p.summer_draft:
+            # Ice placed this low would lower KG: the allowance would flatter the condition.
+            out.append(f"icing.deck_vcg: {ice.deck_vcg:g} m is not above the summer draught "
+                       f"({p.summer_draft:g} m): the exposed decks that ice up lie above the "
+                       f"waterline (IS Code 2008 Part B 6.1)")
         if not lo_x <= ice.deck_lcg <= hi_x:
             out.append(f"icing.deck_lcg: {ice.deck_lcg:g} m is outside the ship")
     return out
