@@ -91,21 +91,15 @@ def test_a_name_longer_than_its_column_stays_inside_its_cell(tmp_path):
     item = {"name": name, "mass": 3000.0, "lcg": L / 2, "vcg": 4.0}
     case = load_case(write_case(tmp_path, condition_dict(items=[item])))
     document = layout_sheet(case, evaluate(case))
-
-    def descendants(box):
-        yield box
-        for child in getattr(box, "children", None) or []:
-            yield from descendants(child)
-
-    cells = [b for page in document.pages for b in descendants(page._page_box)
+    cells = [b for page in document.pages for b in page._page_box.descendants()
              if isinstance(b, boxes.TableCellBox)]
     named = [c for c in cells
-             if name[:8] in "".join(t.text for t in descendants(c)
+             if name[:8] in "".join(t.text for t in c.descendants()
                                     if isinstance(t, boxes.TextBox))]
     assert named
     for cell in named:
         left, right = cell.content_box_x(), cell.content_box_x() + cell.width
-        texts = [t for t in descendants(cell) if isinstance(t, boxes.TextBox)]
+        texts = [t for t in cell.descendants() if isinstance(t, boxes.TextBox)]
         assert len(texts) > 1  # broken over lines
         for t in texts:
             assert left - 0.5 <= t.position_x and t.position_x + t.width <= right + 0.5, t.text

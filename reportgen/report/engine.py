@@ -29,7 +29,6 @@ automatic table layout), and refused (InputError) if a figure still does not fit
 from __future__ import annotations
 
 import re
-from collections.abc import Iterator
 from functools import lru_cache
 from typing import Any
 
@@ -99,12 +98,6 @@ OVERFLOW_TOLERANCE_PT = 0.5  # a figure may touch its cell's edge by this much (
 CONTENT_SIZED_TABLES = "table { table-layout: auto !important; }"
 
 
-def _descendants(box: boxes.Box) -> Iterator[boxes.Box]:
-    yield box
-    for child in getattr(box, "children", None) or ():
-        yield from _descendants(child)
-
-
 def overflowing_figures(document: weasyprint.Document) -> list[str]:
     """The figures (numbers) of the document's table cells that reach beyond their cell's
     padding box (into a neighbouring cell) or beyond the page's content area (into the margin
@@ -114,13 +107,13 @@ def overflowing_figures(document: weasyprint.Document) -> list[str]:
     for page in document.pages:
         area = page._page_box
         area_left, area_right = area.content_box_x(), area.content_box_x() + area.width
-        for cell in _descendants(area):
+        for cell in area.descendants():
             if not isinstance(cell, boxes.TableCellBox):
                 continue
             left = max(cell.content_box_x() - cell.padding_left, area_left) - slack
             right = min(cell.content_box_x() + cell.width + cell.padding_right,
                         area_right) + slack
-            found += [t.text for t in _descendants(cell)
+            found += [t.text for t in cell.descendants()
                       if isinstance(t, boxes.TextBox) and _FIGURE.fullmatch(t.text.strip())
                       and (t.position_x < left or t.position_x + t.width > right)]
     return found
