@@ -261,7 +261,7 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
     if v.particulars.length_bp < MIN_LENGTH_M:
         warnings.append(f"The IS Code 2008 criteria apply to ships of {MIN_LENGTH_M:g} m in "
                         f"length and over; this ship is {v.particulars.length_bp:g} m.")
-    loading = condition_loading(v, c, vd.tank_list)
+    loading = condition_loading(v, c, vd.tanks)
     stage = _allowance_stage(case, sets)
     timber = pax = icing = None
     if stage is not None:

@@ -80,8 +80,7 @@ class VesselData:
     hydro: HydroTable | None
     cross: CrossCurves | None
     profile: Polygon
-    tanks: dict[str, TankTable]
-    tank_list: tuple[VesselTank, ...]  # the tanks in the vessel's order, as the loading reads them
+    tanks: tuple[VesselTank, ...]  # in the vessel's order, with their tables' arrays
     deck_edge: AngleTable | None
     flooding: AngleTable | None
     stations: tuple | None  # the hull offsets: ((x m, (n, 2) array of y, z m), ...)
@@ -105,10 +104,10 @@ def make_vessel_data(vessel: Vessel) -> VesselData:
 
         raise InputError(f"tanks {', '.join(untabled)} have a geometry but no table; make the "
                          f"tables first with 'reportgen tables'")
-    tanks = {t.id: TankTable.from_columns(t.table.sounding, t.table.volume, t.table.lcg,
-                                          t.table.vcg, t.table.tcg, t.table.fsi)
-             for t in vessel.tanks}
-    tank_list = tuple(vessel_tank(t, tanks[t.id]) for t in vessel.tanks)
+    tanks = tuple(vessel_tank(t, TankTable.from_columns(t.table.sounding, t.table.volume,
+                                                        t.table.lcg, t.table.vcg, t.table.tcg,
+                                                        t.table.fsi))
+                  for t in vessel.tanks)
     stations = None if vessel.hull is None else tuple(
         (float(s.x), np.asarray(s.points, dtype=float).reshape(-1, 2))
         for s in vessel.hull.stations)
@@ -117,7 +116,6 @@ def make_vessel_data(vessel: Vessel) -> VesselData:
         cross_curves(vessel.cross_curves) if vessel.cross_curves is not None else None,
         Polygon(vessel.windage.profile),
         tanks,
-        tank_list,
         angle_table(vessel.deck_edge),
         angle_table(vessel.flooding_angle),
         stations,

@@ -172,4 +172,5 @@ def test_vessel_data_refuses_a_tank_without_its_table(made):
     base, _ = made
     with pytest.raises(InputError, match="C1, W1 have a geometry but no table"):
         make_vessel_data(load_vessel(base / "box-hull.yaml"))
-    assert make_vessel_data(load_vessel(base / "box.yaml")).tanks["C1"].capacity_m3 == 120.0
+    tanks = {t.id: t for t in make_vessel_data(load_vessel(base / "box.yaml")).tanks}
+    assert tanks["C1"].table.capacity_m3 == 120.0
