@@ -59,15 +59,16 @@ class Angles:
 def from_table(table: AngleTable, displacement_table_t: float, trim_m: float, what: str
                ) -> float:
     """An angle (deg) from a displacement (-> trim) table: linear, never extrapolated."""
-    disp, (lo, hi), angle, trims, trim_range = table.lists
+    (disp, lo, hi), angle, trims = table.lists
     if outside(displacement_table_t, lo, hi):
         raise range_error(displacement_table_t, lo, hi, what)
     rows = interp_columns(displacement_table_t, disp, angle)
-    if trims is None or len(trims) == 1:
+    if trims is None or len(trims[0]) == 1:
         return rows[0]
-    if outside(trim_m, *trim_range):
-        raise range_error(trim_m, *trim_range, f"{what}'s trims", unit="m")
-    return interp(trim_m, trims, rows)
+    trim_axis, trim_lo, trim_hi = trims
+    if outside(trim_m, trim_lo, trim_hi):
+        raise range_error(trim_m, trim_lo, trim_hi, f"{what}'s trims", unit="m")
+    return interp(trim_m, trim_axis, rows)
 
 
 def _bracket(axis: list[float], value: float) -> list[int]:
@@ -83,8 +84,8 @@ def governing_opening(table: AngleTable, displacement_table_t: float, trim_m: fl
     None when the table names no openings."""
     if table.opening is None:
         return None
-    disp, _, angle, trims, _ = table.lists
-    ks = [0] if trims is None or len(trims) == 1 else _bracket(trims, trim_m)
+    (disp, _, _), angle, trims = table.lists
+    ks = [0] if trims is None or len(trims[0]) == 1 else _bracket(trims[0], trim_m)
     corners = [(angle[k][i], table.opening[k][i])
                for k in ks for i in _bracket(disp, displacement_table_t)]
     return str(min(corners, key=lambda c: c[0])[1])

@@ -62,7 +62,7 @@ class HydroTable:
             xp = self.displacement[k]
             cols = {n: None if getattr(self, n) is None else getattr(self, n)[k].tolist()
                     for n in COLUMNS}
-            out.append((xp.tolist(), float(np.min(xp)), float(np.max(xp)), cols))
+            out.append((*table_axis(xp), cols))
         return out
 
 
@@ -91,6 +91,12 @@ def table_displacement(displacement_t: float, water_density: float,
                        table_density: float) -> float:
     """Δ_t = Δ·ρ_t/ρ_w (t): the table's displacement at the same immersed volume."""
     return displacement_t * table_density / water_density
+
+
+def table_axis(values: np.ndarray) -> tuple[list[float], float, float]:
+    """A table's axis as a list, with its least and largest value (made once per table, for
+    reportgen.interp and `outside`)."""
+    return values.tolist(), float(np.min(values)), float(np.max(values))
 
 
 def outside(value: float, lo: float, hi: float) -> bool:

@@ -28,7 +28,7 @@ from typing import Literal
 import numpy as np
 from scipy.interpolate import CubicSpline, PPoly
 
-from reportgen.floating import outside, range_error
+from reportgen.floating import outside, range_error, table_axis
 
 GRID_STEP_DEG = 0.25  # grid on which sign changes and maxima are first located
 NEWTON_STEPS = 3  # refinements of each root or maximum from the grid (quadratic convergence)
@@ -57,11 +57,6 @@ def _weights(value: float, axis: list[float]) -> tuple[int, float]:
     return i, min(max(w, 0.0), 1.0)
 
 
-def _axis(values: np.ndarray) -> tuple[list[float], float, float]:
-    """A table axis as a list, with its least and largest value (made once per table)."""
-    return values.tolist(), float(np.min(values)), float(np.max(values))
-
-
 @dataclass(frozen=True, eq=False)  # arrays: == has no truth value; compared by identity
 class CrossCurves:
     """KN tables: heel_deg (from 0), displacement t (at the hydrostatic table's density),
@@ -84,7 +79,8 @@ class CrossCurves:
     @cached_property
     def _axes(self) -> tuple[tuple, tuple | None]:
         """The displacement and trim axes as (list, least, largest), made once."""
-        return _axis(self.displacement), None if self.trims is None else _axis(self.trims)
+        return (table_axis(self.displacement),
+                None if self.trims is None else table_axis(self.trims))
 
     @property
     def heel_max_deg(self) -> float:

@@ -12,7 +12,7 @@ from typing import TYPE_CHECKING
 import numpy as np
 from shapely.geometry import Polygon
 
-from reportgen.floating import HydroTable
+from reportgen.floating import HydroTable, table_axis
 from reportgen.inputs.vessel import rows_of
 from reportgen.loading import TankTable, VesselTank, vessel_tank
 from reportgen.stability import CrossCurves
@@ -33,14 +33,13 @@ class AngleTable:
     opening: np.ndarray | None = None  # (k, n) names of the governing openings, or None
 
     @cached_property
-    def lists(self) -> tuple[list[float], tuple[float, float], list[list[float]],
-                             list[float] | None, tuple[float, float] | None]:
-        """(displacement, its least and largest value, the angle rows, the trims and their
-        least and largest, or Nones) as lists, made once, for reportgen.interp."""
-        d, t = self.displacement, self.trims
-        return (d.tolist(), (float(np.min(d)), float(np.max(d))), self.angle.tolist(),
-                None if t is None else t.tolist(),
-                None if t is None else (float(np.min(t)), float(np.max(t))))
+    def lists(self) -> tuple[tuple[list[float], float, float], list[list[float]],
+                             tuple[list[float], float, float] | None]:
+        """(the displacement axis, the angle rows, the trim axis or None) as lists, each axis
+        with its least and largest value (floating.table_axis), made once, for
+        reportgen.interp."""
+        return (table_axis(self.displacement), self.angle.tolist(),
+                None if self.trims is None else table_axis(self.trims))
 
 
 def _trims(values: list[float] | None) -> np.ndarray | None:
