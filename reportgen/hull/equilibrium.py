@@ -63,7 +63,8 @@ def d_bracket(geom: HullGeometry, heel_deg: float, slope: float) -> tuple[float,
     return lo, hi
 
 
-def _state(geom: HullGeometry, plane: Plane) -> Equilibrium:
+def state_at(geom: HullGeometry, plane: Plane) -> Equilibrium:
+    """The immersed volume and centre of buoyancy under a given waterplane."""
     it = integrate(geom, clip_sections(geom, plane))
     v = it.volume_m3
     return Equilibrium(plane, v, it.mx_m4 / v, it.my_m4 / v, it.mz_m4 / v)
@@ -179,7 +180,7 @@ def _free_trim_nested(geom: HullGeometry, volume_m3: float, heel_deg: float, lcg
 
     def g(tau: float) -> float:
         p = solve_draft(geom, volume_m3, heel_deg, tau / lpp)
-        return _state(geom, p).lcb_m - lcg_m
+        return state_at(geom, p).lcb_m - lcg_m
 
     lo, hi = -0.05 * lpp, 0.05 * lpp
     g_lo, g_hi = g(lo), g(hi)
@@ -208,4 +209,4 @@ def equilibrium(geom: HullGeometry, volume_m3: float, heel_deg: float,
                 lcg_m: float | None = None, guess: Plane | None = None) -> Equilibrium:
     """Equilibrium at heel: even keel (slope 0) when `lcg_m` is None, else free trim with
     xB = lcg_m. `guess` (a nearby plane at any heel) speeds up the free-trim solve."""
-    return _state(geom, equilibrium_plane(geom, volume_m3, heel_deg, lcg_m, guess))
+    return state_at(geom, equilibrium_plane(geom, volume_m3, heel_deg, lcg_m, guess))

@@ -15,10 +15,10 @@ from scipy.optimize import brentq
 
 from reportgen.hull.equilibrium import (
     Equilibrium,
-    _state,
     equilibrium,
     equilibrium_plane,
     solve_draft,
+    state_at,
 )
 from reportgen.hull.hydrostatics import (
     HullGeometry,
@@ -205,7 +205,7 @@ def heel_scan(geom: HullGeometry, volume_m3: float, lcg_m: float | None,
     buoyancy at each)."""
     planes = Scan(geom, volume_m3, lcg_m, heels_deg,
                   None if upright is None else upright.plane)
-    return [upright if upright is not None and p is upright.plane else _state(geom, p)
+    return [upright if upright is not None and p is upright.plane else state_at(geom, p)
             for p in planes]
 
 

@@ -18,7 +18,7 @@ from collections.abc import Sequence
 import numpy as np
 from scipy.integrate import trapezoid
 
-from reportgen.hull.equilibrium import Equilibrium, _state, solve_draft
+from reportgen.hull.equilibrium import Equilibrium, solve_draft, state_at
 from reportgen.hull.hydrostatics import HullGeometry, Plane, clip_sections, hydrostatics_at
 
 # A hull whose volume or LCB at the summer draught moves by more than these between Simpson's
@@ -33,7 +33,7 @@ MAX_LCB_SPREAD = 0.001  # of Lpp
 def upright_at_trim(geom: HullGeometry, volume_m3: float, trim_m: float) -> Equilibrium:
     """The upright waterplane at trim `trim_m` (m, + by the stern) immersing `volume_m3`, and
     its centre of buoyancy (its LCB is the LCG that makes the ship float at that trim)."""
-    return _state(geom, solve_draft(geom, volume_m3, 0.0, trim_m / geom.length_bp_m))
+    return state_at(geom, solve_draft(geom, volume_m3, 0.0, trim_m / geom.length_bp_m))
 
 
 def hydrostatic_rows(geom: HullGeometry, drafts_m: np.ndarray, trim_m: float, density: float
