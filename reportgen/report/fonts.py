@@ -17,8 +17,7 @@ from weasyprint.text.fonts import FontConfiguration
 FAMILY = "Sheet Sans"
 TYPEFACE = "DejaVu Sans"  # the typeface FAMILY names, for messages
 _FILES = {"normal": "DejaVuSans.ttf", "bold": "DejaVuSans-Bold.ttf"}
-MATPLOTLIB_FAMILY = "DejaVu Sans"  # the name matplotlib writes into SVG text styles
-
+MATPLOTLIB_FAMILY = TYPEFACE  # the name matplotlib writes into SVG text styles
 
 LAYOUT_CHARACTERS = frozenset("\n\r\t")  # laid out as white space, drawn with no glyph
 
