@@ -50,10 +50,28 @@ def _check(work: Path, old: str, new: str):
     ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: -1.0}", "vcg -1 m is outside"),
     ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0, tcg: 30.0}",
      "tcg 30 m is outside"),
+    # SPEC.md "Conventions" bounds exactly: x −0.05·Lpp … 1.05·Lpp (Lpp 97 m: −4.85 … 101.85),
+    # z up to the top of the windage profile (21 m on the demo ship)
+    ("{name: Stores and provisions, mass: 20.0, lcg: 102.0, vcg: 11.0}",
+     "lcg 102 m is outside the ship (-4.85 to 101.85 m"),
+    ("{name: Stores and provisions, mass: 20.0, lcg: -5.0, vcg: 11.0}", "lcg -5 m is outside"),
+    ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 21.5}",
+     "vcg 21.5 m is outside the ship (0 to 21 m"),
 ])
 def test_a_mass_outside_the_ship_is_refused(work, item, words):
     done = _check(work, ITEM_LINE, "  - " + item)
     assert done.exit_code == 2 and words in done.output and "Stores and provisions" in done.output
+
+
+@pytest.mark.parametrize("item", [
+    "{name: Stores and provisions, mass: 20.0, lcg: 101.8, vcg: 11.0}",  # just inside 1.05·Lpp
+    "{name: Stores and provisions, mass: 20.0, lcg: -4.8, vcg: 11.0}",
+    "{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 21.0}",  # at the profile's top
+    "{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0, tcg: 7.8}",  # at B/2
+])
+def test_a_mass_just_inside_the_bounds_is_assessed(work, item):
+    done = _check(work, ITEM_LINE, "  - " + item)
+    assert done.exit_code in (0, 1), done.output
 
 
 def _on_hull(work: Path) -> None:
