@@ -70,9 +70,12 @@ def check_draughts(d: Draughts, depth_m: float) -> None:
 
 
 def unwinded_deck_items(lines: Sequence[Line], windage_profile: Polygon, depth_m: float,
-                        items_with_wind: set[str]) -> list[str]:
-    """Names of items whose centre is above the deck and outside the lateral windage profile,
-    with no wind area of their own (`items_with_wind`: names of items that give one).
+                        items_with_wind: set[str]) -> tuple[list[str], list[str]]:
+    """Names of items whose centre is above the deck (VCG > moulded depth) and that give no
+    wind area (SPEC.md "Condition file": each gets a warning; `items_with_wind`: names of
+    items that give one, wind_area 0 included, which states that the item adds none), as two
+    lists: those outside the lateral windage profile (their windage is missing from the
+    weather criterion) and those inside it (taken as already in the profile).
 
     "Outside" is "not covered" (inside or on the outline is covered): for a point that is
     shapely's intersects, asked for every item at once (intersects_xy; tests/test_plausible.py
@@ -80,7 +83,8 @@ def unwinded_deck_items(lines: Sequence[Line], windage_profile: Polygon, depth_m
     above = [ln for ln in lines if ln.kind == "item" and ln.mass > 0.0 and ln.vcg > depth_m
              and ln.name not in items_with_wind]
     if not above:
-        return []
+        return [], []
     covered = shapely.intersects_xy(windage_profile, [ln.lcg for ln in above],
-                                    [ln.vcg for ln in above])
-    return [ln.name for ln, inside in zip(above, covered.tolist(), strict=True) if not inside]
+                                    [ln.vcg for ln in above]).tolist()
+    return ([ln.name for ln, inside in zip(above, covered, strict=True) if not inside],
+            [ln.name for ln, inside in zip(above, covered, strict=True) if inside])
