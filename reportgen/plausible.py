@@ -24,7 +24,7 @@ from shapely.geometry import Polygon
 
 from reportgen.errors import InputError
 from reportgen.floating import Draughts
-from reportgen.inputs.tables import outside_the_ship
+from reportgen.inputs.tables import outside_the_ship, ship_x_range
 from reportgen.loading import Line
 
 
@@ -67,6 +67,28 @@ def check_draughts(d: Draughts, depth_m: float) -> None:
             raise InputError(f"the draught at the {where} would be {value:.2f} m, above the "
                              f"moulded depth {depth_m:g} m (the deck under water upright): "
                              f"not an intact condition; check the masses and their lcg")
+
+
+def item_windage_problems(items: Sequence[tuple[str, float, float]], draft_mid_m: float,
+                          length_bp_m: float, top_m: float) -> list[str]:
+    """Items' windage (name, wind_area m², wind_z m above base) that cannot be: a centroid at
+    or below the waterline (``draft_mid_m``, midships; A of IS Code 2008 Part A 2.3.2.2 is the
+    lateral area above the waterline, and a centroid below it would lower the wind lever) or
+    above the top of the windage profile ``top_m`` (SPEC.md "Conventions" bounds a centre at
+    that top); an area larger than the whole silhouette's box, the ship's length (−0.05·Lpp
+    … 1.05·Lpp) × the profile's top."""
+    x_lo, x_hi = ship_x_range(length_bp_m)
+    box_m2 = (x_hi - x_lo) * top_m
+    out = []
+    for name, area, z in items:
+        if not draft_mid_m < z <= top_m:
+            out.append(f"item {name!r}: wind_z {z:g} m is outside the windage above the "
+                       f"waterline (above the midships draught {draft_mid_m:.3f} m, up to the "
+                       f"top of the windage profile {top_m:g} m)")
+        if area > box_m2:
+            out.append(f"item {name!r}: wind_area {area:g} m² exceeds the ship's whole "
+                       f"silhouette box ({x_hi - x_lo:g} m × {top_m:g} m = {box_m2:.0f} m²)")
+    return out
 
 
 def unwinded_deck_items(lines: Sequence[Line], windage_profile: Polygon, depth_m: float,

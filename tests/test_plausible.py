@@ -249,3 +249,17 @@ def test_the_demo_hulls_and_openings_are_plausible():
         top = max(z for _, z in v.windage.profile)
         assert hull_problems(v.particulars, v.hull) == []
         assert opening_problems(v.particulars, v.openings, top) == []
+
+
+@pytest.mark.parametrize("wind, words", [
+    # A of IS Code 2008 Part A 2.3.2.2 is the lateral area above the waterline: a centroid
+    # below it (here below the base) would shorten the wind lever, the unsafe direction
+    ("wind_area: 40.0, wind_z: -1.0", "wind_z -1 m is outside the windage above the waterline"),
+    ("wind_area: 40.0, wind_z: 3.0", "wind_z 3 m is outside"),  # under the 6.15 m draught
+    ("wind_area: 40.0, wind_z: 1.0e+6", "wind_z 1e+06 m is outside"),
+    ("wind_area: 1.0e+12, wind_z: 11.0", "exceeds the ship's whole silhouette box"),
+])
+def test_item_windage_that_cannot_be_is_refused(work, wind, words):
+    done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Deck pipes, mass: 100.0, lcg: 60.0, "
+                                              f"vcg: 11.0, {wind}}}")
+    assert done.exit_code == 2 and words in done.output and "Deck pipes" in done.output
