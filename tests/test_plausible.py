@@ -24,7 +24,7 @@ from reportgen.inputs import parse_vessel
 from reportgen.inputs.tablecheck import table_problems
 
 DEMO_VESSEL = ROOT / "conditions" / "vessels" / "linnet-demo.yaml"
-ITEM_LINE = "  - {name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0}"
+ITEM_LINE = "  - {name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0, wind_area: 0}"
 
 
 @pytest.fixture()
@@ -50,10 +50,28 @@ def _check(work: Path, old: str, new: str):
     ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: -1.0}", "vcg -1 m is outside"),
     ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0, tcg: 30.0}",
      "tcg 30 m is outside"),
+    # SPEC.md "Conventions" bounds exactly: x −0.05·Lpp … 1.05·Lpp (Lpp 97 m: −4.85 … 101.85),
+    # z up to the top of the windage profile (21 m on the demo ship)
+    ("{name: Stores and provisions, mass: 20.0, lcg: 102.0, vcg: 11.0}",
+     "lcg 102 m is outside the ship (-4.85 to 101.85 m"),
+    ("{name: Stores and provisions, mass: 20.0, lcg: -5.0, vcg: 11.0}", "lcg -5 m is outside"),
+    ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 21.5}",
+     "vcg 21.5 m is outside the ship (0 to 21 m"),
 ])
 def test_a_mass_outside_the_ship_is_refused(work, item, words):
     done = _check(work, ITEM_LINE, "  - " + item)
     assert done.exit_code == 2 and words in done.output and "Stores and provisions" in done.output
+
+
+@pytest.mark.parametrize("item", [
+    "{name: Stores and provisions, mass: 20.0, lcg: 101.8, vcg: 11.0}",  # just inside 1.05·Lpp
+    "{name: Stores and provisions, mass: 20.0, lcg: -4.8, vcg: 11.0}",
+    "{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 21.0}",  # at the profile's top
+    "{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0, tcg: 7.8}",  # at B/2
+])
+def test_a_mass_just_inside_the_bounds_is_assessed(work, item):
+    done = _check(work, ITEM_LINE, "  - " + item)
+    assert done.exit_code in (0, 1), done.output
 
 
 def _on_hull(work: Path) -> None:
@@ -86,6 +104,17 @@ def test_a_condition_with_the_deck_under_water_is_refused(work):
     done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Big, mass: 1500.0, lcg: 30.0, "
                                               "vcg: 5.0}")
     assert done.exit_code == 2 and "above the moulded depth" in done.output
+
+
+def test_an_item_above_the_deck_inside_the_profile_is_named_unless_it_states_no_windage(work):
+    # SPEC.md "Condition file": an item whose VCG is above the depth and that has no
+    # wind_area gets a warning. Stores at (9, 11) lie inside the demo ship's accommodation in
+    # its profile: the warning says its windage is taken as inside the profile.
+    done = _check(work, ITEM_LINE, ITEM_LINE.replace(", wind_area: 0}", "}"))
+    assert "'Stores and provisions' lies above the deck and gives no wind_area" in done.output
+    assert done.output.index("Result:") < done.output.index("'Stores and provisions' lies")
+    done = _check(work, "x", "x")  # the demo states wind_area: 0
+    assert "Stores and provisions' lies" not in done.output and done.exit_code in (0, 1)
 
 
 def test_deck_cargo_without_windage_is_named_beside_the_verdict(work):
@@ -149,7 +178,9 @@ def test_items_outside_the_profile_as_shapely_covers_finds_them():
     points = np.vstack([xy, on_edges, rng.uniform([-5.0, 0.0], [105.0, 25.0], (400, 2))])
     lines = [item_line(f"p{i}", 1.0, x, z, 0.0) for i, (x, z) in enumerate(points)]
     want = [ln.name for ln in lines if not profile.covers(Point(ln.lcg, ln.vcg))]
-    assert unwinded_deck_items(lines, profile, -1.0, set()) == want
+    outside, inside = unwinded_deck_items(lines, profile, -1.0, set())
+    assert outside == want
+    assert inside == [ln.name for ln in lines if ln.name not in want]
     assert 0 < len(want) < len(lines)
 
 
