@@ -263,3 +263,45 @@ def test_item_windage_that_cannot_be_is_refused(work, wind, words):
     done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Deck pipes, mass: 100.0, lcg: 60.0, "
                                               f"vcg: 11.0, {wind}}}")
     assert done.exit_code == 2 and words in done.output and "Deck pipes" in done.output
+
+
+def test_a_breadth_the_tables_and_offsets_contradict_is_refused():
+    # B in mm (15600 for 15.6 m) would make B/d, X1 and T of the weather criterion flatter
+    # the ship. B is the greatest moulded breadth, so the offsets reach B/2 (definition).
+    def with_offsets(data):
+        data["particulars"]["breadth"] = 15600.0
+
+    assert "the hull offsets' greatest half-breadth is 7.8 m" in _vessel_problem(with_offsets)
+
+    # Without offsets: Δ/(ρ·Lwl·B·T) at the summer draught (definition of CB) comes out
+    # 1000 times too small.
+    def tables_only(data):
+        data["particulars"]["breadth"] = 15600.0
+        data.pop("hull")
+        data["calculation"]["method"] = "tables"
+        data["tanks"] = [t for t in data["tanks"] if "table" in t]
+
+    assert "gives a block coefficient of 0.001" in _vessel_problem(tables_only)
+
+
+def test_a_depth_above_the_windage_profile_is_refused():
+    def edit(data):
+        data["particulars"]["depth"] = 84.0  # 8.4 m typed with a slipped decimal point
+
+    assert "particulars.depth 84 m is above the top of the windage profile" in \
+        _vessel_problem(edit)
+
+
+@pytest.mark.parametrize("column, value, words", [
+    ("lcg", 1e12, "lcg 1e+12 m is outside the ship"),
+    ("vcg", -1.0, "vcg -1 m is outside the ship"),
+    ("tcg", 30.0, "tcg 30 m is outside the ship's breadth"),
+    ("fsi", 1e12, "exceeds the widest waterplane's L·B³/12"),
+])
+def test_a_tank_table_row_no_tank_can_have_is_refused(column, value, words):
+    # A row the demo conditions never read (the first) is refused as well: another filling
+    # would read it.
+    def edit(data):
+        data["tanks"][0]["table"][column][0] = value
+
+    assert "table row 1" in (got := _vessel_problem(edit)) and words in got

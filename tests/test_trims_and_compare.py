@@ -151,12 +151,25 @@ def test_box_hydrostatics_at_trims_match_closed_forms(box_tables):
     assert len(box_tables["deck_edge"]["angle"]) == 3
 
 
+def _box_hull_vessel() -> dict:
+    """A vessel file of the 40 × 10 × 6 m box on five stations: its particulars, lightship
+    and profile those of the box (a file whose offsets contradict its breadth and depth is
+    refused)."""
+    d = vessel_dict(
+        hull={"stations": [{"x": x, "points": p.tolist()}
+                           for x, p in box_stations(40.0, 10.0, 6.0, n=5)]},
+        particulars={"length_bp": 40.0, "breadth": 10.0, "depth": 6.0, "summer_draft": 3.5},
+        lightship={"mass": 400.0, "lcg": 20.0, "vcg": 3.0},
+        windage={"profile": [[0.0, 0.0], [40.0, 0.0], [40.0, 8.0], [0.0, 8.0]]}, tanks=[])
+    del d["hydrostatics"], d["cross_curves"]  # the tables of the other box: `tables` makes them
+    return d
+
+
 def test_trimmed_tables_load_as_a_vessel_file(box_tables, tmp_path):
     from reportgen.hull.tables import vessel_text_with_tables
     from reportgen.inputs import parse_vessel
 
-    base = yaml.safe_dump(vessel_dict(hull={"stations": [
-        {"x": x, "points": p.tolist()} for x, p in box_stations(40.0, 10.0, 6.0, n=5)]}))
+    base = yaml.safe_dump(_box_hull_vessel())
     text = vessel_text_with_tables(base, box_tables)
     v = parse_vessel(text.encode(), "box.yaml")
     assert v.cross_curves.trims == [-0.5, 0.0, 1.0]
@@ -186,8 +199,7 @@ def test_a_block_coefficient_above_one_is_refused():
 ])
 def test_tables_trims_misuse(tmp_path, args, message):
     src = tmp_path / "hull.yaml"
-    src.write_text(yaml.safe_dump(vessel_dict(hull={"stations": [
-        {"x": x, "points": p.tolist()} for x, p in box_stations(40.0, 10.0, 6.0, n=5)]})))
+    src.write_text(yaml.safe_dump(_box_hull_vessel()))
     out = tmp_path / "out.yaml"
     r = CliRunner().invoke(main, ["tables", str(src), "-o", str(out), *args])
     assert r.exit_code == 2 and message in r.output and not out.exists()

@@ -21,6 +21,17 @@ The bounds are physical, not statistical, so that no real ship is refused:
 - Hull offsets: the moulded breadth B is the greatest moulded breadth, so no half-breadth
   exceeds B/2 (a full breadth typed for a half-breadth doubles the ship's stability); stations
   lie within the length with overhangs, and points run up to at most a breadth above the deck.
+- The particulars against the rest of the file: the hull side reaches the deck at side, so the
+  moulded depth D is not above the top of the windage profile (the lateral projection of hull
+  and superstructure); B is the greatest moulded breadth and D the depth to the deck at side,
+  so the hull offsets reach at least HULL_REACH_FRACTION of B/2 and of D (our tolerance for
+  stations that miss the widest section); and at the summer draught Δ/(ρ·Lwl·B·T) is at
+  least MIN_BLOCK_COEFFICIENT (our bound, below any displacement hull: a breadth typed in mm
+  or ten times too large shows here, and would have flattered the weather criterion).
+- A tank's table rows: centres within the ship as SPEC.md bounds a centre of mass (x −0.05·Lpp
+  … 1.05·Lpp, |y| ≤ B/2, z from the base to the profile's top), the volume within the box L ×
+  B × the profile's top, and the free surface's transverse moment of inertia at most that of
+  the ship's widest waterplane, L·B³/12 (a tank's surface lies inside it).
 - Unprotected openings lie within that length, within B/2 of the centreline, and between the
   base and a breadth above the deck or the top of the windage profile, whichever is higher
   (an opening typed in mm instead of m would never flood, and credit the whole GZ curve).
@@ -35,15 +46,24 @@ from typing import TYPE_CHECKING
 import numpy as np
 
 from reportgen.inputs.grain import VesselGrain
-from reportgen.inputs.tables import CrossCurves, Hydrostatics, Particulars
+from reportgen.inputs.tables import (
+    CrossCurves,
+    Hydrostatics,
+    Particulars,
+    outside_the_ship,
+    ship_x_range,
+)
 
 if TYPE_CHECKING:
+    from reportgen.inputs.tanks import Tank
     from reportgen.inputs.vessel import HullOffsets, Opening
 
 OVERHANG_FRACTION = 0.15  # of Lpp beyond each perpendicular (reportgen.plausible)
 KN_AT_ZERO_TOLERANCE_M = 0.01
 VHM_BOUND_FACTOR = 1.5  # our bound on VHM / (V·B): above the Grain Code's factors 1.06 and 1.12
 HALF_BREADTH_TOLERANCE = 1.005  # of B/2: offsets rounded to the last digit stay accepted
+HULL_REACH_FRACTION = 0.95  # of B/2 and of D that the offsets reach at least (our tolerance)
+MIN_BLOCK_COEFFICIENT = 0.15  # at the summer draught (our bound, below any displacement hull)
 
 
 def _first_bad(mask: np.ndarray) -> int | None:
@@ -209,4 +229,64 @@ def opening_problems(p: Particulars, openings: Sequence[Opening], top_m: float) 
         if not 0.0 <= o.z <= z_hi:
             out.append(f"{where}: z {o.z:g} m is outside the ship (0 to {z_hi:g} m above the "
                        f"base: a breadth above the deck or the top of the windage profile)")
+    return out
+
+
+def particulars_problems(p: Particulars, h: Hydrostatics | None, hull: HullOffsets | None,
+                         top_m: float) -> list[str]:
+    """Breadth and depth that the rest of the file contradicts (module docstring); ``top_m``
+    the top of the windage profile (m above the base)."""
+    out = []
+    if p.depth > top_m:
+        out.append(f"particulars.depth {p.depth:g} m is above the top of the windage profile "
+                   f"({top_m:g} m), which shows the hull's side up to the deck")
+    if hull is not None:
+        y_max = max(y for st in hull.stations for y, _ in st.points)
+        z_max = max(z for st in hull.stations for _, z in st.points)
+        if y_max < HULL_REACH_FRACTION * 0.5 * p.breadth:
+            out.append(f"particulars.breadth {p.breadth:g} m: the hull offsets' greatest "
+                       f"half-breadth is {y_max:g} m, not B/2 (B is the greatest moulded "
+                       f"breadth)")
+        if z_max < HULL_REACH_FRACTION * p.depth:
+            out.append(f"particulars.depth {p.depth:g} m: the hull offsets reach {z_max:g} m "
+                       f"above the base, not the deck at side")
+    if h is not None and h.draft[0] <= p.summer_draft <= h.draft[-1]:
+        k = 1 if h.trims is None else len(h.trims)
+        row = 0 if h.trims is None else int(np.argmin(np.abs(np.asarray(h.trims))))
+        disp = float(np.interp(p.summer_draft, h.draft,
+                               np.asarray(h.displacement, dtype=float).reshape(k, -1)[row]))
+        lwl = p.length_bp if h.lwl is None else float(np.interp(
+            p.summer_draft, h.draft, np.asarray(h.lwl, dtype=float).reshape(k, -1)[row]))
+        cb = disp / (h.density * lwl * p.breadth * p.summer_draft)
+        if cb < MIN_BLOCK_COEFFICIENT:
+            out.append(f"particulars.breadth {p.breadth:g} m: at the summer draught the "
+                       f"hydrostatic table's displacement {disp:.0f} t gives a block "
+                       f"coefficient of {cb:.3f}, below {MIN_BLOCK_COEFFICIENT:g} (check the "
+                       f"breadth, length and draught against the table)")
+    return out
+
+
+def tank_problems(p: Particulars, tanks: Sequence[Tank], top_m: float) -> list[str]:
+    """Tank table rows that no tank of this ship can have (module docstring)."""
+    x_lo, x_hi = ship_x_range(p.length_bp)
+    box_m3 = (x_hi - x_lo) * p.breadth * top_m
+    fsi_max_m4 = (x_hi - x_lo) * p.breadth ** 3 / 12.0
+    out = []
+    for t in tanks:
+        tb = t.table
+        if tb is None:
+            continue
+        for i, row in enumerate(zip(tb.volume, tb.lcg, tb.vcg, tb.tcg, tb.fsi, strict=True)):
+            volume, lcg, vcg, tcg, fsi = row
+            found = outside_the_ship(p.length_bp, p.breadth, top_m, lcg, tcg, vcg,
+                                     ("lcg", "tcg", "vcg"))
+            if volume > box_m3:
+                found.append(f"volume {volume:g} m³ exceeds the box around the ship "
+                             f"({box_m3:.0f} m³)")
+            if fsi > fsi_max_m4:
+                found.append(f"fsi {fsi:g} m⁴ exceeds the widest waterplane's L·B³/12 "
+                             f"({fsi_max_m4:.0f} m⁴)")
+            if found:
+                out.append(f"tanks ({t.id}) table row {i + 1}: " + "; ".join(found))
+                break
     return out

@@ -26,7 +26,13 @@ from reportgen.inputs.fields import (
 from reportgen.inputs.grain import VesselGrain
 from reportgen.inputs.marks import DraughtMarks, check_marks
 from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
-from reportgen.inputs.tablecheck import hull_problems, opening_problems, table_problems
+from reportgen.inputs.tablecheck import (
+    hull_problems,
+    opening_problems,
+    particulars_problems,
+    table_problems,
+    tank_problems,
+)
 from reportgen.inputs.tables import (  # noqa: F401 (re-exported)
     CrossCurves,
     Hydrostatics,
@@ -218,7 +224,9 @@ class Vessel(Model):
         if problems:
             raise ValueError("implausible tables: " + "; ".join(problems))
         top = max(z for _, z in self.windage.profile)
-        problems = (opening_problems(self.particulars, self.openings, top)
+        problems = (particulars_problems(self.particulars, self.hydrostatics, self.hull, top)
+                    + tank_problems(self.particulars, self.tanks, top)
+                    + opening_problems(self.particulars, self.openings, top)
                     + vessel_problems(self.particulars, self.passengers, self.icing, top))
         if problems:
             raise ValueError(problems[0])
