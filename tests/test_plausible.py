@@ -284,6 +284,14 @@ def test_a_breadth_the_tables_and_offsets_contradict_is_refused():
     assert "gives a block coefficient of 0.001" in _vessel_problem(tables_only)
 
 
+def test_a_bilge_keel_area_larger_than_the_hull_side_is_refused():
+    def edit(data):  # 18 m² typed in cm² would give k its most favourable 0.70 (Part A 2.3.4)
+        data["particulars"]["bilge_keel_area"] = 180000.0
+
+    assert "bilge_keel_area 180000 m² exceeds the side of the hull's box" in \
+        _vessel_problem(edit)
+
+
 def test_a_depth_above_the_windage_profile_is_refused():
     def edit(data):
         data["particulars"]["depth"] = 84.0  # 8.4 m typed with a slipped decimal point

@@ -27,7 +27,9 @@ The bounds are physical, not statistical, so that no real ship is refused:
   so the hull offsets reach at least HULL_REACH_FRACTION of B/2 and of D (our tolerance for
   stations that miss the widest section); and at the summer draught Δ/(ρ·Lwl·B·T) is at
   least MIN_BLOCK_COEFFICIENT (our bound, below any displacement hull: a breadth typed in mm
-  or ten times too large shows here, and would have flattered the weather criterion).
+  or ten times too large shows here, and would have flattered the weather criterion). The
+  bilge keels' and bar keel's area Ak is at most Lpp·D, the side of the hull's box (our
+  bound; a larger Ak would take the factor k of Part A 2.3.4 to its most favourable 0.70).
 - A tank's table rows: centres within the ship as SPEC.md bounds a centre of mass (x −0.05·Lpp
   … 1.05·Lpp, |y| ≤ B/2, z from the base to the profile's top), the volume within the box L ×
   B × the profile's top, and the free surface's transverse moment of inertia at most that of
@@ -237,6 +239,9 @@ def particulars_problems(p: Particulars, h: Hydrostatics | None, hull: HullOffse
     """Breadth and depth that the rest of the file contradicts (module docstring); ``top_m``
     the top of the windage profile (m above the base)."""
     out = []
+    if p.bilge_keel_area > p.length_bp * p.depth:
+        out.append(f"particulars.bilge_keel_area {p.bilge_keel_area:g} m² exceeds the side of "
+                   f"the hull's box, Lpp × D = {p.length_bp * p.depth:g} m²")
     if p.depth > top_m:
         out.append(f"particulars.depth {p.depth:g} m is above the top of the windage profile "
                    f"({top_m:g} m), which shows the hull's side up to the deck")
