@@ -26,6 +26,7 @@ from reportgen.errors import InputError
 from reportgen.floating import HydroTable, check_in_range, floating_on_tables
 from reportgen.inputs import Case
 from reportgen.inputs.condition import Condition
+from reportgen.inputs.tables import ship_x_range
 from reportgen.inputs.vessel import Lightship, Vessel
 from reportgen.limitsmodel import LimitsDocument
 from reportgen.plainjson import clean
@@ -110,8 +111,8 @@ def upright_at(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, vd: Vessel
     if abs(fl.trim - trim_m) > TRIM_MATCH_M:  # a guard: the inversion above is exact
         raise InputError(f"the ship cannot be put at a trim of {trim_m:g} m at {disp_t:.1f} t")
     dr = fl.draughts
-    if min(dr.aft, dr.fore) < 0.0 or max(dr.aft, dr.fore) > p.depth or \
-            not -0.05 * p.length_bp <= lcg <= 1.05 * p.length_bp:
+    x_lo, x_hi = ship_x_range(p.length_bp)
+    if min(dr.aft, dr.fore) < 0.0 or max(dr.aft, dr.fore) > p.depth or not x_lo <= lcg <= x_hi:
         raise ImpossibleTrim(f"a trim of {trim_m:g} m is not physically possible at this "
                          f"displacement (draughts aft {dr.aft:.2f} m, fore {dr.fore:.2f} m, "
                          f"depth {p.depth:g} m; LCG {lcg:.1f} m): choose a smaller --trim")

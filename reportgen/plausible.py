@@ -2,9 +2,9 @@
 and what the criteria would silently miss is named (SPEC.md "Conventions").
 
 Refused (InputError, exit status 2), each naming the line, key or value:
-- a mass whose centre lies outside the ship: LCG more than OVERHANG_FRACTION·Lpp beyond a
-  perpendicular, |TCG| more than B/2 off the centreline, VCG below the base line or more than
-  B above the deck (our bound: the centre of a cargo stack on deck is well below this);
+- a mass whose centre lies outside the ship as SPEC.md "Conventions" bounds it: LCG outside
+  −0.05·Lpp … 1.05·Lpp, |TCG| more than B/2 off the centreline, VCG below the base line or
+  above the top of the windage profile (reportgen.inputs.tables.outside_the_ship);
 - a draught at a perpendicular below zero (the keel out of the water) or above the moulded
   depth (the deck edge under water upright: not an intact condition the Code assesses).
 
@@ -24,34 +24,23 @@ from shapely.geometry import Polygon
 
 from reportgen.errors import InputError
 from reportgen.floating import Draughts
+from reportgen.inputs.tables import outside_the_ship
 from reportgen.loading import Line
-
-# Our bound for the overhangs beyond the perpendiculars (stern and bow overhangs of sea-going
-# ships are a few per cent of Lpp: a fact of common practice); a centre further out is refused.
-OVERHANG_FRACTION = 0.15
 
 
 def position_problems(lines: Sequence[Line], length_bp_m: float, breadth_m: float,
-                      depth_m: float) -> list[str]:
-    """Lines whose centre of mass lies outside the ship (module docstring); massless lines
-    are not looked at."""
-    x_lo, x_hi = -OVERHANG_FRACTION * length_bp_m, (1.0 + OVERHANG_FRACTION) * length_bp_m
-    z_hi = depth_m + breadth_m
+                      top_m: float) -> list[str]:
+    """Lines whose centre of mass lies outside the ship (SPEC.md "Conventions"; ``top_m`` the
+    top of the windage profile, m above the base). Massless lines are not looked at, nor the
+    allowances the tool places itself from checked data (passengers 1 m above a deck that
+    lies within the ship, which may stand above the profile's top on an open deck; timber's
+    absorbed water at its stack's centre)."""
     problems = []
     for ln in lines:
-        if ln.mass <= 0.0:
+        if ln.mass <= 0.0 or ln.kind == "allowance":
             continue
-        found = []
-        if not x_lo <= ln.lcg <= x_hi:
-            found.append(f"lcg {ln.lcg:g} m is outside the ship (from {x_lo:g} to "
-                         f"{x_hi:g} m, Lpp {length_bp_m:g} m with overhangs of "
-                         f"{OVERHANG_FRACTION:.0%} of Lpp)")
-        if abs(ln.tcg) > breadth_m / 2.0:
-            found.append(f"tcg {ln.tcg:g} m is outside the ship's breadth "
-                         f"({breadth_m / 2.0:g} m each side of the centreline)")
-        if not 0.0 <= ln.vcg <= z_hi:
-            found.append(f"vcg {ln.vcg:g} m is outside 0 to {z_hi:g} m (from the "
-                         f"base line to a breadth above the deck)")
+        found = outside_the_ship(length_bp_m, breadth_m, top_m, ln.lcg, ln.tcg, ln.vcg,
+                                 ("lcg", "tcg", "vcg"))
         if found:  # the label made only for a line named in the message
             label = f"{ln.kind} {ln.id or ln.name!r}"
             problems += [f"{label}: {text}" for text in found]
@@ -59,9 +48,9 @@ def position_problems(lines: Sequence[Line], length_bp_m: float, breadth_m: floa
 
 
 def check_positions(lines: Sequence[Line], length_bp_m: float, breadth_m: float,
-                    depth_m: float) -> None:
+                    top_m: float) -> None:
     """InputError naming every mass placed outside the ship."""
-    problems = position_problems(lines, length_bp_m, breadth_m, depth_m)
+    problems = position_problems(lines, length_bp_m, breadth_m, top_m)
     if problems:
         raise InputError("a mass lies outside the ship: " + "; ".join(problems))
 

@@ -20,6 +20,7 @@ from reportgen import stages
 from reportgen.errors import InputError
 from reportgen.inputs import Case
 from reportgen.inputs.condition import Item
+from reportgen.inputs.tables import outside_the_ship
 from reportgen.vesseldata import VesselData, vessel_data
 
 STEP_FIRST_T = 1.0  # t
@@ -53,13 +54,7 @@ def check_point(case: Case, x_m: float, y_m: float, z_m: float) -> None:
     v = case.vessel
     p = v.particulars
     top = max(z for _x, z in v.windage.profile)
-    bad = []
-    if not -0.05 * p.length_bp <= x_m <= 1.05 * p.length_bp:
-        bad.append(f"x {x_m:g} m is outside −0.05·Lpp … 1.05·Lpp")
-    if abs(y_m) > 0.5 * p.breadth:
-        bad.append(f"|y| {abs(y_m):g} m is more than B/2 = {0.5 * p.breadth:g} m")
-    if not 0.0 <= z_m <= top:
-        bad.append(f"z {z_m:g} m is below the base or above the windage profile ({top:g} m)")
+    bad = outside_the_ship(p.length_bp, p.breadth, top, x_m, y_m, z_m)
     if not all(math.isfinite(v) for v in (x_m, y_m, z_m)):
         bad.append("the point must be finite numbers")
     if bad:

@@ -269,7 +269,7 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
         pax, pax_lines = stage.passenger_lines(case)
         loading = stage.with_lines(loading, timber_lines + pax_lines)
     p = v.particulars
-    plausible.check_positions(loading.lines, p.length_bp, p.breadth, p.depth)
+    plausible.check_positions(loading.lines, p.length_bp, p.breadth, vd.profile.bounds[3])
     fl, kn, heel_max, finder, kn_warnings = _float(method, case, vd, loading)
     plausible.check_draughts(fl.draughts, p.depth)
     if stage is not None:

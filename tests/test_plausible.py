@@ -50,10 +50,28 @@ def _check(work: Path, old: str, new: str):
     ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: -1.0}", "vcg -1 m is outside"),
     ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0, tcg: 30.0}",
      "tcg 30 m is outside"),
+    # SPEC.md "Conventions" bounds exactly: x −0.05·Lpp … 1.05·Lpp (Lpp 97 m: −4.85 … 101.85),
+    # z up to the top of the windage profile (21 m on the demo ship)
+    ("{name: Stores and provisions, mass: 20.0, lcg: 102.0, vcg: 11.0}",
+     "lcg 102 m is outside the ship (-4.85 to 101.85 m"),
+    ("{name: Stores and provisions, mass: 20.0, lcg: -5.0, vcg: 11.0}", "lcg -5 m is outside"),
+    ("{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 21.5}",
+     "vcg 21.5 m is outside the ship (0 to 21 m"),
 ])
 def test_a_mass_outside_the_ship_is_refused(work, item, words):
     done = _check(work, ITEM_LINE, "  - " + item)
     assert done.exit_code == 2 and words in done.output and "Stores and provisions" in done.output
+
+
+@pytest.mark.parametrize("item", [
+    "{name: Stores and provisions, mass: 20.0, lcg: 101.8, vcg: 11.0}",  # just inside 1.05·Lpp
+    "{name: Stores and provisions, mass: 20.0, lcg: -4.8, vcg: 11.0}",
+    "{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 21.0}",  # at the profile's top
+    "{name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0, tcg: 7.8}",  # at B/2
+])
+def test_a_mass_just_inside_the_bounds_is_assessed(work, item):
+    done = _check(work, ITEM_LINE, "  - " + item)
+    assert done.exit_code in (0, 1), done.output
 
 
 def _on_hull(work: Path) -> None:
@@ -151,3 +169,70 @@ def test_items_outside_the_profile_as_shapely_covers_finds_them():
     want = [ln.name for ln in lines if not profile.covers(Point(ln.lcg, ln.vcg))]
     assert unwinded_deck_items(lines, profile, -1.0, set()) == want
     assert 0 < len(want) < len(lines)
+
+
+# Each bound below is physical (reportgen/inputs/tablecheck.py docstring); each edit is a typing
+# error a careless user makes that would flatter the ship (more GM, no downflooding, less grain
+# heeling), so a refusal is the only safe answer.
+
+def test_kmt_beyond_draught_plus_the_largest_bm_is_refused():
+    # KMt typed in cm: 100 × the table. KMt ≤ T + ρ·L·B³/(12·Δ) (BM = I_T/∇, I_T of the
+    # rectangle L × B is L·B³/12: second moment of area of a rectangle, any handbook).
+    def edit(data):
+        h = data["hydrostatics"]
+        h["kmt"] = (np.asarray(h["kmt"], dtype=float) * 100.0).tolist()
+
+    assert "hydrostatics.kmt at trim -3 m row 1" in _vessel_problem(edit)
+
+
+def test_tpc_beyond_a_waterplane_filling_the_box_is_refused():
+    # TPC = ρ·Awp/100 (definition); × 10 puts Awp beyond L × B.
+    def edit(data):
+        h = data["hydrostatics"]
+        h["tpc"] = (np.asarray(h["tpc"], dtype=float) * 10.0).tolist()
+
+    assert "hydrostatics.tpc" in _vessel_problem(edit)
+
+
+def test_full_breadths_given_as_offsets_are_refused():
+    # Offsets are half-breadths; the full breadth typed instead doubles y (and BM eightfold).
+    def edit(data):
+        for st in data["hull"]["stations"]:
+            st["points"] = [[2.0 * y, z] for y, z in st["points"]]
+
+    assert "exceeds half the moulded breadth (7.8 m)" in _vessel_problem(edit)
+
+
+@pytest.mark.parametrize("key, value, words", [
+    ("z", 11600.0, "z 11600 m is outside the ship"),  # typed in mm: it would never flood
+    ("x", -40.0, "x -40 m is outside the ship"),
+    ("y", 9.0, "y 9 m is beyond the side"),
+])
+def test_an_opening_outside_the_ship_is_refused(key, value, words):
+    def edit(data):
+        data["openings"][0][key] = value
+
+    assert words in _vessel_problem(edit)
+
+
+@pytest.mark.parametrize("key, value, words", [
+    ("vhm", 1e12, "volumetric heeling moment 1e+12"),  # no shift of the grain makes this
+    ("volume", 1e12, "volume 1e+12 m³ exceeds the box"),
+    ("vcg", 300.0, "vcg 300) m lies outside the ship"),
+])
+def test_grain_data_no_hold_can_have_are_refused(key, value, words):
+    def edit(data):
+        data["grain"]["compartments"][0]["filled"][key] = value
+        data["grain"]["compartments"][0].pop("partly", None)
+
+    assert words in _vessel_problem(edit)
+
+
+def test_the_demo_hulls_and_openings_are_plausible():
+    from reportgen.inputs.tablecheck import hull_problems, opening_problems
+
+    for name in ("linnet-demo.yaml", "plover-ferry.yaml"):
+        v = parse_vessel((DEMO_VESSEL.parent / name).read_bytes(), name)
+        top = max(z for _, z in v.windage.profile)
+        assert hull_problems(v.particulars, v.hull) == []
+        assert opening_problems(v.particulars, v.openings, top) == []

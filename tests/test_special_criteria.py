@@ -100,14 +100,14 @@ def test_timber_hand_values(tmp_path):
 
 def test_timber_arrival_adds_ten_percent_as_its_own_line(tmp_path):
     """Part B 3.4.2.8 (recalled from memory): +10 % of the timber deck cargo on arrival."""
-    deck = {"name": "Deck timber", "mass": 500.0, "lcg": 40.0, "vcg": 15.0, "timber": True}
+    deck = {"name": "Deck timber", "mass": 500.0, "lcg": 40.0, "vcg": 13.5, "timber": True}
     base = [{"name": "Cargo", "mass": 9000.0, "lcg": 50.0, "vcg": 5.0}, deck]
     dep = _run(tmp_path, base, criteria=("is2008.timber",))
     arr = _run(tmp_path, base, criteria=("is2008.timber",),
                condition={"title": "Arrival", "water_density": RHO, "arrival": True})
     lines = [ln for ln in arr["loading"]["lines"] if ln["kind"] == "allowance"]
     assert len(lines) == 1
-    assert (lines[0]["mass"], lines[0]["lcg"], lines[0]["vcg"]) == (50.0, 40.0, 15.0)
+    assert (lines[0]["mass"], lines[0]["lcg"], lines[0]["vcg"]) == (50.0, 40.0, 13.5)
     assert arr["loading"]["displacement"] == pytest.approx(dep["loading"]["displacement"] + 50)
     assert arr["timber"]["absorbed"] == pytest.approx(50.0)
     assert dep["timber"]["absorbed"] == 0.0

@@ -6,6 +6,7 @@ from typing import Self
 from pydantic import model_validator
 
 from reportgen.inputs.fields import Model, Num
+from reportgen.inputs.tables import ship_x_range
 
 
 class DraughtMarks(Model):
@@ -24,6 +25,7 @@ class DraughtMarks(Model):
 
 def check_marks(marks: DraughtMarks | None, lpp_m: float) -> None:
     """ValueError when a mark lies off the ship (x outside −0.05·Lpp … 1.05·Lpp, SPEC.md)."""
-    if marks is not None and not (-0.05 * lpp_m <= marks.aft and marks.fore <= 1.05 * lpp_m):
+    x_lo, x_hi = ship_x_range(lpp_m)
+    if marks is not None and not (x_lo <= marks.aft and marks.fore <= x_hi):
         raise ValueError(f"draught_marks: the marks must lie on the ship, x from "
-                         f"{-0.05 * lpp_m:g} to {1.05 * lpp_m:g} m (−0.05·Lpp to 1.05·Lpp)")
+                         f"{x_lo:g} to {x_hi:g} m (−0.05·Lpp to 1.05·Lpp)")

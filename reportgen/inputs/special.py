@@ -10,7 +10,7 @@ from typing import Annotated
 from pydantic import Field
 
 from reportgen.inputs.fields import Model, NonNegative, Num, Positive, Text
-from reportgen.inputs.tables import Particulars
+from reportgen.inputs.tables import Particulars, ship_x_range
 
 PASSENGER_SET = "is2008.passenger"
 TIMBER_SET = "is2008.timber"
@@ -53,7 +53,7 @@ def vessel_problems(p: Particulars, passengers: VesselPassengers | None,
     the top of the windage profile (`top_m`); and exposed decks that ice up with their centre
     at or below the summer draught (under water in the deepest condition)."""
     top = top_m
-    lo_x, hi_x = -0.05 * p.length_bp, 1.05 * p.length_bp
+    lo_x, hi_x = ship_x_range(p.length_bp)
     out = []
     if passengers is not None:
         for i, d in enumerate(passengers.decks):

@@ -20,6 +20,35 @@ from reportgen.inputs.fields import (
     increasing,
 )
 
+# SPEC.md "Conventions": a centre of mass (an item, a tank, a point) outside x = −0.05·Lpp …
+# 1.05·Lpp, |y| ≤ B/2, 0 ≤ z ≤ the top of the windage profile lies outside the ship.
+SHIP_X_FRACTIONS = (-0.05, 1.05)
+
+
+def ship_x_range(length_bp_m: float) -> tuple[float, float]:
+    """x from the AP (m) within which a centre of mass lies (SPEC.md "Conventions")."""
+    return SHIP_X_FRACTIONS[0] * length_bp_m, SHIP_X_FRACTIONS[1] * length_bp_m
+
+
+def outside_the_ship(length_bp_m: float, breadth_m: float, top_m: float,
+                     x: float | None = None, y: float | None = None, z: float | None = None,
+                     names: tuple[str, str, str] = ("x", "y", "z")) -> list[str]:
+    """What places a centre at (x, y, z) (m; None: not looked at) outside the ship (SPEC.md
+    "Conventions"), each as words naming the coordinate by ``names``; ``top_m`` the top of
+    the windage profile above the base (m)."""
+    x_lo, x_hi = ship_x_range(length_bp_m)
+    found = []
+    if x is not None and not x_lo <= x <= x_hi:
+        found.append(f"{names[0]} {x:g} m is outside the ship ({x_lo:g} to {x_hi:g} m from "
+                     f"the AP: −0.05·Lpp to 1.05·Lpp)")
+    if y is not None and not abs(y) <= breadth_m / 2.0:
+        found.append(f"{names[1]} {y:g} m is outside the ship's breadth ({breadth_m / 2.0:g} m "
+                     f"each side of the centreline)")
+    if z is not None and not 0.0 <= z <= top_m:
+        found.append(f"{names[2]} {z:g} m is outside the ship (0 to {top_m:g} m: from the base "
+                     f"line to the top of the windage profile)")
+    return found
+
 
 class Particulars(Model):
     length_bp: Positive  # Lpp, m

@@ -26,7 +26,7 @@ from reportgen.inputs.fields import (
 from reportgen.inputs.grain import VesselGrain
 from reportgen.inputs.marks import DraughtMarks, check_marks
 from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
-from reportgen.inputs.tablecheck import table_problems
+from reportgen.inputs.tablecheck import hull_problems, opening_problems, table_problems
 from reportgen.inputs.tables import (  # noqa: F401 (re-exported)
     CrossCurves,
     Hydrostatics,
@@ -218,12 +218,13 @@ class Vessel(Model):
                                  f"tanks of this vessel that name each other")
             if twin.content != t.content:
                 raise ValueError(f"tanks: the pair {t.id}/{twin.id} holds different contents")
-        problems = table_problems(self.particulars, self.hydrostatics, self.cross_curves,
-                                  self.grain)
+        problems = (table_problems(self.particulars, self.hydrostatics, self.cross_curves,
+                                   self.grain) + hull_problems(self.particulars, self.hull))
         if problems:
             raise ValueError("implausible tables: " + "; ".join(problems))
         top = max(z for _, z in self.windage.profile)
-        problems = vessel_problems(self.particulars, self.passengers, self.icing, top)
+        problems = (opening_problems(self.particulars, self.openings, top)
+                    + vessel_problems(self.particulars, self.passengers, self.icing, top))
         if problems:
             raise ValueError(problems[0])
         return self
