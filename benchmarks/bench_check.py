@@ -12,6 +12,14 @@ each case's SHA-256 of its input files (a property of the bytes read, computed o
 Everything of a condition (loading, floating, the heel scan on the hull, the angles, every KG
 of the margin search, the results) is computed afresh at each call.
 
+The whole process is timed against a process that only imports the libraries `check` needs,
+and (the line after it) against the same process ending as reportgen's command line ends:
+the command line freezes every object at exit (gc.freeze, reportgen.cli), which spares the
+interpreter's final full garbage collections over the libraries' objects, some 0.1 s that
+the plain yardstick still spends. The first ratio is the target's (a user's wait against
+the libraries' import); the second counts reportgen's own work alone (reading, validating,
+evaluating, printing, and importing and building its modules and models).
+
 Usage: python benchmarks/bench_check.py [CONDITION.yaml]   (default: conditions/*.yaml)
 """
 
