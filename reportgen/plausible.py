@@ -24,7 +24,7 @@ from shapely.geometry import Polygon
 
 from reportgen.errors import InputError
 from reportgen.floating import Draughts
-from reportgen.inputs.tables import outside_the_ship
+from reportgen.inputs.tables import outside_the_ship, ship_x_range
 from reportgen.loading import Line
 
 
@@ -69,10 +69,35 @@ def check_draughts(d: Draughts, depth_m: float) -> None:
                              f"not an intact condition; check the masses and their lcg")
 
 
+def item_windage_problems(items: Sequence[tuple[str, float, float]], draft_mid_m: float,
+                          length_bp_m: float, top_m: float) -> list[str]:
+    """Items' windage (name, wind_area m², wind_z m above base) that cannot be: a centroid at
+    or below the waterline (``draft_mid_m``, midships; A of IS Code 2008 Part A 2.3.2.2 is the
+    lateral area above the waterline, and a centroid below it would lower the wind lever) or
+    above the top of the windage profile ``top_m`` (SPEC.md "Conventions" bounds a centre at
+    that top); an area larger than the whole silhouette's box, the ship's length (−0.05·Lpp
+    … 1.05·Lpp) × the profile's top."""
+    x_lo, x_hi = ship_x_range(length_bp_m)
+    box_m2 = (x_hi - x_lo) * top_m
+    out = []
+    for name, area, z in items:
+        if not draft_mid_m < z <= top_m:
+            out.append(f"item {name!r}: wind_z {z:g} m is outside the windage above the "
+                       f"waterline (above the midships draught {draft_mid_m:.3f} m, up to the "
+                       f"top of the windage profile {top_m:g} m)")
+        if area > box_m2:
+            out.append(f"item {name!r}: wind_area {area:g} m² exceeds the ship's whole "
+                       f"silhouette box ({x_hi - x_lo:g} m × {top_m:g} m = {box_m2:.0f} m²)")
+    return out
+
+
 def unwinded_deck_items(lines: Sequence[Line], windage_profile: Polygon, depth_m: float,
-                        items_with_wind: set[str]) -> list[str]:
-    """Names of items whose centre is above the deck and outside the lateral windage profile,
-    with no wind area of their own (`items_with_wind`: names of items that give one).
+                        items_with_wind: set[str]) -> tuple[list[str], list[str]]:
+    """Names of items whose centre is above the deck (VCG > moulded depth) and that give no
+    wind area (SPEC.md "Condition file": each gets a warning; `items_with_wind`: names of
+    items that give one, wind_area 0 included, which states that the item adds none), as two
+    lists: those outside the lateral windage profile (their windage is missing from the
+    weather criterion) and those inside it (taken as already in the profile).
 
     "Outside" is "not covered" (inside or on the outline is covered): for a point that is
     shapely's intersects, asked for every item at once (intersects_xy; tests/test_plausible.py
@@ -80,7 +105,8 @@ def unwinded_deck_items(lines: Sequence[Line], windage_profile: Polygon, depth_m
     above = [ln for ln in lines if ln.kind == "item" and ln.mass > 0.0 and ln.vcg > depth_m
              and ln.name not in items_with_wind]
     if not above:
-        return []
+        return [], []
     covered = shapely.intersects_xy(windage_profile, [ln.lcg for ln in above],
-                                    [ln.vcg for ln in above])
-    return [ln.name for ln, inside in zip(above, covered.tolist(), strict=True) if not inside]
+                                    [ln.vcg for ln in above]).tolist()
+    return ([ln.name for ln, inside in zip(above, covered, strict=True) if not inside],
+            [ln.name for ln, inside in zip(above, covered, strict=True) if inside])

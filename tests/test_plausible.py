@@ -24,7 +24,7 @@ from reportgen.inputs import parse_vessel
 from reportgen.inputs.tablecheck import table_problems
 
 DEMO_VESSEL = ROOT / "conditions" / "vessels" / "linnet-demo.yaml"
-ITEM_LINE = "  - {name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0}"
+ITEM_LINE = "  - {name: Stores and provisions, mass: 20.0, lcg: 9.0, vcg: 11.0, wind_area: 0}"
 
 
 @pytest.fixture()
@@ -106,6 +106,17 @@ def test_a_condition_with_the_deck_under_water_is_refused(work):
     assert done.exit_code == 2 and "above the moulded depth" in done.output
 
 
+def test_an_item_above_the_deck_inside_the_profile_is_named_unless_it_states_no_windage(work):
+    # SPEC.md "Condition file": an item whose VCG is above the depth and that has no
+    # wind_area gets a warning. Stores at (9, 11) lie inside the demo ship's accommodation in
+    # its profile: the warning says its windage is taken as inside the profile.
+    done = _check(work, ITEM_LINE, ITEM_LINE.replace(", wind_area: 0}", "}"))
+    assert "'Stores and provisions' lies above the deck and gives no wind_area" in done.output
+    assert done.output.index("Result:") < done.output.index("'Stores and provisions' lies")
+    done = _check(work, "x", "x")  # the demo states wind_area: 0
+    assert "Stores and provisions' lies" not in done.output and done.exit_code in (0, 1)
+
+
 def test_deck_cargo_without_windage_is_named_beside_the_verdict(work):
     done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Deck pipes, mass: 100.0, lcg: 60.0, "
                                               "vcg: 11.0}")
@@ -167,7 +178,9 @@ def test_items_outside_the_profile_as_shapely_covers_finds_them():
     points = np.vstack([xy, on_edges, rng.uniform([-5.0, 0.0], [105.0, 25.0], (400, 2))])
     lines = [item_line(f"p{i}", 1.0, x, z, 0.0) for i, (x, z) in enumerate(points)]
     want = [ln.name for ln in lines if not profile.covers(Point(ln.lcg, ln.vcg))]
-    assert unwinded_deck_items(lines, profile, -1.0, set()) == want
+    outside, inside = unwinded_deck_items(lines, profile, -1.0, set())
+    assert outside == want
+    assert inside == [ln.name for ln in lines if ln.name not in want]
     assert 0 < len(want) < len(lines)
 
 
@@ -236,3 +249,17 @@ def test_the_demo_hulls_and_openings_are_plausible():
         top = max(z for _, z in v.windage.profile)
         assert hull_problems(v.particulars, v.hull) == []
         assert opening_problems(v.particulars, v.openings, top) == []
+
+
+@pytest.mark.parametrize("wind, words", [
+    # A of IS Code 2008 Part A 2.3.2.2 is the lateral area above the waterline: a centroid
+    # below it (here below the base) would shorten the wind lever, the unsafe direction
+    ("wind_area: 40.0, wind_z: -1.0", "wind_z -1 m is outside the windage above the waterline"),
+    ("wind_area: 40.0, wind_z: 3.0", "wind_z 3 m is outside"),  # under the 6.15 m draught
+    ("wind_area: 40.0, wind_z: 1.0e+6", "wind_z 1e+06 m is outside"),
+    ("wind_area: 1.0e+12, wind_z: 11.0", "exceeds the ship's whole silhouette box"),
+])
+def test_item_windage_that_cannot_be_is_refused(work, wind, words):
+    done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Deck pipes, mass: 100.0, lcg: 60.0, "
+                                              f"vcg: 11.0, {wind}}}")
+    assert done.exit_code == 2 and words in done.output and "Deck pipes" in done.output

@@ -70,7 +70,8 @@ class Item(Model):
     lcg: Num  # m from AP
     vcg: Num  # m above base
     tcg: Num = 0.0  # m, + starboard
-    wind_area: NonNegative | None = None  # m², adds to the lateral windage
+    wind_area: NonNegative | None = None  # m², adds to the lateral windage; 0 states that the
+    # item adds none (an item above the deck without wind_area gets a warning)
     wind_z: Num | None = None  # m, centroid of wind_area above base
     timber: bool = False  # timber deck cargo (IS Code 2008 Part A 3.3)
 

@@ -159,7 +159,8 @@ def gz_figure_svg(results: Results, labels: Mapping[str, str]) -> str:
             ax.annotate(labels["gz_max"].format(gz=f"{gz_max:.3f}",
                                                 angle=f"{angles.gz_max:.1f}"),
                         (angles.gz_max, gz_max), xytext=(0, 6), textcoords="offset points",
-                        ha="center", fontsize=6.5)
+                        ha="center", fontsize=6.5,
+                        bbox={"facecolor": "white", "edgecolor": "none", "pad": 0.6})
         ax.set_xlim(0.0, heel[-1])
         top = max(float(lever.max()), gm, 0.05) * 1.22
         # negative levers are shown down to 60 % of the positive range, so that the region
