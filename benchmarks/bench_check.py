@@ -127,8 +127,9 @@ def _per_condition(cases: list, tables: dict) -> None:
     """Each demo condition's evaluation (best of 3) and its stages apart: the upright stage
     (loading, floating, angles; a condition whose flooding angle is found on the hull offsets,
     no booklet table at its trim, floats the hull at heels up to the angles), the stage at
-    its KG, its KG margin search and the typed results. Nothing is kept between calls but
-    the vessel's tables and prepared hull (VesselData, one per vessel)."""
+    its KG, its KG margin search (with the number of KGs it evaluates beyond the condition's
+    own: a count, which a busy machine does not blur) and the typed results. Nothing is kept
+    between calls but the vessel's tables and prepared hull (VesselData, one per vessel)."""
     from reportgen import assemble, limits, stages
 
     for c in cases:
@@ -144,8 +145,23 @@ def _per_condition(cases: list, tables: dict) -> None:
             lambda up=up, k=k: limits.condition_limits(up, k),
             lambda up=up, k=k, fsc=fsc, lim=lim: assemble.results(up, k, fsc, lim))]
         print(f"  {c.condition_name}: {whole * 1e3:.1f} ms, of which the KG margin "
-              f"{parts[2]:.1f} ms (upright {parts[0]:.1f}, at KG {parts[1]:.1f}, "
-              f"results {parts[3]:.1f})")
+              f"{parts[2]:.1f} ms at {_margin_kgs(up, k)} KGs (upright {parts[0]:.1f}, at KG "
+              f"{parts[1]:.1f}, results {parts[3]:.1f})")
+
+
+def _margin_kgs(up, k) -> int:
+    """How many KGs the margin search evaluates besides the condition's own (the search of
+    limits.limit_of, counted)."""
+    from reportgen import limits, stages
+
+    seen: list[float] = []
+
+    def checks(kg: float):
+        seen.append(kg)
+        return stages.checked(up, kg).checks
+
+    limits.largest_kg(checks, k.kg_fluid_m, limits.ceiling(up), {k.kg_fluid_m: k.checks})
+    return len(seen)
 
 
 def evaluate_with(case, vd) -> None:

@@ -105,8 +105,9 @@ def heel_angle_deg(curve: GZCurve, lambda0: float) -> float | None:
     else the first angle where GZ rises through the heeling arm (the grid of the curve brackets it, scipy's brentq finds it).
     None when GZ does not reach the arm within the cross curves."""
     gh, gv = curve.grid
-    keep = gh >= 0.0
-    heel, f = gh[keep], gv[keep] - heeling_arm_m(lambda0, gh[keep])
+    first = int(gh.searchsorted(0.0))  # the grid increases: the heels ≥ 0° from here on
+    heel = gh[first:]
+    f = gv[first:] - heeling_arm_m(lambda0, heel)
     if f[0] >= 0.0:  # no arm (or a rounding residue of GZ at 0°): upright
         return 0.0
     up = np.nonzero((f[:-1] <= 0.0) & (f[1:] > 0.0))[0]

@@ -252,14 +252,15 @@ def _newton_root(curve: GZCurve, x: float, lo: float, hi: float, level_m: float)
 
 
 def crossings(curve: GZCurve, level_m: float, start_deg: float, end_deg: float,
-              direction: Literal["up", "down"]) -> list[float]:
+              direction: Literal["up", "down"],
+              grid: tuple[np.ndarray, np.ndarray] | None = None) -> list[float]:
     """Angles in [start, end] where GZ crosses `level` upwards or downwards (deg).
 
     Located on the curve's grid (and at the ends), then refined by Newton's method within the
     bracket. "up": GZ − level goes from ≤ 0 to > 0 with increasing heel; "down": from > 0 to
-    ≤ 0.
+    ≤ 0. `grid`: on_grid(curve, start, end) when the caller has it already.
     """
-    heel, f = on_grid(curve, start_deg, end_deg)
+    heel, f = on_grid(curve, start_deg, end_deg) if grid is None else grid
     f = f - level_m
     if direction == "up":
         idx = np.nonzero((f[:-1] <= 0) & (f[1:] > 0))[0]

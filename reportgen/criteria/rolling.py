@@ -10,7 +10,9 @@ memory of the paragraph, stated on the sheet) unless the vessel's hydrostatic ta
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 
@@ -83,12 +85,12 @@ def coefficient_c(breadth_m: float, draft_m: float, lwl_m: float) -> float:
 
 def roll_period_s(c: float, breadth_m: float, gm_m: float) -> float:
     """T = 2·C·B/√GM (s), IS Code 2008 2.3.4; GM corrected for free surface."""
-    return 2.0 * c * breadth_m / float(np.sqrt(gm_m))
+    return 2.0 * c * breadth_m / math.sqrt(gm_m)
 
 
 def roll_angle_deg(k: float, x1: float, x2: float, r: float, s: float) -> float:
     """θ1 = 109·k·X1·X2·√(r·s) (deg), IS Code 2008 2.3.4."""
-    return 109.0 * k * x1 * x2 * float(np.sqrt(r * s))
+    return 109.0 * k * x1 * x2 * math.sqrt(r * s)
 
 
 def block_coefficient(displacement_t: float, density_t_m3: float, lwl_m: float,
@@ -108,6 +110,15 @@ class Hull:
     cb: float
     bilge: str
     bilge_keel_area_m2: float
+
+    @cached_property
+    def factors(self) -> tuple[float, float, float, float, float]:
+        """(B/d, C, X1, X2, k) of 2.3.4, which do not depend on KG: taken once per condition
+        (a limits search evaluates θ1 at many KGs of the same hull)."""
+        b_over_d = self.breadth_m / self.draft_m
+        return (b_over_d, coefficient_c(self.breadth_m, self.draft_m, self.lwl_m),
+                factor_x1(b_over_d), factor_x2(self.cb),
+                factor_k(self.bilge, self.bilge_keel_area_m2, self.lwl_m, self.breadth_m))
 
 
 @dataclass(frozen=True)
@@ -134,12 +145,9 @@ class Roll:
 def roll(h: Hull, kg_fluid_m: float, gm_fluid_m: float, given_deg: float | None) -> Roll:
     """θ1 of 2.3.4 for KG and GM corrected for free surface (m), or the given angle (deg)."""
     d = h.draft_m
-    b_over_d = h.breadth_m / d
+    b_over_d, c, x1, x2, k = h.factors
     og = kg_fluid_m - d
     r = factor_r(og, d)
-    c = coefficient_c(h.breadth_m, d, h.lwl_m)
-    x1, x2 = factor_x1(b_over_d), factor_x2(h.cb)
-    k = factor_k(h.bilge, h.bilge_keel_area_m2, h.lwl_m, h.breadth_m)
     period = s = formula = None
     if gm_fluid_m > 0.0:
         period = roll_period_s(c, h.breadth_m, gm_fluid_m)

@@ -18,7 +18,7 @@ from shapely.geometry import Polygon
 from reportgen.criteria.core import Check, State
 from reportgen.criteria.rolling import Roll
 from reportgen.errors import InputError
-from reportgen.stability import GZCurve, area_mrad, crossings
+from reportgen.stability import GZCurve, area_mrad, crossings, on_grid
 
 SET = "is2008.weather"
 REF_2_3_1_2 = "IS Code 2008, Part A, 2.3.1.2"
@@ -143,9 +143,10 @@ def areas(curve: GZCurve, w: Wind, theta1_deg: float | None, flooding_deg: float
     min(θf, 50°, θc), and areas a (from θ0 − θ1 to the lw2 intercept) and b (from there to
     θ2), IS Code 2008 Part A 2.3.2 and figure 2.3.1."""
     top = curve.heel_max_deg
-    up1 = crossings(curve, w.lw1, 0.0, top, "up")
+    grid = on_grid(curve, 0.0, top)  # both levels are sought on the same points
+    up1 = crossings(curve, w.lw1, 0.0, top, "up", grid)
     theta0 = up1[0] if up1 else None
-    up2 = crossings(curve, w.lw2, 0.0, top, "up")
+    up2 = crossings(curve, w.lw2, 0.0, top, "up", grid)
     theta_lw2 = up2[0] if up2 else None
     thetac = None
     if theta_lw2 is not None:

@@ -129,19 +129,40 @@ def immersion_angle(
     immersed already at the first heel gives that heel; one never immersed up to the last
     scanned heel gives that heel (90° for the default scan), the end of the range the tables
     cover.
+
+    The clearances at the bracket's ends are those of the scanned planes (brentq asks for
+    them first); each trial heel's solve starts from the line through the two planes already
+    solved nearest it, so that the later trials, close together, take fewer steps.
     """
-    if clearance_m(geom, scanned[0], points_xyz) <= 0.0:
+    before = clearance_m(geom, scanned[0], points_xyz)
+    if before <= 0.0:
         return scanned[0].heel_deg
     for j in range(1, len(scanned)):
-        if clearance_m(geom, scanned[j], points_xyz) <= 0.0:
-            prev, nxt = scanned[j - 1], scanned[j]
-
-            def gap(h: float, prev: Plane = prev, nxt: Plane = nxt) -> float:
-                p = equilibrium_plane(geom, volume_m3, h, lcg_m, guess=_between(prev, nxt, h))
-                return clearance_m(geom, p, points_xyz)
-
-            return float(brentq(gap, prev.heel_deg, nxt.heel_deg, xtol=1e-4))
+        now = clearance_m(geom, scanned[j], points_xyz)
+        if now <= 0.0:
+            return _immersion_between(geom, points_xyz, volume_m3, lcg_m,
+                                      (scanned[j - 1], before), (scanned[j], now))
+        before = now
     return scanned[-1].heel_deg
+
+
+def _immersion_between(geom: HullGeometry, points_xyz: np.ndarray, volume_m3: float,
+                       lcg_m: float | None, prev: tuple[Plane, float],
+                       nxt: tuple[Plane, float]) -> float:
+    """The heel (deg) between two scanned (plane, clearance m) at which the points reach the
+    water, by brentq on the clearance at the equilibrium waterplane (immersion_angle)."""
+    known = {prev[0].heel_deg: prev[1], nxt[0].heel_deg: nxt[1]}
+    solved = [prev[0], nxt[0]]
+
+    def gap(h: float) -> float:
+        if h in known:
+            return known[h]
+        a, b = sorted(solved, key=lambda p: abs(p.heel_deg - h))[:2]
+        p = equilibrium_plane(geom, volume_m3, h, lcg_m, guess=_between(a, b, h))
+        solved.append(p)
+        return clearance_m(geom, p, points_xyz)
+
+    return float(brentq(gap, prev[0].heel_deg, nxt[0].heel_deg, xtol=1e-4))
 
 
 def first_immersed(geom: HullGeometry, points_xyz: np.ndarray, volume_m3: float,
