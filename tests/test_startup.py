@@ -5,12 +5,14 @@ from __future__ import annotations
 
 import importlib
 import json
+import os
 import subprocess
 import sys
 
 from conftest import ROOT
 
 from reportgen.cli.group import COMMANDS, main
+from reportgen.inputs.vessel import DEFAULT_CALCULATION, Calculation, Vessel
 
 
 def test_the_list_of_commands_is_the_commands_the_modules_define():
@@ -35,3 +37,27 @@ def test_check_loads_no_document_signing_or_figure_code():
                  "reportgen.report", "reportgen.signing", "reportgen.cli.signing",
                  "reportgen.cli.formats", "reportgen.schema"):
         assert name not in loaded, name
+
+
+def test_the_program_turns_pydantic_plugins_off_unless_the_user_chose():
+    # pydantic's documented switch (docs.pydantic.dev, Plugins: PYDANTIC_DISABLE_PLUGINS),
+    # set by the command line only: the library leaves it alone, a user's setting is kept
+    code = ("import os, reportgen.inputs\nbefore = os.environ.get('PYDANTIC_DISABLE_PLUGINS')\n"
+            "import reportgen.cli\nprint(before, os.environ.get('PYDANTIC_DISABLE_PLUGINS'))")
+    env = {k: v for k, v in os.environ.items() if k != "PYDANTIC_DISABLE_PLUGINS"}
+    done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                          check=True, env=env)
+    assert done.stdout.split() == ["None", "__all__"]
+    env["PYDANTIC_DISABLE_PLUGINS"] = "some_plugin"
+    done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                          check=True, env=env)
+    assert done.stdout.split() == ["some_plugin", "some_plugin"]
+
+
+def test_the_default_calculation_is_the_validated_one():
+    # made with model_construct at import (no validator built then): it must stay equal to
+    # Calculation() field for field, which a validator added to Calculation could change
+    made = Calculation()
+    assert DEFAULT_CALCULATION == made
+    assert DEFAULT_CALCULATION.model_dump() == made.model_dump()
+    assert Vessel.model_fields["calculation"].default is DEFAULT_CALCULATION

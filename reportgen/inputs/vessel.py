@@ -135,6 +135,11 @@ class Calculation(Model):
     # exclude: the curve is credited up to θf only; include: to the end of the table
 
 
+# Calculation() without validation (model_construct): equal to it, every field at its default,
+# but its validator is not built at import (it is built with the Vessel's, when first used).
+DEFAULT_CALCULATION = Calculation.model_construct()
+
+
 def known_sets(values: list[str]) -> list[str]:
     """The criteria set ids, each known (reportgen.criteria.sets) and listed once."""
     for v in values:
@@ -171,7 +176,7 @@ class Vessel(Model):
     criteria: CriteriaSets  # criteria sets every condition is checked against
     permitted_criteria: Annotated[list[str], AfterValidator(known_sets)] = Field(
         default_factory=list)  # sets a condition may choose instead (its `criteria`)
-    calculation: Calculation = Calculation()  # calculation choices, each stated on the sheet
+    calculation: Calculation = DEFAULT_CALCULATION  # calculation choices, each stated on the sheet
     limiting_kg: LimitingCurve | None = None  # the booklet's curve (criteria set booklet.limits)
     limiting_gm: LimitingCurve | None = None  # the same as a minimum GM curve (gm:)
     hull: HullOffsets | None = None  # hull offsets: for `reportgen tables`, the hull method and θf
