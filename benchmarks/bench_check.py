@@ -16,9 +16,10 @@ The whole process is timed against a process that only imports the libraries `ch
 and (the line after it) against the same process ending as reportgen's command line ends:
 the command line freezes every object at exit (gc.freeze, reportgen.cli), which spares the
 interpreter's final full garbage collections over the libraries' objects, some 0.1 s that
-the plain yardstick still spends. The first ratio is the target's (a user's wait against
-the libraries' import); the second counts reportgen's own work alone (reading, validating,
-evaluating, printing, and importing and building its modules and models).
+the plain yardstick still spends. The first ratio is a user's wait against the libraries'
+import; the second counts reportgen's own work alone (reading, validating, evaluating,
+printing, and importing and building its modules and models). The target is judged on the
+second (the conservative reading: the time the freeze saves is not counted as reportgen's).
 
 Usage: python benchmarks/bench_check.py [CONDITION.yaml]   (default: conditions/*.yaml)
 """
@@ -83,7 +84,7 @@ def main(argv: list[str]) -> int:
           f"alone)")
     missed = [what for what, bad in (
         ("0.5 ms per condition", best > 0.5e-3), ("10 ms to read", best_load > 10e-3),
-        ("0.5 s per 1000", shared > 0.5), ("1.2 × import time", process > 1.2 * imports))
+        ("0.5 s per 1000", shared > 0.5), ("1.2 × import time (like for like)", process > 1.2 * frozen))
         if bad]
     print("targets met" if not missed else "TARGETS MISSED: " + ", ".join(missed))
     return 0 if not missed else 1

@@ -31,7 +31,7 @@ def large_box(folder):
     v["lightship"] = {"mass": 27000.0, "lcg": 150.0, "vcg": 12.0, "tcg": 0.0}
     h = v["hydrostatics"]
     for key, power in (("draft", 1), ("displacement", 3), ("lcb", 1), ("lcf", 1), ("kmt", 1),
-                       ("mct", 4), ("tpc", 2)):
+                       ("mct", 3), ("tpc", 2)):  # MCT = Δ·GML/(100·L) ∝ s³
         h[key] = [x * s ** power for x in h[key]]
     c = v["cross_curves"]
     c["displacement"] = [x * s ** 3 for x in c["displacement"]]

@@ -313,3 +313,28 @@ def test_a_tank_table_row_no_tank_can_have_is_refused(column, value, words):
         data["tanks"][0]["table"][column][0] = value
 
     assert "table row 1" in (got := _vessel_problem(edit)) and words in got
+
+
+def _set(path, value):
+    def edit(data):
+        node = data
+        for key in path[:-1]:
+            node = node[key]
+        node[path[-1]] = value
+    return edit
+
+
+@pytest.mark.parametrize("path, value, words", [
+    # MCT = Δ·GML/(100·Lpp), GML ≤ T + I_L/∇, I_L ≤ B·L³/12 (rectangle; any handbook)
+    (("hydrostatics", "mct", 0, 0), 1e12, "hydrostatics.mct at trim -3 m row 1"),
+    (("hydrostatics", "lwl", 0, 0), 1e12, "hydrostatics.lwl at trim -3 m row 1"),
+    # |trim| ≤ D for a ship with both draughts between 0 and D
+    (("hydrostatics", "trims", 0), -1e12, "hydrostatics.trims: -1e+12 m is beyond any trim"),
+    (("deck_edge", "trims", 0), -1e12, "deck_edge.trims: -1e+12 m"),
+    # KN = yB·cos φ + zB·sin φ > 0 for 0 < φ ≤ 90° (B on the immersed side, above the keel)
+    (("cross_curves", "kn", 0, 0, 1), -1.0, "KN is positive at every heel above 0°"),
+    (("flooding_angle", "displacement", 0), -1.0, "flooding_angle.displacement: -1 t"),
+    (("limiting_kg", "kg", 0), 1e12, "limiting_kg.kg: 1e+12 m is above the ship"),
+])
+def test_a_table_value_no_ship_can_have_is_refused(path, value, words):
+    assert words in _vessel_problem(_set(path, value))

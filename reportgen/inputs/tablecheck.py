@@ -12,7 +12,16 @@ The bounds are physical, not statistical, so that no real ship is refused:
 - KMt = KB + BMt with KB at most the draught T and BMt = I_T/∇, where the waterplane lies
   inside the rectangle L × B, so I_T ≤ L·B³/12 (second moment of area of a rectangle about its
   centre line; a part of the rectangle has less): KMt ≤ T + ρ·L·B³/(12·Δ).
-- TPC = ρ·Awp/100 with Awp ≤ L·B: TPC ≤ ρ·L·B/100 (t/cm).
+- TPC = ρ·Awp/100 with Awp ≤ L·B: TPC ≤ ρ·L·B/100 (t/cm). MCT = Δ·GML/(100·Lpp) with
+  GML = KB + BML − KG ≤ T + I_L/∇ (KG ≥ 0) and I_L ≤ B·L³/12 (the rectangle again):
+  MCT ≤ (Δ·T + ρ·B·L³/12)/(100·Lpp) (t·m/cm). Lwl is at most L.
+- KN = yB·cos φ + zB·sin φ: for a hull symmetric about its centre line heeled by 0 < φ ≤ 90°
+  the centre of buoyancy lies on the immersed side (yB ≥ 0) and above the keel (zB > 0), so
+  KN > 0 there.
+- Tables are made at trims the ship can float at: with both draughts between 0 and D (any
+  other condition is refused), |trim| ≤ D. Displacements of every table are not negative.
+- The booklet's limiting KG lies within the ship (at most the top of the windage profile);
+  its minimum GM is above 0 (a curve allowing no initial stability is no limit).
 - LCB and LCF lie within that length; so do the centres of the grain compartments, which lie
   above the base and at most a breadth above the deck (the bound of reportgen.plausible for
   masses). A compartment holds at most the box L × B × (D + B); grain moved sideways moves at
@@ -57,8 +66,9 @@ from reportgen.inputs.tables import (
 )
 
 if TYPE_CHECKING:
+    from reportgen.inputs.booklet import LimitingCurve
     from reportgen.inputs.tanks import Tank
-    from reportgen.inputs.vessel import HullOffsets, Opening
+    from reportgen.inputs.vessel import AngleTable, HullOffsets, Opening
 
 OVERHANG_FRACTION = 0.15  # of Lpp beyond each perpendicular (reportgen.plausible)
 KN_AT_ZERO_TOLERANCE_M = 0.01
@@ -125,6 +135,24 @@ def hydrostatic_problems(p: Particulars, h: Hydrostatics | None) -> list[str]:
             problems.append(f"hydrostatics.tpc{at} row {i + 1}: {rows['tpc'][row][i]:g} t/cm "
                             f"exceeds a waterplane filling L × {p.breadth:g} m "
                             f"({bound:.2f} t/cm)")
+    problems += _trim_problems("hydrostatics", h.trims, p.depth)
+    mct = np.asarray(h.mct, dtype=float).reshape(k, -1)
+    for row in range(k):
+        at = "" if h.trims is None else f" at trim {h.trims[row]:g} m"
+        deep = draft + (0.0 if h.trims is None else abs(h.trims[row]) / 2.0)
+        disp = rows["displacement"][row]
+        bound = (disp * deep + h.density * p.breadth * (x_hi - x_lo) ** 3 / 12.0) / (
+            100.0 * p.length_bp)
+        i = _first_bad(mct[row] > bound + 1e-9)
+        if i is not None:
+            problems.append(f"hydrostatics.mct{at} row {i + 1}: {mct[row][i]:g} t·m/cm exceeds "
+                            f"what a waterplane filling L × {p.breadth:g} m can give "
+                            f"({bound[i]:.1f} t·m/cm)")
+        if lwl is not None:
+            i = _first_bad(lwl[row] > x_hi - x_lo + 1e-9)
+            if i is not None:
+                problems.append(f"hydrostatics.lwl{at} row {i + 1}: {lwl[row][i]:g} m is longer "
+                                f"than the ship ({x_hi - x_lo:g} m with overhangs)")
     for name in ("lcb", "lcf"):
         values = np.asarray(getattr(h, name), dtype=float).ravel()
         i = _first_bad((values < x_lo) | (values > x_hi))
@@ -151,7 +179,49 @@ def cross_curve_problems(p: Particulars, c: CrossCurves | None) -> list[str]:
     i = _first_bad(np.abs(kn[:, :, 0]).max(axis=0) > KN_AT_ZERO_TOLERANCE_M)
     if i is not None:
         problems.append(f"cross_curves.kn row {i + 1}: KN at heel 0° must be 0")
-    return problems
+    heeled = np.asarray(c.heel, dtype=float) > 0.0
+    not_positive = np.argwhere((kn <= 0.0) & heeled)
+    if not_positive.size:
+        t, i, j = (int(n) for n in not_positive[0])
+        problems.append(f"cross_curves.kn row {i + 1} (displacement {c.displacement[i]:g} t), "
+                        f"heel {c.heel[j]:g}°: {kn[t, i, j]:g} m; KN is positive at every heel "
+                        f"above 0° (the centre of buoyancy moves to the immersed side)")
+    return (problems + _trim_problems("cross_curves", c.trims, p.depth)
+            + _displacement_problems("cross_curves", c.displacement))
+
+
+def _trim_problems(name: str, trims: Sequence[float] | None, depth_m: float) -> list[str]:
+    bad = [t for t in trims or [] if abs(t) > depth_m]
+    if not bad:
+        return []
+    return [(f"{name}.trims: {bad[0]:g} m is beyond any trim the ship floats at (|trim| ≤ the "
+            f"depth {depth_m:g} m, both draughts between 0 and D)")]
+
+
+def _displacement_problems(name: str, displacement: Sequence[float]) -> list[str]:
+    return [f"{name}.displacement: {displacement[0]:g} t is below zero"] if (
+        displacement[0] < 0.0) else []
+
+
+def curve_problems(p: Particulars, tables: dict[str, AngleTable | None],
+                   limiting: LimitingCurve | None, top_m: float) -> list[str]:
+    """The angle tables (by key: deck_edge, flooding_angle) and the booklet's limiting curve
+    against the ship (module docstring); ``top_m`` the top of the windage profile (m)."""
+    out = []
+    for name, table in tables.items():
+        if table is not None:
+            out += (_trim_problems(name, table.trims, p.depth)
+                    + _displacement_problems(name, table.displacement))
+    if limiting is not None:
+        name = "limiting_kg" if limiting.kg is not None else "limiting_gm"
+        out += _displacement_problems(name, limiting.displacement)
+        if limiting.kg is not None and max(limiting.kg) > top_m:
+            out.append(f"limiting_kg.kg: {max(limiting.kg):g} m is above the ship (the top of "
+                       f"the windage profile, {top_m:g} m)")
+        if limiting.gm is not None and min(limiting.gm) <= 0.0:
+            out.append(f"limiting_gm.gm: {min(limiting.gm):g} m; a minimum GM at or below 0 "
+                       f"allows a ship without initial stability")
+    return out
 
 
 def grain_problems(p: Particulars, grain: VesselGrain | None) -> list[str]:

@@ -27,6 +27,7 @@ from reportgen.inputs.grain import VesselGrain
 from reportgen.inputs.marks import DraughtMarks, check_marks
 from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
 from reportgen.inputs.tablecheck import (
+    curve_problems,
     hull_problems,
     opening_problems,
     particulars_problems,
@@ -230,6 +231,9 @@ class Vessel(Model):
             raise ValueError("implausible tables: " + "; ".join(problems))
         top = max(z for _, z in self.windage.profile)
         problems = (particulars_problems(self.particulars, self.hydrostatics, self.hull, top)
+                    + curve_problems(self.particulars, {"deck_edge": self.deck_edge,
+                                                        "flooding_angle": self.flooding_angle},
+                                     self.limiting_kg or self.limiting_gm, top)
                     + tank_problems(self.particulars, self.tanks, top)
                     + opening_problems(self.particulars, self.openings, top)
                     + vessel_problems(self.particulars, self.passengers, self.icing, top))
