@@ -97,16 +97,31 @@ def _hull_angle(case: Case, vd: VesselData, loading: Loading, fl: Floating):
     lcg = loading.totals.lcg
     heels = [float(h) for h in vd.cross.heel_deg] if vd.cross is not None else \
         [float(h) for h in range(0, 91, 5)]
-    upright = None
-    if heels and heels[0] == 0.0:
-        guess = Plane.from_draft(fl.draughts.mid, fl.trim, 0.0, geom.length_bp_m)
-        upright = equilibrium_plane(geom, volume, 0.0, lcg, guess=guess)
+    try:
+        upright = None
+        if heels and heels[0] == 0.0:
+            guess = Plane.from_draft(fl.draughts.mid, fl.trim, 0.0, geom.length_bp_m)
+            upright = equilibrium_plane(geom, volume, 0.0, lcg, guess=guess)
+    except ValueError as exc:
+        raise _offsets_disagree(exc) from None
     scanned = Scan(geom, volume, lcg, heels, upright)  # solved as far as a search reads it
 
     def angle(points_xyz: np.ndarray) -> float:
-        return immersion_angle(geom, points_xyz, volume, lcg, scanned)
+        try:
+            return immersion_angle(geom, points_xyz, volume, lcg, scanned)
+        except ValueError as exc:
+            raise _offsets_disagree(exc) from None
 
     return angle
+
+
+def _offsets_disagree(exc: ValueError) -> InputError:
+    """The hull offsets cannot float the condition the tables float (the angles are sought
+    on them): offsets and tables describe different hulls, or the loading is wrong."""
+    return InputError(f"hull offsets: {exc}, for a condition the hydrostatic table floats; "
+                      f"the angles of flooding and deck edge are found on the offsets, which "
+                      f"must describe the hull of the tables (check hull.stations against "
+                      f"the tables, and the masses and their lcg)")
 
 
 def _on_hull(case: Case, vd: VesselData, loading: Loading):

@@ -338,3 +338,25 @@ def _set(path, value):
 ])
 def test_a_table_value_no_ship_can_have_is_refused(path, value, words):
     assert words in _vessel_problem(_set(path, value))
+
+
+def test_a_length_the_profile_contradicts_is_refused():
+    # Lpp in mm: the windage profile (the hull's lateral projection) and the offsets still run
+    # from the aft to the forward perpendicular of a 97 m ship (definition of Lpp)
+    assert "runs from x -2 to 98 m, not from the aft to the forward perpendicular" in \
+        _vessel_problem(_set(("particulars", "length_bp"), 97000.0))
+
+
+def test_offsets_that_cannot_float_the_condition_are_a_clear_refusal(monkeypatch):
+    # The ferry's angles are found on its offsets: where the offsets cannot float what the
+    # tables float (offsets of another hull), the user gets the reason, not a traceback.
+    import reportgen.hull.tables as hull_tables
+
+    def fails(*args, **kwargs):
+        raise ValueError("no free-trim equilibrium found at heel 35° for LCG 28.700 m")
+
+    monkeypatch.setattr(hull_tables, "immersion_angle", fails)
+    done = CliRunner().invoke(main, ["check", str(ROOT / "conditions" / "ferry-departure.yaml")])
+    assert done.exit_code == 2 and "Traceback" not in done.output
+    assert "hull offsets: no free-trim equilibrium found" in done.output
+    assert "must describe the hull of the tables" in done.output

@@ -39,6 +39,10 @@ The bounds are physical, not statistical, so that no real ship is refused:
   or ten times too large shows here, and would have flattered the weather criterion). The
   bilge keels' and bar keel's area Ak is at most Lpp·D, the side of the hull's box (our
   bound; a larger Ak would take the factor k of Part A 2.3.4 to its most favourable 0.70).
+  The hull stands at both perpendiculars (they are where the stem and the rudder stock meet
+  the load waterline), so the offsets and the windage profile (the hull's lateral projection)
+  reach from at most LPP_REACH_FRACTION·Lpp to at least (1 − LPP_REACH_FRACTION)·Lpp: a
+  length typed in mm shows here. No point of the offsets lies more than D below the base.
 - A tank's table rows: centres within the ship as SPEC.md bounds a centre of mass (x −0.05·Lpp
   … 1.05·Lpp, |y| ≤ B/2, z from the base to the profile's top), the volume within the box L ×
   B × the profile's top, and the free surface's transverse moment of inertia at most that of
@@ -76,6 +80,7 @@ VHM_BOUND_FACTOR = 1.5  # our bound on VHM / (V·B): above the Grain Code's fact
 HALF_BREADTH_TOLERANCE = 1.005  # of B/2: offsets rounded to the last digit stay accepted
 HULL_REACH_FRACTION = 0.95  # of B/2 and of D that the offsets reach at least (our tolerance)
 MIN_BLOCK_COEFFICIENT = 0.15  # at the summer draught (our bound, below any displacement hull)
+LPP_REACH_FRACTION = 0.05  # of Lpp: how far inside the perpendiculars the hull may begin/end
 
 
 def _first_bad(mask: np.ndarray) -> int | None:
@@ -305,10 +310,20 @@ def opening_problems(p: Particulars, openings: Sequence[Opening], top_m: float) 
 
 
 def particulars_problems(p: Particulars, h: Hydrostatics | None, hull: HullOffsets | None,
-                         top_m: float) -> list[str]:
-    """Breadth and depth that the rest of the file contradicts (module docstring); ``top_m``
-    the top of the windage profile (m above the base)."""
+                         profile: Sequence[Sequence[float]]) -> list[str]:
+    """Length, breadth and depth that the rest of the file contradicts (module docstring);
+    ``profile`` the windage profile's [x, z] points (m)."""
     out = []
+    top_m = max(z for _, z in profile)
+    reach = LPP_REACH_FRACTION * p.length_bp
+    spans = [("windage.profile", [x for x, _ in profile])]
+    if hull is not None:
+        spans.append(("hull.stations", [st.x for st in hull.stations]))
+    for name, xs in spans:
+        if min(xs) > reach or max(xs) < p.length_bp - reach:
+            out.append(f"particulars.length_bp {p.length_bp:g} m: {name} runs from x "
+                       f"{min(xs):g} to {max(xs):g} m, not from the aft to the forward "
+                       f"perpendicular (0 to {p.length_bp:g} m)")
     if p.bilge_keel_area > p.length_bp * p.depth:
         out.append(f"particulars.bilge_keel_area {p.bilge_keel_area:g} m² exceeds the side of "
                    f"the hull's box, Lpp × D = {p.length_bp * p.depth:g} m²")
@@ -322,6 +337,8 @@ def particulars_problems(p: Particulars, h: Hydrostatics | None, hull: HullOffse
             out.append(f"particulars.breadth {p.breadth:g} m: the hull offsets' greatest "
                        f"half-breadth is {y_max:g} m, not B/2 (B is the greatest moulded "
                        f"breadth)")
+        if min(z for st in hull.stations for _, z in st.points) < -p.depth:
+            out.append("hull.stations: a point lies more than the depth below the base line")
         if z_max < HULL_REACH_FRACTION * p.depth:
             out.append(f"particulars.depth {p.depth:g} m: the hull offsets reach {z_max:g} m "
                        f"above the base, not the deck at side")
