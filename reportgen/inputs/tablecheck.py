@@ -265,29 +265,50 @@ def grain_problems(p: Particulars, grain: VesselGrain | None) -> list[str]:
 
 
 def hull_problems(p: Particulars, hull: HullOffsets | None) -> list[str]:
-    """Hull offsets that do not fit the particulars: a station outside the length with
-    overhangs, a half-breadth beyond B/2, a point more than a breadth above the deck."""
+    """Hull offsets that do not fit the particulars (module docstring): a station outside the
+    length with overhangs, a half-breadth beyond B/2, a point more than a breadth above the
+    deck or more than the depth below the base; offsets that do not reach both
+    perpendiculars, B/2 or the deck at side."""
     if hull is None:
         return []
     x_lo, x_hi = _length_bounds(p)
     half = 0.5 * p.breadth
     z_hi = p.depth + p.breadth
-    for n, st in enumerate(hull.stations, start=1):
-        where = f"hull.stations[{n}] (x {st.x:g} m)"
-        y_max = max(y for y, _ in st.points)
-        z_max = max(z for _, z in st.points)
-        if not x_lo <= st.x <= x_hi:
+    xs = np.array([st.x for st in hull.stations])
+    counts = [len(st.points) for st in hull.stations]
+    yz = np.array([pt for st in hull.stations for pt in st.points], dtype=float)
+    starts = np.concatenate(([0], np.cumsum(counts)[:-1]))
+    y_max = np.maximum.reduceat(yz[:, 0], starts)
+    z_max = np.maximum.reduceat(yz[:, 1], starts)
+    bad = _first_bad((xs < x_lo) | (xs > x_hi) | (y_max > HALF_BREADTH_TOLERANCE * half)
+                     | (z_max > z_hi))
+    if bad is not None:
+        where = f"hull.stations[{bad + 1}] (x {xs[bad]:g} m)"
+        if not x_lo <= xs[bad] <= x_hi:
             problem = (f"outside the ship ({x_lo:g} to {x_hi:g} m from the AP, Lpp "
                        f"{p.length_bp:g} m with overhangs of {OVERHANG_FRACTION:.0%} of Lpp)")
-        elif y_max > HALF_BREADTH_TOLERANCE * half:
-            problem = (f"half-breadth {y_max:g} m exceeds half the moulded breadth ({half:g} "
-                       f"m); offsets are half-breadths (starboard half-section)")
-        elif z_max > z_hi:
-            problem = f"z {z_max:g} m is more than a breadth above the deck ({z_hi:g} m)"
+        elif y_max[bad] > HALF_BREADTH_TOLERANCE * half:
+            problem = (f"half-breadth {y_max[bad]:g} m exceeds half the moulded breadth "
+                       f"({half:g} m); offsets are half-breadths (starboard half-section)")
         else:
-            continue
+            problem = f"z {z_max[bad]:g} m is more than a breadth above the deck ({z_hi:g} m)"
         return [f"{where}: {problem}"]
-    return []
+    out = []
+    reach = LPP_REACH_FRACTION * p.length_bp
+    if xs.min() > reach or xs.max() < p.length_bp - reach:
+        out.append(f"particulars.length_bp {p.length_bp:g} m: hull.stations runs from x "
+                   f"{xs.min():g} to {xs.max():g} m, not from the aft to the forward "
+                   f"perpendicular (0 to {p.length_bp:g} m)")
+    if y_max.max() < HULL_REACH_FRACTION * half:
+        out.append(f"particulars.breadth {p.breadth:g} m: the hull offsets' greatest "
+                   f"half-breadth is {y_max.max():g} m, not B/2 (B is the greatest moulded "
+                   f"breadth)")
+    if yz[:, 1].min() < -p.depth:
+        out.append("hull.stations: a point lies more than the depth below the base line")
+    if z_max.max() < HULL_REACH_FRACTION * p.depth:
+        out.append(f"particulars.depth {p.depth:g} m: the hull offsets reach {z_max.max():g} m "
+                   f"above the base, not the deck at side")
+    return out
 
 
 def opening_problems(p: Particulars, openings: Sequence[Opening], top_m: float) -> list[str]:
@@ -309,39 +330,25 @@ def opening_problems(p: Particulars, openings: Sequence[Opening], top_m: float) 
     return out
 
 
-def particulars_problems(p: Particulars, h: Hydrostatics | None, hull: HullOffsets | None,
+def particulars_problems(p: Particulars, h: Hydrostatics | None,
                          profile: Sequence[Sequence[float]]) -> list[str]:
-    """Length, breadth and depth that the rest of the file contradicts (module docstring);
-    ``profile`` the windage profile's [x, z] points (m)."""
+    """Length, depth and breadth that the windage profile and the hydrostatic table
+    contradict, and a bilge keel area beyond the hull's side (module docstring); ``profile``
+    the windage profile's [x, z] points (m). The offsets' own: hull_problems."""
     out = []
     top_m = max(z for _, z in profile)
     reach = LPP_REACH_FRACTION * p.length_bp
-    spans = [("windage.profile", [x for x, _ in profile])]
-    if hull is not None:
-        spans.append(("hull.stations", [st.x for st in hull.stations]))
-    for name, xs in spans:
-        if min(xs) > reach or max(xs) < p.length_bp - reach:
-            out.append(f"particulars.length_bp {p.length_bp:g} m: {name} runs from x "
-                       f"{min(xs):g} to {max(xs):g} m, not from the aft to the forward "
-                       f"perpendicular (0 to {p.length_bp:g} m)")
+    xs = [x for x, _ in profile]
+    if min(xs) > reach or max(xs) < p.length_bp - reach:
+        out.append(f"particulars.length_bp {p.length_bp:g} m: windage.profile runs from x "
+                   f"{min(xs):g} to {max(xs):g} m, not from the aft to the forward "
+                   f"perpendicular (0 to {p.length_bp:g} m)")
     if p.bilge_keel_area > p.length_bp * p.depth:
         out.append(f"particulars.bilge_keel_area {p.bilge_keel_area:g} m² exceeds the side of "
                    f"the hull's box, Lpp × D = {p.length_bp * p.depth:g} m²")
     if p.depth > top_m:
         out.append(f"particulars.depth {p.depth:g} m is above the top of the windage profile "
                    f"({top_m:g} m), which shows the hull's side up to the deck")
-    if hull is not None:
-        y_max = max(y for st in hull.stations for y, _ in st.points)
-        z_max = max(z for st in hull.stations for _, z in st.points)
-        if y_max < HULL_REACH_FRACTION * 0.5 * p.breadth:
-            out.append(f"particulars.breadth {p.breadth:g} m: the hull offsets' greatest "
-                       f"half-breadth is {y_max:g} m, not B/2 (B is the greatest moulded "
-                       f"breadth)")
-        if min(z for st in hull.stations for _, z in st.points) < -p.depth:
-            out.append("hull.stations: a point lies more than the depth below the base line")
-        if z_max < HULL_REACH_FRACTION * p.depth:
-            out.append(f"particulars.depth {p.depth:g} m: the hull offsets reach {z_max:g} m "
-                       f"above the base, not the deck at side")
     if h is not None and h.draft[0] <= p.summer_draft <= h.draft[-1]:
         k = 1 if h.trims is None else len(h.trims)
         row = 0 if h.trims is None else int(np.argmin(np.abs(np.asarray(h.trims))))

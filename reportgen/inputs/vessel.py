@@ -230,7 +230,7 @@ class Vessel(Model):
         if problems:
             raise ValueError("implausible tables: " + "; ".join(problems))
         top = max(z for _, z in self.windage.profile)
-        problems = (particulars_problems(self.particulars, self.hydrostatics, self.hull,
+        problems = (particulars_problems(self.particulars, self.hydrostatics,
                                          self.windage.profile)
                     + curve_problems(self.particulars, {"deck_edge": self.deck_edge,
                                                         "flooding_angle": self.flooding_angle},
