@@ -93,3 +93,21 @@ def test_yaml_alias_bomb_is_refused(work):
                           check=False)
     assert done.returncode == 2 and "Traceback" not in done.stderr, done.stderr
     assert "alias" in done.stderr.lower()
+
+
+@pytest.mark.parametrize("typed, hint", [
+    ("2.0e1", "2.0e+1"), ("20e0", "20.0e+0"), ("2.0E+1", None), ("2.0e+1", None)])
+def test_a_number_yaml_reads_as_text_is_named_with_the_way_to_write_it(work, typed, hint):
+    # YAML 1.1 (PyYAML's resolver; yaml.org/type/float.html): a float with an exponent needs
+    # a decimal point and a signed exponent, so 2.0e1 is the text "2.0e1"
+    before = (work / "c.yaml").read_text()
+    assert "Stores and provisions, mass: 20.0," in before
+    text = before.replace("Stores and provisions, mass: 20.0,",
+                          f"Stores and provisions, mass: {typed},")
+    (work / "x.yaml").write_text(text)
+    done = _run("check", str(work / "x.yaml"))
+    if hint is None:
+        assert done.exit_code in (0, 1)
+    else:
+        assert done.exit_code == 2
+        assert f"'{typed}' is text in YAML 1.1" in done.output and hint in done.output

@@ -281,12 +281,25 @@ def where(path: tuple, lines: dict[tuple, int]) -> str:
     return text or "(top level)"
 
 
+# YAML 1.1 (the version PyYAML reads) takes a number with an exponent for a number only with
+# a decimal point and a signed exponent: 1.0e+6 is a number; 1e6, 1.0e6 and 1e+6 are text.
+_EXPONENT_TEXT = re.compile(r"^[-+]?[0-9][0-9_]*(\.[0-9_]*)?[eE][-+]?[0-9]+$")
+
+
 def _message(err: dict) -> str:
     if err["type"] == "extra_forbidden":
         return "unknown key (check the spelling; free text goes under notes:)"
     if err["type"] == "missing":
         return "required key is missing"
-    return err["msg"].removeprefix("Value error, ")
+    text = err["msg"].removeprefix("Value error, ")
+    given = err.get("input")
+    if isinstance(given, str) and _EXPONENT_TEXT.match(given.strip()):
+        mantissa, exponent = re.split("[eE]", given.strip())
+        mantissa += "" if "." in mantissa else ".0"
+        exponent = exponent if exponent[0] in "+-" else "+" + exponent
+        text += (f" ({given!r} is text in YAML 1.1: write the number with a decimal point "
+                 f"and a signed exponent, {mantissa}e{exponent})")
+    return text
 
 
 def validate(model: type[BaseModel], data: Any, name: str, raw: bytes) -> Any:
