@@ -1,7 +1,9 @@
-"""Plausibility of a vessel file's tables against its own particulars (SPEC.md "Conventions":
+"""Plausibility of a vessel file's tables, offsets, openings, tanks and holds against its own
+particulars, and of the particulars against the rest of the file (SPEC.md "Conventions":
 implausible tables are refused with the table and row named).
 
-The bounds are physical, not statistical, so that no real ship is refused:
+The bounds are physical, not statistical, so that no real ship is refused; the few marked
+"our bound" are set far beyond any real ship:
 - KN at any heel is the horizontal distance of the centre of buoyancy from the keel point K;
   B lies inside the hull, so |KN| cannot exceed the distance of the farthest hull point from K,
   which we bound by hypot(B, D + B) (our generous bound, covering sheer and superstructures
@@ -23,8 +25,7 @@ The bounds are physical, not statistical, so that no real ship is refused:
 - The booklet's limiting KG lies within the ship (at most the top of the windage profile);
   its minimum GM is above 0 (a curve allowing no initial stability is no limit).
 - LCB and LCF lie within that length; so do the centres of the grain compartments, which lie
-  above the base and at most a breadth above the deck (the bound of reportgen.plausible for
-  masses). A compartment holds at most the box L × B × (D + B); grain moved sideways moves at
+  above the base and at most a breadth above the deck (our bound). A compartment holds at most the box L × B × (D + B); grain moved sideways moves at
   most B, so the transverse volumetric heeling moment is at most V·B, and with the Grain Code's
   vertical-shift factors (1.06, 1.12: reportgen.grain) below VHM_BOUND_FACTOR·V·B (our bound).
 - Hull offsets: the moulded breadth B is the greatest moulded breadth, so no half-breadth
