@@ -315,18 +315,20 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
         wind = weather23.wind(vd.profile, items, fl.draughts.mid, fl.trim, v.particulars.length_bp,
                               loading.totals.displacement, v.calculation.wind_lever)
         roll_hull, cb_source = _roll_hull(case, fl, loading)
-        bare, covered = plausible.unwinded_deck_items(
-            loading.lines, vd.profile, p.depth,
-            {it.name for it in c.items if it.wind_area is not None})
-        warnings += [f"Item {name!r} lies above the deck and outside the lateral windage "
-                     f"profile, but gives no wind_area: its windage is not in the weather "
-                     f"criterion (IS Code 2008 Part A 2.3); give wind_area and wind_z."
-                     for name in bare]
-        warnings += [f"Item {name!r} lies above the deck and gives no wind_area: its windage "
-                     f"is taken as inside the lateral windage profile, which covers its "
-                     f"centre (IS Code 2008 Part A 2.3); give wind_area and wind_z if it "
-                     f"stands out of the profile, or wind_area: 0 to state that it adds none."
-                     for name in covered]
+    # SPEC.md "Condition file": every item above the depth without wind_area is named,
+    # whatever the criteria (the windage would count as soon as the weather set is chosen)
+    bare, covered = plausible.unwinded_deck_items(
+        loading.lines, vd.profile, p.depth,
+        {it.name for it in c.items if it.wind_area is not None})
+    warnings += [f"Item {name!r} lies above the deck and outside the lateral windage "
+                 f"profile, but gives no wind_area: its windage is not in the weather "
+                 f"criterion (IS Code 2008 Part A 2.3); give wind_area and wind_z."
+                 for name in bare]
+    warnings += [f"Item {name!r} lies above the deck and gives no wind_area: its windage "
+                 f"is taken as inside the lateral windage profile, which covers its "
+                 f"centre (IS Code 2008 Part A 2.3); give wind_area and wind_z if it "
+                 f"stands out of the profile, or wind_area: 0 to state that it adds none."
+                 for name in covered]
     cargo = None
     if c.grain is not None:
         from reportgen import grain as grain_rules

@@ -117,6 +117,16 @@ def test_an_item_above_the_deck_inside_the_profile_is_named_unless_it_states_no_
     assert "Stores and provisions' lies" not in done.output and done.exit_code in (0, 1)
 
 
+def test_an_item_above_the_deck_is_named_whatever_the_criteria(work):
+    # SPEC.md "Condition file" names the warning without condition on the criteria chosen
+    text = (work / "c.yaml").read_text().replace(ITEM_LINE, ITEM_LINE.replace(
+        ", wind_area: 0}", "}")) + "criteria: [is2008.general]\n"
+    (work / "x.yaml").write_text(text)
+    done = CliRunner().invoke(main, ["check", str(work / "x.yaml")])
+    assert done.exit_code in (0, 1) and "Weather" not in done.output.split("Loading")[0]
+    assert "'Stores and provisions' lies above the deck and gives no wind_area" in done.output
+
+
 def test_deck_cargo_without_windage_is_named_beside_the_verdict(work):
     done = _check(work, ITEM_LINE, ITEM_LINE + "\n  - {name: Deck pipes, mass: 100.0, lcg: 60.0, "
                                               "vcg: 11.0}")
