@@ -306,12 +306,13 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
     wind = roll_hull = None
     cb_source = "computed"
     if "weather" in core.needs(sets):
-        items = [(it.wind_area, it.wind_z) for it in c.items if it.wind_area]
+        windy = [it for it in c.items if it.wind_area]
         bad = plausible.item_windage_problems(
-            [(it.name, it.wind_area, it.wind_z) for it in c.items if it.wind_area],
-            fl.draughts.mid, p.length_bp, vd.profile.bounds[3])
+            [(it.name, it.wind_area, it.wind_z) for it in windy], fl.draughts.mid,
+            p.length_bp, vd.profile.bounds[3])
         if bad:
             raise InputError("; ".join(bad))
+        items = [(it.wind_area, it.wind_z) for it in windy]
         wind = weather23.wind(vd.profile, items, fl.draughts.mid, fl.trim, v.particulars.length_bp,
                               loading.totals.displacement, v.calculation.wind_lever)
         roll_hull, cb_source = _roll_hull(case, fl, loading)

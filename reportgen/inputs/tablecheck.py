@@ -72,8 +72,8 @@ from reportgen.inputs.tables import (
 
 if TYPE_CHECKING:
     from reportgen.inputs.booklet import LimitingCurve
+    from reportgen.inputs.hullform import AngleTable, HullOffsets, Opening
     from reportgen.inputs.tanks import Tank
-    from reportgen.inputs.vessel import AngleTable, HullOffsets, Opening
 
 OVERHANG_FRACTION = 0.15  # of Lpp beyond each perpendicular (reportgen.plausible)
 KN_AT_ZERO_TOLERANCE_M = 0.01
@@ -112,7 +112,7 @@ def hydrostatic_problems(p: Particulars, h: Hydrostatics | None) -> list[str]:
     k = 1 if h.trims is None else len(h.trims)
     draft = np.asarray(h.draft, dtype=float)
     rows = {name: np.asarray(getattr(h, name), dtype=float).reshape(k, -1)
-            for name in ("displacement", "kmt", "tpc")}
+            for name in ("displacement", "kmt", "tpc", "mct")}
     lwl = None if h.lwl is None else np.asarray(h.lwl, dtype=float).reshape(k, -1)
     for row in range(k):
         at = "" if h.trims is None else f" at trim {h.trims[row]:g} m"
@@ -141,24 +141,19 @@ def hydrostatic_problems(p: Particulars, h: Hydrostatics | None) -> list[str]:
             problems.append(f"hydrostatics.tpc{at} row {i + 1}: {rows['tpc'][row][i]:g} t/cm "
                             f"exceeds a waterplane filling L × {p.breadth:g} m "
                             f"({bound:.2f} t/cm)")
-    problems += _trim_problems("hydrostatics", h.trims, p.depth)
-    mct = np.asarray(h.mct, dtype=float).reshape(k, -1)
-    for row in range(k):
-        at = "" if h.trims is None else f" at trim {h.trims[row]:g} m"
-        deep = draft + (0.0 if h.trims is None else abs(h.trims[row]) / 2.0)
-        disp = rows["displacement"][row]
-        bound = (disp * deep + h.density * p.breadth * (x_hi - x_lo) ** 3 / 12.0) / (
+        mct_bound = (disp * deep + h.density * p.breadth * (x_hi - x_lo) ** 3 / 12.0) / (
             100.0 * p.length_bp)
-        i = _first_bad(mct[row] > bound + 1e-9)
+        i = _first_bad(rows["mct"][row] > mct_bound + 1e-9)
         if i is not None:
-            problems.append(f"hydrostatics.mct{at} row {i + 1}: {mct[row][i]:g} t·m/cm exceeds "
-                            f"what a waterplane filling L × {p.breadth:g} m can give "
-                            f"({bound[i]:.1f} t·m/cm)")
+            problems.append(f"hydrostatics.mct{at} row {i + 1}: {rows['mct'][row][i]:g} t·m/cm "
+                            f"exceeds what a waterplane filling L × {p.breadth:g} m can give "
+                            f"({mct_bound[i]:.1f} t·m/cm)")
         if lwl is not None:
             i = _first_bad(lwl[row] > x_hi - x_lo + 1e-9)
             if i is not None:
                 problems.append(f"hydrostatics.lwl{at} row {i + 1}: {lwl[row][i]:g} m is longer "
                                 f"than the ship ({x_hi - x_lo:g} m with overhangs)")
+    problems += _trim_problems("hydrostatics", h.trims, p.depth)
     for name in ("lcb", "lcf"):
         values = np.asarray(getattr(h, name), dtype=float).ravel()
         i = _first_bad((values < x_lo) | (values > x_hi))
@@ -294,12 +289,7 @@ def hull_problems(p: Particulars, hull: HullOffsets | None) -> list[str]:
         else:
             problem = f"z {z_max[bad]:g} m is more than a breadth above the deck ({z_hi:g} m)"
         return [f"{where}: {problem}"]
-    out = []
-    reach = LPP_REACH_FRACTION * p.length_bp
-    if xs.min() > reach or xs.max() < p.length_bp - reach:
-        out.append(f"particulars.length_bp {p.length_bp:g} m: hull.stations runs from x "
-                   f"{xs.min():g} to {xs.max():g} m, not from the aft to the forward "
-                   f"perpendicular (0 to {p.length_bp:g} m)")
+    out = _span_problems(p, "hull.stations", xs.tolist())
     if y_max.max() < HULL_REACH_FRACTION * half:
         out.append(f"particulars.breadth {p.breadth:g} m: the hull offsets' greatest "
                    f"half-breadth is {y_max.max():g} m, not B/2 (B is the greatest moulded "
@@ -331,19 +321,23 @@ def opening_problems(p: Particulars, openings: Sequence[Opening], top_m: float) 
     return out
 
 
+def _span_problems(p: Particulars, name: str, xs: Sequence[float]) -> list[str]:
+    """``name`` (its x, m from the AP) not reaching both perpendiculars (module docstring)."""
+    reach = LPP_REACH_FRACTION * p.length_bp
+    if min(xs) <= reach and max(xs) >= p.length_bp - reach:
+        return []
+    return [(f"particulars.length_bp {p.length_bp:g} m: {name} runs from x {min(xs):g} to "
+            f"{max(xs):g} m, not from the aft to the forward perpendicular (0 to "
+            f"{p.length_bp:g} m)")]
+
+
 def particulars_problems(p: Particulars, h: Hydrostatics | None,
                          profile: Sequence[Sequence[float]]) -> list[str]:
     """Length, depth and breadth that the windage profile and the hydrostatic table
     contradict, and a bilge keel area beyond the hull's side (module docstring); ``profile``
     the windage profile's [x, z] points (m). The offsets' own: hull_problems."""
-    out = []
     top_m = max(z for _, z in profile)
-    reach = LPP_REACH_FRACTION * p.length_bp
-    xs = [x for x, _ in profile]
-    if min(xs) > reach or max(xs) < p.length_bp - reach:
-        out.append(f"particulars.length_bp {p.length_bp:g} m: windage.profile runs from x "
-                   f"{min(xs):g} to {max(xs):g} m, not from the aft to the forward "
-                   f"perpendicular (0 to {p.length_bp:g} m)")
+    out = _span_problems(p, "windage.profile", [x for x, _ in profile])
     if p.bilge_keel_area > p.length_bp * p.depth:
         out.append(f"particulars.bilge_keel_area {p.bilge_keel_area:g} m² exceeds the side of "
                    f"the hull's box, Lpp × D = {p.length_bp * p.depth:g} m²")

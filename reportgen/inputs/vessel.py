@@ -4,7 +4,6 @@ Units: t, m, t/m³, deg, m², m⁴, t·m/cm, t/cm. Axes: x from AP forward, y to
 from the moulded base; trims positive by the stern.
 """
 
-from itertools import pairwise
 from typing import Annotated, Any, Literal, Self
 
 from pydantic import AfterValidator, Field, model_validator
@@ -13,17 +12,15 @@ from shapely.geometry import Polygon
 from reportgen.criteria.sets import SETS
 from reportgen.inputs.booklet import LimitingCurve
 from reportgen.inputs.fields import (
-    Density,
-    Increasing,
     Model,
     Num,
     Percent,
     Point2,
     Positive,
     Text,
-    increasing,
 )
 from reportgen.inputs.grain import VesselGrain
+from reportgen.inputs.hullform import AngleTable, HullOffsets, Opening
 from reportgen.inputs.marks import DraughtMarks, check_marks
 from reportgen.inputs.special import VesselIcing, VesselPassengers, vessel_problems
 from reportgen.inputs.tablecheck import (
@@ -60,30 +57,6 @@ class Lightship(Model):
     tcg: Num = 0.0  # m from the centreline, + starboard
 
 
-Angle = Annotated[float, Field(ge=0, le=90)]  # 0: immersed already upright
-
-
-class AngleTable(Model):
-    trims: Trims | None = None  # m, + by the stern: the trims of the rows of `angle`
-    displacement: Increasing  # t, strictly increasing, at the hydrostatic table's density
-    angle: list[Angle] | list[list[Angle]]  # deg: angle[i], or angle[k][i] with trims
-    opening: list[Text] | list[list[Text]] | None = None  # governing opening's name by entry
-    # (flooding_angle only) shaped as `angle`; each one of `openings`
-
-    @model_validator(mode="after")
-    def _rows(self) -> Self:
-        per_trim(self, "angle", self.trims, len(self.displacement))
-        per_trim(self, "opening", self.trims, len(self.displacement))
-        return self
-
-
-class Opening(Model):
-    name: Text  # the opening's name, printed when it governs θf
-    x: Num  # m from AP
-    y: Num  # m from centreline, + starboard
-    z: Num  # m above base
-
-
 class Windage(Model):
     profile: list[Point2]  # [x, z], m: lateral projection of hull and superstructure
     # a closed polygon (Part A 2.3.2.2: the lateral area A and its centre)
@@ -95,34 +68,6 @@ class Windage(Model):
         poly = Polygon(self.profile)
         if not poly.is_valid or poly.area <= 0:
             raise ValueError("profile must be a simple closed polygon with positive area")
-        return self
-
-
-class Station(Model):
-    x: Num  # m from AP
-    points: list[Point2]  # [y, z], m: starboard half-section, keel to deck edge
-
-    @model_validator(mode="after")
-    def _offsets(self) -> Self:
-        pts = self.points  # [y, z] pairs (Point2); a few dozen: plain floats
-        if len(pts) < 2:
-            raise ValueError("a station needs at least two points (keel to deck edge)")
-        if any(y < 0 for y, _ in pts):
-            raise ValueError("half-breadths y must not be negative (starboard half-section)")
-        if any(b[1] - a[1] < 0 for a, b in pairwise(pts)):
-            raise ValueError("points must run from the keel to the deck edge, z not decreasing")
-        return self
-
-
-class HullOffsets(Model):
-    density: Density = 1.025  # t/m³, for the tables made from the offsets
-    stations: list[Station]  # sections, at least three, x strictly increasing
-
-    @model_validator(mode="after")
-    def _stations(self) -> Self:
-        if len(self.stations) < 3:
-            raise ValueError("needs at least three stations")
-        increasing([s.x for s in self.stations])
         return self
 
 
