@@ -111,6 +111,14 @@ def _pages_check(doc: Document, fresh_pdf: bytes, accept_other_version: bool) ->
     if pages:
         section["problems"].append("printed pages differ from a fresh rendering: "
                                    + ", ".join(str(p) for p in pages))
+    try:
+        others = pg.structure_differences(first or b"", fresh_pdf)
+    except Exception as exc:  # noqa: BLE001 - a damaged part is a difference, not a crash
+        others = [f"the document's structure (unreadable: {type(exc).__name__})"]
+    section["differing_parts"] = others
+    if others:
+        section["problems"].append("besides the pixels, the document differs from a fresh "
+                                   "rendering in: " + ", ".join(others))
     return section
 
 

@@ -1,0 +1,134 @@
+"""Holes found by attacking ``reportgen verify`` as a dishonest signer or a careless surveyor,
+each checked against SPEC "Verification" (points named beside each test).
+
+Sources: ISO 32000-2:2020 7.7.2 (the catalogue: /OpenAction, /AA, /OCProperties, /Names),
+7.11.4 (embedded files), 8.11 (optional content), 9.3.6 (text rendering mode 3: neither fill
+nor stroke, invisible text), 12.5.3 (annotation flags: NoView, Print), 14.3 (metadata);
+RFC 5280 4.1.2.6 (the subject); Unicode Standard Annex #15 (normalisation forms) and
+Unicode Technical Standard #39 (confusable characters).
+"""
+
+from __future__ import annotations
+
+import io
+from pathlib import Path
+
+import pytest
+from conftest import PREPARER
+from signing_helpers import cert_file, make_cert, new_key, raw_sign
+
+from reportgen.signing import recompute as rc
+from reportgen.signing import verify, verify_document
+
+
+def _write(folder: Path, name: str, data: bytes) -> Path:
+    path = folder / name
+    path.write_bytes(data)
+    return path
+
+
+@pytest.fixture(scope="module")
+def signer(tmp_path_factory):
+    folder = tmp_path_factory.mktemp("holes")
+    key = new_key()
+    cert = make_cert(PREPARER, key)
+    return {"key": key, "cert": cert, "trust": [cert_file(folder, cert)], "folder": folder}
+
+
+# --- point 4: where pages are compared as images, nothing but the pixels may differ ---------
+
+
+def _other_stack_and_bigger_fresh(monkeypatch) -> None:
+    """The running stack differs from the recorded one in a library (so pages are compared
+    as images), and its renderer writes other, larger bytes for the same pages (a pypdf
+    rewrite, padded): the size of the first revision decides nothing."""
+    from pypdf import PdfReader, PdfWriter
+
+    from reportgen import provenance
+
+    real_stack = provenance.rendering_stack()
+    monkeypatch.setattr(verify, "rendering_stack", lambda: {**real_stack, "weasyprint": "0.0"})
+    real = rc.rebuild
+
+    def rebuilt(kind, inputs):
+        fresh = real(kind, inputs)
+        out = io.BytesIO()
+        PdfWriter(clone_from=PdfReader(io.BytesIO(fresh.pdf))).write(out)
+        return rc.Rebuilt(fresh.data_text, out.getvalue() + b"\n" + b" " * 400_000 + b"\n")
+
+    monkeypatch.setattr(verify, "rebuild", rebuilt)
+
+
+def _javascript(w):  # ISO 32000-2 12.6.4.17, run on opening (7.7.2 /OpenAction)
+    from pypdf.generic import DictionaryObject, NameObject, TextStringObject
+
+    w._root_object[NameObject("/OpenAction")] = w._add_object(DictionaryObject({
+        NameObject("/S"): NameObject("/JavaScript"),
+        NameObject("/JS"): TextStringObject("app.alert('passes')")}))
+
+
+def _extra_file(w):  # 7.11.4: a further embedded file
+    w.add_attachment("corrected-results.txt", b"every criterion passes")
+
+
+def _print_only_box(w):  # 12.5.3: NoView (32) + Print (4): absent on screen, on paper
+    from pypdf.generic import ArrayObject, DictionaryObject, NameObject, NumberObject, StreamObject
+
+    stream = StreamObject()
+    stream.set_data(b"1 g 0 0 500 60 re f")
+    stream.update({NameObject("/Type"): NameObject("/XObject"),
+                   NameObject("/Subtype"): NameObject("/Form"),
+                   NameObject("/BBox"): ArrayObject([NumberObject(v) for v in (0, 0, 500, 60)])})
+    annot = DictionaryObject({
+        NameObject("/Type"): NameObject("/Annot"), NameObject("/Subtype"): NameObject("/Square"),
+        NameObject("/Rect"): ArrayObject([NumberObject(v) for v in (40, 600, 540, 660)]),
+        NameObject("/F"): NumberObject(36),
+        NameObject("/AP"): DictionaryObject({NameObject("/N"): w._add_object(stream)})})
+    w.pages[0][NameObject("/Annots")] = ArrayObject([w._add_object(annot)])
+
+
+def _invisible_text(w):  # 9.3.6: rendering mode 3, text that search and copy find
+    from pypdf.generic import ArrayObject, NameObject, StreamObject
+
+    page = w.pages[0]
+    font = next(iter(page["/Resources"]["/Font"]))
+    stream = StreamObject()
+    stream.set_data(f"BT {font} 12 Tf 3 Tr 50 50 Td (meets every criterion) Tj ET".encode())
+    contents = page.raw_get("/Contents")
+    parts = list(contents.get_object()) if isinstance(contents.get_object(), list) \
+        else [contents]
+    page[NameObject("/Contents")] = ArrayObject([*parts, w._add_object(stream)])
+
+
+def _no_metadata(w):  # 14.3.2: the XMP metadata (and so PDF/A) removed
+    del w._root_object["/Metadata"]
+
+
+def _bookmark(w):  # 12.3.3: a bookmark that says what the page does not
+    w.add_outline_item("Verdict: meets every criterion", 0)
+
+
+@pytest.mark.parametrize("change, part", [
+    (_javascript, "catalogue entries"), (_extra_file, "embedded files"),
+    (_print_only_box, "annotations"), (_invisible_text, "page text"),
+    (_no_metadata, "XMP metadata"), (_bookmark, "bookmarks")],
+    ids=["javascript", "extra_file", "print_only", "invisible_text", "no_xmp", "bookmark"])
+def test_image_comparison_also_holds_everything_but_the_pixels(demo, signer, monkeypatch,
+                                                                 change, part):
+    # SPEC "Verification", point 4: the page the reader sees is the page reportgen makes; a
+    # trusted but dishonest signer edits the recorded stack, so pages go to images, and
+    # changes what pixels do not show. The pixels agree; the part named must not.
+    from pypdf import PdfReader, PdfWriter
+
+    writer = PdfWriter(clone_from=PdfReader(demo["unsigned"]))
+    change(writer)
+    out = io.BytesIO()
+    writer.write(out)  # one revision: the forged page, then signed by a trusted signer
+    signed = raw_sign(out.getvalue(), "prepared", signer["key"], signer["cert"], certify=True)
+    sheet = _write(signer["folder"], f"{change.__name__}.pdf", signed)
+    _other_stack_and_bigger_fresh(monkeypatch)
+    report = verify_document(sheet, signer["trust"])
+    assert report["pages"]["method"].startswith("images at 100 dpi")
+    assert not report["ok"]
+    assert report["pages"]["differing_pages"] == []  # the forgery shows no pixel
+    assert part in report["pages"]["differing_parts"], report["problems"]
