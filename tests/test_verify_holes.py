@@ -132,3 +132,53 @@ def test_image_comparison_also_holds_everything_but_the_pixels(demo, signer, mon
     assert not report["ok"]
     assert report["pages"]["differing_pages"] == []  # the forgery shows no pixel
     assert part in report["pages"]["differing_parts"], report["problems"]
+
+
+# --- point 3: the name in the certificate is the name on the sheet, conservatively ----------
+
+SHEET_NAME = PREPARER  # "A. N. Other, chief officer (invented)"
+
+
+@pytest.mark.parametrize("certificate_name", [
+    PREPARER.upper(),  # letter case
+    PREPARER.replace("A.", "\uff21."),  # full-width A (NFKC folds it to A)
+    PREPARER.replace("Other", "\u041ether"),  # Cyrillic capital O (UTS #39 confusable)
+    PREPARER.replace("Other", "Oth\u200ber"),  # zero-width space (format character)
+    PREPARER.replace("N. ", "N.\t"),  # a control character that split() takes for a space
+    PREPARER.replace("N. ", "N.\u00a0"),  # no-break space
+    PREPARER.replace("N. ", "N.\u2028"),  # line separator
+    PREPARER.replace("fficer", "\ufb03cer"),  # the ligature ffi
+], ids=["case", "fullwidth", "cyrillic", "zero_width", "tab", "nbsp", "line_sep", "ligature"])
+def test_a_name_that_only_looks_the_same_does_not_match(certificate_name):
+    from reportgen.signing.identity import name_problem, names_match
+
+    assert not names_match(certificate_name, SHEET_NAME)
+    assert name_problem(certificate_name, SHEET_NAME)
+
+
+def test_names_that_are_the_same_text_match():
+    from reportgen.signing.identity import names_match
+
+    assert names_match(SHEET_NAME, SHEET_NAME)
+    assert names_match("  A. N.  Other, chief officer (invented) ", SHEET_NAME)  # ASCII spaces
+    # canonical equivalence (UAX #15): e + combining acute is the same text as é
+    assert names_match("Ren\u0065\u0301e Other", "Ren\u00e9e Other")
+    # a mixed-script name matches nothing, not even itself
+    assert not names_match("A. N. \u041ether", "A. N. \u041ether")
+
+
+def test_verify_names_the_case_difference_and_sign_refuses_it(demo, signer, tmp_path):
+    from reportgen.errors import InputError
+    from reportgen.signing import sign_document
+    from reportgen.signing.identity import keygen
+
+    key = new_key()
+    cert = make_cert(PREPARER.upper(), key)
+    signed = raw_sign(demo["unsigned"].read_bytes(), "prepared", key, cert, certify=True)
+    report = verify_document(_write(tmp_path, "case.pdf", signed), [cert_file(tmp_path, cert)])
+    assert not report["ok"] and report["signatures"][0]["name_matches"] is False
+    assert "differ in letter case" in "\n".join(report["problems"])
+    keygen(PREPARER.lower(), tmp_path / "lower")
+    with pytest.raises(InputError, match="letter case"):
+        sign_document(demo["unsigned"], tmp_path / "x.pdf", "prepared",
+                      p12_path=tmp_path / "lower" / "identity.p12")

@@ -193,11 +193,12 @@ def _signature_entry(sig: Any, store: TrustStore, named: dict, now: Any) -> dict
     entry.update(trusted=verdict.trusted, trusted_how=verdict.how or None, path=verdict.path)
     entry["problems"] += verdict.problems
     if entry["named_on_sheet"]:
-        entry["name_matches"] = ids.names_match(entry["signer"], entry["named_on_sheet"])
-        if not entry["name_matches"]:
+        why = ids.name_problem(entry["signer"], entry["named_on_sheet"])
+        entry["name_matches"] = why is None
+        if why:
             entry["problems"].append(
                 f"the certificate is issued to '{ids.printable(entry['signer'])}', the sheet "
-                f"names '{ids.printable(entry['named_on_sheet'])}' for {sig.field}")
+                f"names '{ids.printable(entry['named_on_sheet'])}' for {sig.field}: {why}")
     return entry
 
 
