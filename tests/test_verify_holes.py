@@ -182,3 +182,89 @@ def test_verify_names_the_case_difference_and_sign_refuses_it(demo, signer, tmp_
     with pytest.raises(InputError, match="letter case"):
         sign_document(demo["unsigned"], tmp_path / "x.pdf", "prepared",
                       p12_path=tmp_path / "lower" / "identity.p12")
+
+
+# --- point 3: each role its own signer; a role the sheet names is signed ----------------------
+
+
+def _two_roles(demo, tmp_path, first, second, sheet="unsigned"):
+    """Sign prepared with ``first`` and checked with ``second`` = (key, cert); the report."""
+    data = raw_sign(demo[sheet].read_bytes(), "prepared", *first, certify=True)
+    data = raw_sign(data, "checked", *second)
+    trust = [cert_file(tmp_path, first[1], "a.pem"), cert_file(tmp_path, second[1], "b.pem")]
+    return verify_document(_write(tmp_path, "two.pdf", data), trust)
+
+
+def test_one_key_under_two_certificates_may_not_sign_two_roles(demo, tmp_path):
+    # Two certificates (each with the name the sheet gives) over one key: one key holder
+    # signs both roles. SPEC point 3: "the same certificate signing two roles is a failure";
+    # a certificate is its key's holder, so the same key is the same signer.
+    from conftest import CHECKER
+
+    key = new_key()
+    report = _two_roles(demo, tmp_path, (key, make_cert(PREPARER, key)),
+                        (key, make_cert(CHECKER, key)))
+    assert not report["ok"]
+    assert "the same key signed prepared too" in "\n".join(report["problems"])
+
+
+def test_one_name_under_two_keys_may_not_sign_two_roles(demo, tmp_path):
+    # The failing sheet names nobody: the same person (by name) under two certificates.
+    keys = new_key(), new_key()
+    report = _two_roles(demo, tmp_path, (keys[0], make_cert("D. Other (invented)", keys[0])),
+                        (keys[1], make_cert("D. OTHER  (invented)", keys[1])), "failing")
+    assert not report["ok"]
+    assert "the same person (D. OTHER  (invented)) signed prepared too" in \
+        "\n".join(report["problems"])
+
+
+def test_a_role_the_sheet_names_must_be_signed(demo, trust_both):
+    # The sheet names B. N. Other for checked; only prepared is signed (or the checked
+    # signature was cut off the end of the file): no certificate carries the name, so
+    # point 3's "else verify fails" applies.
+    report = verify_document(demo["one"], trust_both)
+    assert not report["ok"] and report["unsigned_roles"] == ["checked", "reviewed"]
+    assert "the sheet names 'B. N. Other, master (invented)' for checked, and checked is " \
+           "not signed" in "\n".join(report["problems"])
+
+
+def _signing_clock(monkeypatch, shift):
+    import datetime as dt
+
+    from pyhanko.sign.signers import pdf_signer
+
+    class Shifted(dt.datetime):
+        @classmethod
+        def now(cls, tz=None):
+            return dt.datetime.now(tz) + shift
+
+    monkeypatch.setattr(pdf_signer, "datetime", Shifted)
+
+
+def test_a_signing_time_in_the_future_fails(demo, signer, monkeypatch, tmp_path):
+    # The certificate is valid then and now (RFC 5280 4.1.2.5), but a signature cannot have
+    # been made after the moment it is verified (our bound: 5 minutes of clock difference).
+    from signing_helpers import DAY
+
+    _signing_clock(monkeypatch, 3 * DAY)
+    signed = raw_sign(demo["failing"].read_bytes(), "prepared", signer["key"], signer["cert"],
+                      certify=True)
+    monkeypatch.undo()
+    report = verify_document(_write(tmp_path, "future.pdf", signed), signer["trust"])
+    assert not report["ok"] and "in the future" in "\n".join(report["problems"])
+
+
+def test_signing_times_out_of_role_order_fail(demo, monkeypatch, tmp_path):
+    # checked states a signing time a day before prepared's: the revisions say otherwise.
+    from signing_helpers import DAY
+
+    keys = new_key(), new_key()
+    first = (keys[0], make_cert("E. Other (invented)", keys[0]))
+    second = (keys[1], make_cert("F. Other (invented)", keys[1]))
+    data = raw_sign(demo["failing"].read_bytes(), "prepared", *first, certify=True)
+    _signing_clock(monkeypatch, -DAY)
+    data = raw_sign(data, "checked", *second)
+    monkeypatch.undo()
+    trust = [cert_file(tmp_path, first[1], "a.pem"), cert_file(tmp_path, second[1], "b.pem")]
+    report = verify_document(_write(tmp_path, "order.pdf", data), trust)
+    assert not report["ok"] and "before the prepared signature" in "\n".join(report["problems"])

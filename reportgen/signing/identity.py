@@ -287,6 +287,12 @@ def name_problem(certificate_name: str, sheet_name: str) -> str | None:
     return "the names differ"
 
 
+def person_key(name: str) -> str:
+    """A name folded as far as it goes (NFKC, case, every space): two certificates whose names
+    give the same key are taken for the same person (the conservative direction here)."""
+    return " ".join(unicodedata.normalize("NFKC", name).casefold().split())
+
+
 def names_match(certificate_name: str, sheet_name: str) -> bool:
     """Whether a certificate's name is the name the sheet gives for a role (``name_problem``
     finds nothing)."""

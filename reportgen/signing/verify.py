@@ -10,15 +10,18 @@ Every failure is one sentence in ``problems``; exit 0 needs none and at least on
 
 from __future__ import annotations
 
+import datetime as dt
 import json
 from collections.abc import Sequence
 from pathlib import Path
 from typing import Any
 
+from cryptography.hazmat.primitives import serialization
+
 import reportgen.signing.identity as ids
 import reportgen.signing.pages as pg
 from reportgen import __version__
-from reportgen.docinfo import DOCNO_LENGTH
+from reportgen.docinfo import DOCNO_LENGTH, ROLES
 from reportgen.errors import InputError
 from reportgen.files import read_input
 from reportgen.provenance import read_approval, rendering_stack
@@ -26,6 +29,10 @@ from reportgen.signing.recompute import Inputs, rebuild
 from reportgen.signing.sheetfile import Document, quiet_pdf_libraries, read_document, title_number
 from reportgen.signing.signatures import change_problems, read_signatures
 from reportgen.signing.trust import TrustStore, assess, load_trust
+
+# Our bound for the clocks of the signers' computers and of the verifier's: a stated signing
+# time may lie this much after the moment of verification, or before the previous signature's.
+CLOCK_TOLERANCE = dt.timedelta(minutes=5)
 
 
 def differing_keys(a: Any, b: Any, prefix: str = "") -> list[str]:
@@ -202,6 +209,47 @@ def _signature_entry(sig: Any, store: TrustStore, named: dict, now: Any) -> dict
     return entry
 
 
+def _stamp(moment: dt.datetime) -> str:
+    return f"{moment:%Y-%m-%d %H:%M} UTC"
+
+
+def _signer_problems(entries: list[dict], sigs: list[Any], now: dt.datetime) -> None:
+    """Add to each signature entry's problems what only the signatures together show
+    (SPEC "Verification", point 3, read conservatively): each role its own signer, so no
+    certificate, no key and no person's name (``person_key``) signs two roles; and the signing
+    times the signers state are not in the future and follow the revisions' order, within
+    CLOCK_TOLERANCE."""
+    seen: dict[tuple[str, object], str] = {}
+    previous: tuple[str, dt.datetime] | None = None
+    for entry, sig in zip(entries, sigs, strict=True):
+        cert = sig.certificate
+        if cert is not None:
+            name = ids.common_name(cert)
+            marks = [("certificate", ids.fingerprint(cert)),
+                     ("key", cert.public_key().public_bytes(
+                         serialization.Encoding.DER,
+                         serialization.PublicFormat.SubjectPublicKeyInfo)),
+                     ("person", ids.person_key(name))]
+            again = next((m for m in marks if m in seen), None)
+            if again is not None:
+                what = f"person ({ids.printable(name)})" if again[0] == "person" else again[0]
+                entry["problems"].append(f"the same {what} signed {seen[again]} too; "
+                                         f"each role needs its own signer")
+            for mark in marks:
+                seen.setdefault(mark, entry["field"])
+        when = sig.signing_time
+        if when is None:
+            continue
+        if when > now + CLOCK_TOLERANCE:
+            entry["problems"].append(f"its signing time {_stamp(when)} is in the future "
+                                     f"(verified at {_stamp(now)})")
+        if previous is not None and when < previous[1] - CLOCK_TOLERANCE:
+            entry["problems"].append(f"its signing time {_stamp(when)} is before the "
+                                     f"{previous[0]} signature ({_stamp(previous[1])}) that "
+                                     f"precedes it in the file")
+        previous = (entry["field"], when)
+
+
 def _vessel_checks(inputs: Inputs | None, vessel: Path | None, vessel_store: TrustStore | None,
                    now: Any) -> tuple[dict, list[str]]:
     section: dict[str, Any] = {"file": None, "approval": None}
@@ -253,17 +301,16 @@ def verify_document(path: Path, trust: Sequence[Path] | TrustStore = (), *,
     named = certified.get("signatories") or {}
     signatures = [_signature_entry(s, store, named, now) for s in state["signature_objects"]]
     problems = list(state["problems"])
+    _signer_problems(signatures, state["signature_objects"], now)
     for entry, sig in zip(signatures, state["signature_objects"], strict=True):
         problems += [f"{entry['field']} signature: {p}" for p in entry["problems"]
                      if p not in sig.problems]  # those are in the integrity problems already
-    seen: dict[str, str] = {}
-    for s in signatures:
-        fp = s["certificate_sha256"]
-        if fp and fp in seen:
-            problems.append(f"{s['field']} signature: the same certificate signed "
-                            f"{seen[fp]} too; each role needs its own signer")
-        elif fp:
-            seen[fp] = s["field"]
+    signed = {s["field"] for s in signatures}
+    for role in ROLES:
+        who = named.get(f"{role}_by")
+        if who and role not in signed:
+            problems.append(f"the sheet names '{ids.printable(who)}' for {role}, and {role} "
+                            f"is not signed")
     if not signatures:
         problems.append("the document is not signed")
     vessel_section, vessel_problems = _vessel_checks(state["inputs_object"], vessel,
