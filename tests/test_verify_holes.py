@@ -268,3 +268,36 @@ def test_signing_times_out_of_role_order_fail(demo, monkeypatch, tmp_path):
     trust = [cert_file(tmp_path, first[1], "a.pem"), cert_file(tmp_path, second[1], "b.pem")]
     report = verify_document(_write(tmp_path, "order.pdf", data), trust)
     assert not report["ok"] and "before the prepared signature" in "\n".join(report["problems"])
+
+
+# --- hostile embedded data: a report (exit 1), never a traceback ------------------------------
+
+
+def _with_results(unsigned: Path, change) -> bytes:
+    """The sheet with its embedded results.json edited by ``change(dict)`` (pypdf rewrite)."""
+    import json
+
+    from pypdf import PdfReader, PdfWriter
+
+    writer = PdfWriter(clone_from=PdfReader(unsigned))
+    names = writer._root_object["/Names"]["/EmbeddedFiles"]["/Names"]
+    for i in range(0, len(names), 2):
+        if names[i] == "results.json":
+            stream = names[i + 1].get_object()["/EF"]["/F"].get_object()
+            data = json.loads(stream.get_data())
+            change(data)
+            stream.set_data(json.dumps(data).encode())
+    out = io.BytesIO()
+    writer.write(out)
+    return out.getvalue()
+
+
+@pytest.mark.parametrize("signatories", [["A. N. Other"], {"prepared_by": 5}, "A. N. Other"])
+def test_signatories_of_the_wrong_type_give_a_report(demo, signer, tmp_path, signatories):
+    def change(data):
+        data["condition"]["signatories"] = signatories
+
+    forged = _with_results(demo["unsigned"], change)
+    signed = raw_sign(forged, "prepared", signer["key"], signer["cert"], certify=True)
+    report = verify_document(_write(tmp_path, "t.pdf", signed), signer["trust"])
+    assert not report["ok"] and report["recomputation"]["differences"]

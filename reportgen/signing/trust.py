@@ -111,7 +111,8 @@ def validity_problem(cert: x509.Certificate, at: dt.datetime, when: str) -> str 
     """A message when ``at`` lies outside the certificate's validity (RFC 5280 4.1.2.5)."""
     start, end = cert.not_valid_before_utc, cert.not_valid_after_utc
     if at < start:
-        return (f"certificate of {common_name(cert)} not yet valid {when} "
+        return (f"certificate of {common_name(cert)} not yet valid "
+                f"{when if when == 'now' else 'at ' + when} "
                 f"(valid from {start:%Y-%m-%d %H:%M} UTC)")
     if at > end:
         return (f"certificate of {common_name(cert)} expired before {when} "

@@ -84,7 +84,8 @@ def _inputs_check(doc: Document) -> tuple[Inputs | None, dict]:
 
 
 def _pages_check(doc: Document, fresh_pdf: bytes, accept_other_version: bool) -> dict:
-    embedded = (doc.content.get("software") or {}).get("version")
+    software = doc.content.get("software")
+    embedded = software.get("version") if isinstance(software, dict) else None
     section: dict[str, Any] = {"method": None, "rendered_by": embedded, "running": __version__,
                                "differing_pages": [], "problems": [], "note": None}
     if embedded != __version__:
