@@ -301,3 +301,23 @@ def test_signatories_of_the_wrong_type_give_a_report(demo, signer, tmp_path, sig
     signed = raw_sign(forged, "prepared", signer["key"], signer["cert"], certify=True)
     report = verify_document(_write(tmp_path, "t.pdf", signed), signer["trust"])
     assert not report["ok"] and report["recomputation"]["differences"]
+
+
+def test_a_folder_without_documents_is_bad_input_beside_a_good_file(demo, trust_both, tmp_path):
+    # SPEC "Command line": every file is processed, a bad one reported, the exit status the
+    # worst of them. A folder with nothing to verify (a mistyped path) must not let a run
+    # over it and a good file end in 0, and the JSON summary must count it.
+    import json
+
+    from click.testing import CliRunner
+
+    from reportgen.cli import main
+
+    empty = tmp_path / "empty"
+    empty.mkdir()
+    trust = [a for t in trust_both for a in ("--trust", str(t))]
+    done = CliRunner().invoke(main, ["verify", str(empty), str(demo["two"]), *trust, "--json"])
+    assert done.exit_code == 2, done.output
+    batch = json.loads(done.stdout)
+    assert batch["summary"]["unreadable"] == 1
+    assert batch["unreadable"][0]["file"] == str(empty)

@@ -132,18 +132,25 @@ def sign(sheet_pdf: Path, role: str, key_path: Path | None, cert_path: Path | No
     click.echo(f"{output}: signed as {role} by {printable(done['signer'])}", err=True)
 
 
-def _expand(paths: tuple[Path, ...]) -> list[Path]:
+def _expand(paths: tuple[Path, ...]) -> tuple[list[Path], list[dict]]:
+    """The files to verify (a folder: its PDF files) and the folders without any (each one
+    bad input: a mistyped folder must not pass unnoticed beside good files)."""
     files: list[Path] = []
+    empty: list[dict] = []
     for path in paths:
         if path.is_dir():
             found = sorted(p for p in path.iterdir() if p.suffix.lower() == ".pdf"
                            and p.is_file())
             if not found:
-                click.echo(f"reportgen: {path}: no PDF files in this folder", err=True)
+                from reportgen.signing.identity import printable
+
+                message = printable(f"{path}: no PDF files in this folder")
+                click.echo(f"reportgen: {message}", err=True)
+                empty.append({"file": str(path), "error": message})
             files.extend(found)
         else:
             files.append(path)
-    return files
+    return files, empty
 
 
 @main.command(epilog="""\b
@@ -188,9 +195,8 @@ def verify(files: tuple[Path, ...], trust: tuple[Path, ...], vessel: Path | None
     vessel_store = load_trust(vessel_trust) if vessel_trust else None
     if vessel is not None:
         read_input(vessel, "approved vessel data file")  # a bad --vessel is bad input, once
-    paths = _expand(files)
+    paths, unreadable = _expand(files)
     reports: list[dict] = []
-    unreadable: list[dict] = []
     with _progress("verifying", total=len(paths)) as advance:
         for path in paths:
             try:
@@ -198,24 +204,24 @@ def verify(files: tuple[Path, ...], trust: tuple[Path, ...], vessel: Path | None
                     path, store, vessel=vessel, vessel_trust=vessel_store or (),
                     accept_other_version=accept_other_version))
             except InputError as exc:
-                if len(paths) == 1:
+                if len(paths) == 1 and not unreadable:
                     raise
                 click.echo(f"reportgen: {printable(exc)}", err=True)
                 unreadable.append({"file": str(path), "error": printable(exc)})
             advance()
     status = 2 if unreadable or not paths else (0 if all(r["ok"] for r in reports) else 1)
     if as_json:
-        if len(paths) == 1 and reports:
+        if len(paths) == 1 and reports and not unreadable:
             document: object = reports[0]
         else:
             document = {"format": "reportgen/verify-batch-1", "files": reports,
                         "unreadable": unreadable,
-                        "summary": {"files": len(paths),
+                        "summary": {"files": len(reports) + len(unreadable),
                                     "verified": sum(1 for r in reports if r["ok"]),
                                     "not_verified": sum(1 for r in reports if not r["ok"]),
                                     "unreadable": len(unreadable)}}
         click.echo(json.dumps(document, indent=2, ensure_ascii=True))
-    elif len(paths) == 1 and reports:
+    elif len(paths) == 1 and reports and not unreadable:
         color = sys.stdout.isatty() and "NO_COLOR" not in os.environ
         click.echo(render_report(reports[0], color=color), nl=False)
     else:
