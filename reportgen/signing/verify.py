@@ -183,7 +183,8 @@ def guarded_integrity(doc: Document, accept_other_version: bool = False) -> dict
                          ) from None
 
 
-def _signature_entry(sig: Any, store: TrustStore, named: dict, now: Any) -> dict:
+def _signature_entry(sig: Any, store: TrustStore, named: dict, now: Any,
+                     kind: str = "sheet") -> dict:
     cert = sig.certificate
     entry: dict[str, Any] = {
         "field": sig.field, "role": sig.field,
@@ -205,7 +206,7 @@ def _signature_entry(sig: Any, store: TrustStore, named: dict, now: Any) -> dict
         entry["name_matches"] = why is None
         if why:
             entry["problems"].append(
-                f"the certificate is issued to '{ids.printable(entry['signer'])}', the sheet "
+                f"the certificate is issued to '{ids.printable(entry['signer'])}', the {kind} "
                 f"names '{ids.printable(entry['named_on_sheet'])}' for {sig.field}: {why}")
     return entry
 
@@ -300,7 +301,8 @@ def verify_document(path: Path, trust: Sequence[Path] | TrustStore = (), *,
     state = guarded_integrity(doc, accept_other_version)
     certified = state["certified"]
     named = certified.get("signatories") or {}
-    signatures = [_signature_entry(s, store, named, now) for s in state["signature_objects"]]
+    signatures = [_signature_entry(s, store, named, now, doc.kind.name)
+                  for s in state["signature_objects"]]
     problems = list(state["problems"])
     _signer_problems(signatures, state["signature_objects"], now)
     for entry, sig in zip(signatures, state["signature_objects"], strict=True):
@@ -310,8 +312,8 @@ def verify_document(path: Path, trust: Sequence[Path] | TrustStore = (), *,
     for role in ROLES:
         who = named.get(f"{role}_by")
         if who and role not in signed:
-            problems.append(f"the sheet names '{ids.printable(who)}' for {role}, and {role} "
-                            f"is not signed")
+            problems.append(f"the {doc.kind.name} names '{ids.printable(who)}' for {role}, "
+                            f"and {role} is not signed")
     if not signatures:
         problems.append("the document is not signed")
     vessel_section, vessel_problems = _vessel_checks(state["inputs_object"], vessel,
