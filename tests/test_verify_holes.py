@@ -321,3 +321,31 @@ def test_a_folder_without_documents_is_bad_input_beside_a_good_file(demo, trust_
     batch = json.loads(done.stdout)
     assert batch["summary"]["unreadable"] == 1
     assert batch["unreadable"][0]["file"] == str(empty)
+
+
+@pytest.mark.parametrize("what", ["empty", "truncated", "header_only", "dev_zero", "fifo",
+                                  "cut_in_signature"])
+def test_unreadable_files_are_exit_2_with_one_message(demo, trust_both, tmp_path, what):
+    # SPEC "Conventions" and "Command line": 2 when the file is unreadable; one clear
+    # message naming the file; never a traceback.
+    import os
+
+    from click.testing import CliRunner
+
+    from reportgen.cli import main
+
+    data = demo["two"].read_bytes()
+    path = tmp_path / f"{what}.pdf"
+    if what == "dev_zero":
+        path = Path("/dev/zero")
+    elif what == "fifo":
+        os.mkfifo(path)
+    else:
+        path.write_bytes({"empty": b"", "truncated": data[: len(data) // 2],
+                          "header_only": b"%PDF-1.7\n",
+                          "cut_in_signature": data[: len(data) - 3000]}[what])
+    trust = [a for t in trust_both for a in ("--trust", str(t))]
+    done = CliRunner().invoke(main, ["verify", str(path), *trust])
+    assert done.exit_code == 2, done.output
+    assert str(path) in done.stderr and "Traceback" not in done.output
+    assert not isinstance(done.exception, Exception) or isinstance(done.exception, SystemExit)
