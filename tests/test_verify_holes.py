@@ -349,3 +349,42 @@ def test_unreadable_files_are_exit_2_with_one_message(demo, trust_both, tmp_path
     assert done.exit_code == 2, done.output
     assert str(path) in done.stderr and "Traceback" not in done.output
     assert not isinstance(done.exception, Exception) or isinstance(done.exception, SystemExit)
+
+
+def test_inputs_edited_and_hashed_again_are_caught_by_the_recomputation(demo, signer,
+                                                                        tmp_path):
+    # SPEC "Verification", point 5: a forger edits the embedded condition (a heavy item
+    # placed high), writes the new inputs_sha256 and document number, and keeps the
+    # embedded results of the original: the hash agrees, the recomputation does not.
+    import hashlib
+    import json
+
+    from pypdf import PdfReader, PdfWriter
+    from pypdf.generic import NameObject, TextStringObject
+
+    writer = PdfWriter(clone_from=PdfReader(demo["unsigned"]))
+    names = writer._root_object["/Names"]["/EmbeddedFiles"]["/Names"]
+    streams = {str(names[i]): names[i + 1].get_object()["/EF"]["/F"].get_object()
+               for i in range(0, len(names), 2)}
+    results = json.loads(streams["results.json"].get_data())
+    condition_name = results["inputs"]["condition_file"]
+    vessel = streams[results["inputs"]["vessel_file"]].get_data()
+    condition = streams[condition_name].get_data().replace(
+        b"mass: 15.0, lcg: 12.0, vcg: 4.0", b"mass: 15.0, lcg: 12.0, vcg: 9.0")
+    assert condition != streams[condition_name].get_data()
+    streams[condition_name].set_data(condition)
+    results["inputs_sha256"] = hashlib.sha256(condition + vessel).hexdigest()
+    streams["results.json"].set_data(json.dumps(results, indent=2).encode())
+    title = str(writer._info["/Title"])
+    writer._info[NameObject("/Title")] = TextStringObject(
+        title[: -12] + results["inputs_sha256"][:12])
+    out = io.BytesIO()
+    writer.write(out)
+    signed = raw_sign(out.getvalue(), "prepared", signer["key"], signer["cert"], certify=True)
+    report = verify_document(_write(tmp_path, "rehashed.pdf", signed), signer["trust"])
+    assert report["inputs"]["ok"], report["inputs"]  # the forger got the hash right
+    assert not report["ok"] and not report["recomputation"]["ok"]
+    # the item's VCG rises 5 m: KG, GM and the GZ curve differ (wall-sided reasoning: a
+    # higher KG shortens every lever; common practice)
+    assert {"hydrostatics.kg_fluid", "hydrostatics.gm_fluid", "gz.gz[1]"} <= set(
+        report["recomputation"]["differences"])
