@@ -388,3 +388,38 @@ def test_inputs_edited_and_hashed_again_are_caught_by_the_recomputation(demo, si
     # higher KG shortens every lever; common practice)
     assert {"hydrostatics.kg_fluid", "hydrostatics.gm_fluid", "gz.gz[1]"} <= set(
         report["recomputation"]["differences"])
+
+
+# --- point 4 with --accept-other-version: pages are not compared, but what no reportgen ever
+# writes (actions, JavaScript, further files, annotations other than links and signature
+# fields) is still refused -------------------------------------------------------------------
+
+
+def _other_version(unsigned: Path, change=None) -> bytes:
+    from pypdf import PdfReader, PdfWriter
+
+    def older(data):
+        data["software"]["version"] = "0.0.1"
+
+    writer = PdfWriter(clone_from=PdfReader(io.BytesIO(_with_results(unsigned, older))))
+    if change is not None:
+        change(writer)
+    out = io.BytesIO()
+    writer.write(out)
+    return out.getvalue()
+
+
+@pytest.mark.parametrize("change", [None, _javascript, _extra_file, _print_only_box],
+                         ids=["none", "javascript", "extra_file", "print_only"])
+def test_other_version_accepted_still_refuses_what_reportgen_never_writes(demo, signer,
+                                                                          tmp_path, change):
+    signed = raw_sign(_other_version(demo["failing"], change), "prepared", signer["key"],
+                      signer["cert"], certify=True)
+    sheet = _write(tmp_path, "older.pdf", signed)
+    report = verify_document(sheet, signer["trust"], accept_other_version=True)
+    assert report["pages"]["note"] == "rendered by version 0.0.1; pages not compared"
+    if change is None:  # a larger first revision than ours is no fault of another version
+        assert report["ok"], report["problems"]
+    else:
+        assert not report["ok"]
+        assert "no reportgen version writes" in report["pages"]["problems"][0]

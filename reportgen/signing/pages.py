@@ -159,3 +159,40 @@ def structure_differences(document: bytes, fresh: bytes) -> list[str]:
     are compared as images, every one of them must agree."""
     mine, theirs = _structure(document), _structure(fresh)
     return [name for name in mine if mine[name] != theirs[name]]
+
+
+# What no reportgen version writes (ISO 32000-2): actions run on opening or on page events
+# (7.7.2 /OpenAction and /AA, 12.6.2), document JavaScript (7.7.4 /Names /JavaScript),
+# optional content (8.11), annotations other than links and signature widgets, hidden or
+# print-only annotations (12.5.3 flags Hidden 2, NoView 32), actions other than going to a
+# place or a URI.
+_READER_ACTIONS = ("/GoTo", "/URI")
+
+
+def foreign_parts(document: bytes, allowed_files: set[str]) -> list[str]:
+    """The parts of ``document`` that no reportgen version writes (see above), and embedded
+    files other than ``allowed_files``: checked where the pages are not compared."""
+    from pypdf import PdfReader
+
+    reader = PdfReader(io.BytesIO(document), strict=False)
+    root = reader.trailer["/Root"].get_object()
+    names = root.get("/Names")
+    found = [f"the catalogue's {key}" for key in ("/OpenAction", "/AA", "/OCProperties")
+             if key in root]
+    if names is not None and "/JavaScript" in names.get_object():
+        found.append("document JavaScript")
+    extra = sorted(set(map(str, reader.attachments)) - allowed_files)
+    if extra:
+        found.append("further embedded files (" + ", ".join(extra) + ")")
+    for number, page in enumerate(reader.pages, 1):
+        if "/AA" in page:
+            found.append(f"page {number}: actions")
+        for ref in page.get("/Annots", []):
+            annot = ref.get_object()
+            action = annot.get("/A")
+            kind = str(action.get_object().get("/S")) if action is not None else None
+            if annot.get("/Subtype") not in ("/Widget", "/Link") or int(annot.get("/F", 0)) & 34 \
+                    or "/AA" in annot or kind not in (None, *_READER_ACTIONS):
+                found.append(f"page {number}: a {annot.get('/Subtype')} annotation (flags "
+                             f"{int(annot.get('/F', 0))}, action {kind})")
+    return found

@@ -24,7 +24,7 @@ from reportgen import __version__
 from reportgen.docinfo import DOCNO_LENGTH, ROLES
 from reportgen.errors import InputError
 from reportgen.files import read_input
-from reportgen.provenance import read_approval, rendering_stack
+from reportgen.provenance import approval_name, read_approval, rendering_stack
 from reportgen.signing.recompute import Inputs, rebuild
 from reportgen.signing.sheetfile import Document, quiet_pdf_libraries, read_document, title_number
 from reportgen.signing.signatures import change_problems, read_signatures
@@ -83,7 +83,8 @@ def _inputs_check(doc: Document) -> tuple[Inputs | None, dict]:
     return inputs, section
 
 
-def _pages_check(doc: Document, fresh_pdf: bytes, accept_other_version: bool) -> dict:
+def _pages_check(doc: Document, fresh_pdf: bytes, accept_other_version: bool,
+                 inputs: Inputs) -> dict:
     software = doc.content.get("software")
     embedded = software.get("version") if isinstance(software, dict) else None
     section: dict[str, Any] = {"method": None, "rendered_by": embedded, "running": __version__,
@@ -94,6 +95,15 @@ def _pages_check(doc: Document, fresh_pdf: bytes, accept_other_version: bool) ->
             section["problems"].append(f"rendered by version {embedded}, verified by "
                                        f"{__version__}: pages not compared "
                                        f"(--accept-other-version accepts that)")
+        allowed = {name for name, _data in inputs.condition_files()} | {
+            inputs.vessel_name, approval_name(inputs.vessel_name), doc.kind.data_file}
+        try:
+            foreign = pg.foreign_parts(pg.first_revision(doc.reader, doc.data) or b"", allowed)
+        except Exception as exc:  # noqa: BLE001 - a damaged part is not accepted
+            foreign = [f"a part that cannot be read ({type(exc).__name__})"]
+        if foreign:
+            section["problems"].append("the document holds what no reportgen version "
+                                       "writes: " + "; ".join(foreign))
         return section
     if doc.data.startswith(fresh_pdf):
         section["method"] = "bytes"
@@ -150,7 +160,6 @@ def integrity(doc: Document, accept_other_version: bool = False) -> dict:
             recomputation["error"] = f"the embedded inputs do not evaluate: {exc}"
             problems.append(f"recomputation: {recomputation['error']}")
         else:
-            fresh_size = len(fresh.pdf)
             a = {k: v for k, v in doc.content.items() if k != "software"}
             b = {k: v for k, v in json.loads(fresh.data_text).items() if k != "software"}
             recomputation["differences"] = differing_keys(a, b)
@@ -159,7 +168,9 @@ def integrity(doc: Document, accept_other_version: bool = False) -> dict:
                 shown = ", ".join(recomputation["differences"][:8])
                 problems.append(f"recomputation: the embedded {doc.kind.data_file} differs "
                                 f"from a recomputation at {shown}")
-            page_section = _pages_check(doc, fresh.pdf, accept_other_version)
+            page_section = _pages_check(doc, fresh.pdf, accept_other_version, inputs)
+            if page_section["method"] == "bytes":  # else sizes differ by right
+                fresh_size = len(fresh.pdf)
             problems += [f"pages: {p}" for p in page_section["problems"]]
     with quiet_pdf_libraries():
         changes = change_problems(doc.reader, sigs, len(doc.data), fresh_size)
