@@ -423,3 +423,29 @@ def test_other_version_accepted_still_refuses_what_reportgen_never_writes(demo, 
     else:
         assert not report["ok"]
         assert "no reportgen version writes" in report["pages"]["problems"][0]
+
+
+# --- point 2: a certificate with a critical extension nobody here understands ----------------
+
+
+def test_directly_trusted_certificate_with_an_unknown_critical_extension_fails(demo, tmp_path):
+    # RFC 5280 4.2: "A certificate-using system MUST reject the certificate if it encounters
+    # a critical extension it does not recognize". A directly trusted certificate is not
+    # path-validated, so the rule is applied to it here.
+    from cryptography import x509
+    from cryptography.hazmat.primitives import hashes
+    from cryptography.x509.oid import NameOID, ObjectIdentifier
+    from signing_helpers import DAY, NOW
+
+    key = new_key()
+    name = x509.Name([x509.NameAttribute(NameOID.COMMON_NAME, "G. Other (invented)")])
+    cert = (x509.CertificateBuilder().subject_name(name).issuer_name(name)
+            .public_key(key.public_key()).serial_number(x509.random_serial_number())
+            .not_valid_before(NOW - DAY).not_valid_after(NOW + DAY)
+            .add_extension(x509.UnrecognizedExtension(ObjectIdentifier("1.3.6.1.4.1.99999.1"),
+                                                      b"\x05\x00"), critical=True)
+            .sign(key, hashes.SHA256()))
+    signed = raw_sign(demo["failing"].read_bytes(), "prepared", key, cert, certify=True)
+    report = verify_document(_write(tmp_path, "crit.pdf", signed), [cert_file(tmp_path, cert)])
+    assert not report["ok"]
+    assert "critical extension" in "\n".join(report["problems"])
