@@ -449,3 +449,55 @@ def test_directly_trusted_certificate_with_an_unknown_critical_extension_fails(d
     report = verify_document(_write(tmp_path, "crit.pdf", signed), [cert_file(tmp_path, cert)])
     assert not report["ok"]
     assert "critical extension" in "\n".join(report["problems"])
+
+
+# --- point 1: the first signature certifies with form filling; no other signature certifies --
+
+
+def _sign_mdp(monkeypatch, data, field, key, cert, certify, permission):
+    """pyHanko signing with a chosen DocMDP use, its own refusal to sign a document whose
+    certification forbids changes switched off (a forger's tool would not have it)."""
+    from pyhanko.sign import fields, signers
+    from signing_helpers import KeepMetadataWriter
+
+    from reportgen.signing.identity import to_asn1
+
+    monkeypatch.setattr(signers.PdfSigner, "_enforce_certification_constraints",
+                        lambda self, reader: None)
+    from asn1crypto import keys as asn1_keys
+    from cryptography.hazmat.primitives import serialization
+
+    signer = signers.SimpleSigner(
+        signing_cert=to_asn1(cert), cert_registry=None,
+        signing_key=asn1_keys.PrivateKeyInfo.load(key.private_bytes(
+            serialization.Encoding.DER, serialization.PrivateFormat.PKCS8,
+            serialization.NoEncryption())))
+    meta = signers.PdfSignatureMetadata(field_name=field, md_algorithm="sha256",
+                                        subfilter=fields.SigSeedSubFilter.PADES,
+                                        certify=certify,
+                                        docmdp_permissions=fields.MDPPerm(permission))
+    writer = KeepMetadataWriter(io.BytesIO(data), strict=False)
+    return signers.PdfSigner(meta, signer=signer).sign_pdf(
+        writer, existing_fields_only=True, output=io.BytesIO()).getvalue()
+
+
+@pytest.mark.parametrize("first, second, words", [
+    # ISO 32000-2 12.8.2.2.2: P=1, "no changes to the document shall be permitted; any
+    # change to the document shall invalidate the signature": a reader's viewer calls the
+    # certification broken once checked signs
+    ((True, 1), (False, 2), "DocMDP permission 2"),
+    ((False, 2), (False, 2), "DocMDP permission 2"),  # the first signature does not certify
+    # 12.8.2.2.1: one signature field with a DocMDP transform, the first signed
+    ((True, 2), (True, 2), "certifies the document again"),
+], ids=["no_changes_then_signed", "first_not_certifying", "two_certifications"])
+def test_certification_as_reportgen_makes_it(demo, monkeypatch, tmp_path, first, second,
+                                              words):
+    keys = new_key(), new_key()
+    certs = make_cert("H. One (invented)", keys[0]), make_cert("H. Two (invented)", keys[1])
+    data = _sign_mdp(monkeypatch, demo["failing"].read_bytes(), "prepared", keys[0],
+                     certs[0], *first)
+    data = _sign_mdp(monkeypatch, data, "checked", keys[1], certs[1], *second)
+    monkeypatch.undo()
+    trust = [cert_file(tmp_path, certs[0], "1.pem"), cert_file(tmp_path, certs[1], "2.pem")]
+    report = verify_document(_write(tmp_path, "mdp.pdf", data), trust)
+    assert not report["ok"] and words in "\n".join(report["problems"])
