@@ -501,3 +501,18 @@ def test_certification_as_reportgen_makes_it(demo, monkeypatch, tmp_path, first,
     trust = [cert_file(tmp_path, certs[0], "1.pem"), cert_file(tmp_path, certs[1], "2.pem")]
     report = verify_document(_write(tmp_path, "mdp.pdf", data), trust)
     assert not report["ok"] and words in "\n".join(report["problems"])
+
+
+def test_a_hostile_file_name_is_printed_escaped(tmp_path):
+    # SPEC point 7: names and texts are printed with control characters escaped; a file in
+    # a folder handed over by someone else names itself.
+    from click.testing import CliRunner
+
+    from reportgen.cli import main
+
+    folder = tmp_path / "from-the-ship"
+    folder.mkdir()
+    (folder / "\x1b[2J\x1b]0;owned\x07sheet.pdf").write_bytes(b"%PDF-1.7\nnothing\n")
+    done = CliRunner().invoke(main, ["verify", str(folder)])
+    assert done.exit_code == 2
+    assert "\x1b" not in done.stderr and "\\x1b[2J" in done.stderr

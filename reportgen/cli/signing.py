@@ -204,8 +204,8 @@ def verify(files: tuple[Path, ...], trust: tuple[Path, ...], vessel: Path | None
                     path, store, vessel=vessel, vessel_trust=vessel_store or (),
                     accept_other_version=accept_other_version))
             except InputError as exc:
-                if len(paths) == 1 and not unreadable:
-                    raise
+                if len(paths) == 1 and not unreadable:  # file names and parser texts
+                    raise InputError(printable(exc)) from None  # are escaped (point 7)
                 click.echo(f"reportgen: {printable(exc)}", err=True)
                 unreadable.append({"file": str(path), "error": printable(exc)})
             advance()
