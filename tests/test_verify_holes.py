@@ -516,3 +516,17 @@ def test_a_hostile_file_name_is_printed_escaped(tmp_path):
     done = CliRunner().invoke(main, ["verify", str(folder)])
     assert done.exit_code == 2
     assert "\x1b" not in done.stderr and "\\x1b[2J" in done.stderr
+
+
+def test_sign_and_extract_print_hostile_names_escaped(tmp_path):
+    from click.testing import CliRunner
+
+    from reportgen.cli import main
+
+    hostile = tmp_path / "\x1b]0;owned\x07\rsheet.pdf"  # a title escape, a return
+    hostile.write_bytes(b"%PDF-1.7\nnothing\n")
+    for command in (["sign", str(hostile), "--role", "prepared", "--key", "k", "--cert", "c",
+                     "-o", str(tmp_path / "o.pdf")],
+                    ["extract", str(hostile), "-o", str(tmp_path / "x")]):
+        done = CliRunner().invoke(main, command)
+        assert done.exit_code == 2 and not {"\x1b", "\x07", "\r"} & set(done.stderr)

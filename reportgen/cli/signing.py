@@ -6,6 +6,7 @@ only (never on a pipe, never with NO_COLOR set).
 
 from __future__ import annotations
 
+import functools
 import json
 import os
 import sys
@@ -20,6 +21,21 @@ from reportgen.errors import InputError
 
 EXIT_CODES = """\b
 Exit status: 0 done, 2 bad input (a clear message on stderr, nothing written)."""
+
+
+def _escaped(func):
+    """The command with its bad-input message printed with control characters escaped (SPEC
+    "Verification", point 7: a file name or a text from a hostile file)."""
+    @functools.wraps(func)
+    def command(*args, **kwargs):
+        from reportgen.signing.identity import printable
+
+        try:
+            return func(*args, **kwargs)
+        except InputError as exc:
+            raise InputError(printable(exc)) from None
+
+    return command
 
 
 def _bar_wanted() -> bool:
@@ -117,6 +133,7 @@ integrity checks.
 @click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
               help="The signed PDF to write (a new file).")
 @click.option("--force", is_flag=True, help="Replace an existing output file.")
+@_escaped
 def sign(sheet_pdf: Path, role: str, key_path: Path | None, cert_path: Path | None,
          p12_path: Path | None, passphrase_file: Path | None, reason: str | None,
          location: str | None, output: Path, force: bool) -> None:
@@ -241,6 +258,7 @@ Example:
 @click.option("-o", "--output", "output", type=click.Path(path_type=Path),
               help="The approval to write (default: VESSEL.yaml.p7s beside the file).")
 @click.option("--force", is_flag=True, help="Replace an existing approval.")
+@_escaped
 def approve(vessel_file: Path, key_path: Path | None, cert_path: Path | None,
             p12_path: Path | None, passphrase_file: Path | None, output: Path | None,
             force: bool) -> None:
@@ -267,6 +285,7 @@ Examples:
               help="Folder to write the condition and vessel files (and approval) into "
                    "(a limits document: its vessel file and approval).")
 @click.option("--force", is_flag=True, help="Replace existing files.")
+@_escaped
 def extract(sheet_pdf: Path, out_dir: Path, force: bool) -> None:
     """Write a document's embedded input files, ready to run again."""
     from reportgen.signing.approve import extract_and_hint
