@@ -530,3 +530,32 @@ def test_sign_and_extract_print_hostile_names_escaped(tmp_path):
                     ["extract", str(hostile), "-o", str(tmp_path / "x")]):
         done = CliRunner().invoke(main, command)
         assert done.exit_code == 2 and not {"\x1b", "\x07", "\r"} & set(done.stderr)
+
+
+def test_a_vessel_approval_dated_in_the_future_fails(tmp_path, monkeypatch):
+    # SPEC point 6 (--vessel-trust), with point 3's reading of signing times: an approval
+    # cannot have been made after the moment it is verified (our bound: 5 minutes).
+    import shutil
+
+    from conftest import ROOT
+    from signing_helpers import DAY
+
+    from reportgen.signing import identity as ids
+    from reportgen.signing.approve import approve_vessel
+    from reportgen.signing.recompute import Inputs
+    from reportgen.signing.trust import load_trust
+
+    vessel = tmp_path / "ship.yaml"
+    shutil.copy(ROOT / "conditions" / "vessels" / "linnet-demo.yaml", vessel)
+    ids.keygen("Invented Design Office (invented)", tmp_path / "office")
+    now = ids.utc_now()
+    monkeypatch.setattr(ids, "utc_now", lambda: now + 3 * DAY)
+    approve_vessel(vessel, key_path=tmp_path / "office" / "key.pem",
+                   cert_path=tmp_path / "office" / "cert.pem")
+    monkeypatch.undo()
+    inputs = Inputs("c.yaml", b"", "ship.yaml", vessel.read_bytes(),
+                    (tmp_path / "ship.yaml.p7s").read_bytes())
+    section, problems = verify._vessel_checks(
+        inputs, None, load_trust([tmp_path / "office" / "cert.pem"]), now)
+    assert section["approval"]["present"]
+    assert any("in the future" in p for p in problems), problems

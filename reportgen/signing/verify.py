@@ -291,6 +291,10 @@ def _vessel_checks(inputs: Inputs | None, vessel: Path | None, vessel_store: Tru
                 approval.update(trusted=verdict.trusted, trusted_how=verdict.how or None,
                                 path=verdict.path)
                 problems += [f"vessel data approval: {p}" for p in verdict.problems]
+                when = found.signing_time
+                if when is not None and when > now + CLOCK_TOLERANCE:
+                    problems.append(f"vessel data approval: its signing time {_stamp(when)} "
+                                    f"is in the future (verified at {_stamp(now)})")
     return section, problems
 
 
