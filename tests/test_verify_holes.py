@@ -559,3 +559,19 @@ def test_a_vessel_approval_dated_in_the_future_fails(tmp_path, monkeypatch):
         inputs, None, load_trust([tmp_path / "office" / "cert.pem"]), now)
     assert section["approval"]["present"]
     assert any("in the future" in p for p in problems), problems
+
+
+def test_a_certificate_not_yet_valid_at_the_stated_signing_time_fails(demo, monkeypatch,
+                                                                       tmp_path):
+    # SPEC point 2: valid at its signing time (RFC 5280 4.1.2.5). Valid now, but the signer
+    # states a time two days back, before the certificate's notBefore (yesterday).
+    from signing_helpers import DAY
+
+    key = new_key()
+    cert = make_cert("J. Other (invented)", key)  # valid from a day ago
+    _signing_clock(monkeypatch, -2 * DAY)
+    signed = raw_sign(demo["failing"].read_bytes(), "prepared", key, cert, certify=True)
+    monkeypatch.undo()
+    report = verify_document(_write(tmp_path, "early.pdf", signed), [cert_file(tmp_path, cert)])
+    assert not report["ok"] and "not yet valid at the signing time" in "\n".join(
+        report["problems"])
