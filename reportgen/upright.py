@@ -174,7 +174,7 @@ def _roll_hull(case: Case, fl: Floating, loading: Loading) -> tuple[rolling.Hull
         rho = case.condition.condition.water_density
         cb = rolling.block_coefficient(loading.totals.displacement, rho, lwl, p.breadth, d)
         source = "computed"
-    return rolling.Hull(p.breadth, d, lwl, cb, p.bilge, p.bilge_keel_area), source
+    return rolling.Hull(p.breadth, d, lwl, cb, p.bilge, p.bilge_keel_area, p.length_bp), source
 
 
 def _load_line(case: Case, vd: VesselData, fl: Floating) -> tuple[LoadLine | None, list[str]]:
