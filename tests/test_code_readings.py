@@ -2,9 +2,9 @@
 the conservative one (house rule), and these tests pin it against the paragraph's own words.
 
 - Part A 2.2.1 asks the area "up to θ = 30°" and the areas to 40° "or θf if this angle is
-  less". With θf below 30° the ship takes water before 30°, so GZ beyond θf is not there to
-  be credited: the area to 30° stops at θf too (the conservative reading; the area to 40° can
-  then never be smaller than the area to 30°).
+  less"; SPEC.md's table of criteria words it the same way. The area to 30° is therefore
+  taken to 30° whatever θf; with θf below 30° the area from 30° to θf is nil and fails, so
+  the ship cannot pass 2.2.1 however the area to 30° is read (the verdict is the safe one).
 - Part A 2.3.4, table 2.3.4-3 gives k by Ak·100/(L·B), while the symbols listed under the
   formula define only Lwl, the waterline length. Whether L is Lwl or the ship's length
   (Introduction, Definitions, recalled from memory) is not settled by the text; k falls as
@@ -35,14 +35,16 @@ def _sine_curve():
 
 
 @pytest.mark.parametrize("flooding", [24.0, 30.0, 45.0])
-def test_area_to_30_stops_at_flooding(flooding):
-    # ∫0^min(30°, θf) sin θ dθ = 1 − cos(min(30°, θf)) m·rad (Part A 2.2.1, read as above).
+def test_area_to_30_as_written_and_the_area_from_30_fails_below_it(flooding):
+    # ∫0^30° sin θ dθ = 1 − cos 30° m·rad whatever θf (Part A 2.2.1; SPEC.md "Criteria");
+    # the areas to 40° end at min(40°, θf): 1 − cos(min(40°, θf)).
     s = State(curve=_sine_curve(), credited_to_deg=flooding, gz_max_deg=80.0, gm_fluid_m=1.0,
               flooding_deg=flooding, deck_edge_deg=20.0)
-    end = math.radians(min(30.0, flooding))
-    a30, a40 = general.area_0_30(s), general.area_0_40(s)
-    assert a30.attained == pytest.approx(1.0 - math.cos(end), rel=1e-6)
-    assert a30.attained <= a40.attained
+    a30, a40, a3040 = general.area_0_30(s), general.area_0_40(s), general.area_30_40(s)
+    assert a30.attained == pytest.approx(1.0 - math.cos(math.radians(30.0)), rel=1e-6)
+    assert a40.attained == pytest.approx(1.0 - math.cos(math.radians(min(40.0, flooding))),
+                                         rel=1e-6)
+    assert a3040.passed == (flooding > 30.0)
 
 
 def test_k_takes_the_greater_of_lpp_and_lwl():

@@ -127,7 +127,7 @@ def gz_figure_svg(results: Results, labels: Mapping[str, str]) -> str:
 
         flooding = results.angles.flooding
         upper = min(40.0, flooding) if flooding is not None else 40.0
-        first = fine <= min(30.0, upper)  # 2.2.1: every area stops at θf (criteria.general)
+        first = fine <= 30.0
         second = (fine >= 30.0) & (fine <= upper)
         ax.fill_between(fine, 0.0, fine_gz, where=first, facecolor="white", edgecolor="black",
                         hatch="////", linewidth=0.0, label=labels["area_0_30"])
