@@ -44,9 +44,9 @@ def _other_stack_and_bigger_fresh(monkeypatch) -> None:
     rewrite, padded): the size of the first revision decides nothing."""
     from pypdf import PdfReader, PdfWriter
 
-    from reportgen import provenance
+    from reportgen.report import stack
 
-    real_stack = provenance.rendering_stack()
+    real_stack = stack.rendering_stack()
     monkeypatch.setattr(verify, "rendering_stack", lambda: {**real_stack, "weasyprint": "0.0"})
     real = rc.rebuild
 
