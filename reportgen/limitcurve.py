@@ -25,7 +25,9 @@ from reportgen import NAME, __version__, docinfo, limits, stages
 from reportgen.errors import InputError
 from reportgen.floating import HydroTable, check_in_range, floating_on_tables
 from reportgen.inputs import Case
+from reportgen.inputs.case import special_problems
 from reportgen.inputs.condition import Condition
+from reportgen.inputs.special import PASSENGER_SET
 from reportgen.inputs.tables import ship_x_range
 from reportgen.inputs.vessel import Lightship, Vessel
 from reportgen.limitsmodel import LimitsDocument
@@ -96,15 +98,20 @@ def upright_at(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, vd: Vessel
     lcg = lcg_for_trim(h, disp_t, trim_m, vessel.particulars.length_bp)
     ship = vessel.model_copy(update={"lightship": Lightship.model_construct(
         mass=disp_t, lcg=lcg, vcg=0.0, tcg=0.0)})
+    empty = {"format": "reportgen/condition-1", "vessel": vessel_name,
+             "condition": {"title": "limits", "water_density": h.density},
+             "items": [], "free_surface": "actual", "criteria": sets}
+    if PASSENGER_SET in sets:  # nobody on board: no crowd; the turning heel still counts
+        empty["passengers"] = {"number": 0}
     try:
-        cond = Condition.model_validate({
-            "format": "reportgen/condition-1", "vessel": vessel_name,
-            "condition": {"title": "limits", "water_density": h.density},
-            "items": [], "free_surface": "actual", "criteria": sets})
+        cond = Condition.model_validate(empty)
     except ValueError as exc:
         raise InputError(f"hydrostatics.density {h.density:g}: the limits are found in water "
                          f"of the table's density, which a condition cannot take "
                          f"({str(exc).splitlines()[0]})") from None
+    problems = special_problems(cond, vessel, sets)
+    if problems:
+        raise InputError(f"criteria: {problems[0][1]}")
     case = Case(cond, ship, b"", vessel_bytes, "limits", vessel_name)
     p = vessel.particulars
     fl = floating_on_tables(h, disp_t, h.density, lcg, p.length_bp)
@@ -171,6 +178,10 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
     if not rows:
         raise InputError(f"{vessel_name}: a trim of {trim_m:g} m is not physically possible at "
                          f"any displacement of the tables: choose a smaller --trim")
+    if PASSENGER_SET in sets:
+        warnings.append("The curve has no passengers on board, so the crowding heel of IS Code "
+                        "2008 Part A 3.1.2 is nil on it; the turning heel of 3.1.3 is counted. "
+                        "Each condition's own KG limit counts its passengers crowded.")
     if skipped:
         warnings.append(f"No limit is given at {', '.join(f'{d:.1f}' for d in skipped)} t: "
                         f"at a trim of {trim_m:g} m a draught at a perpendicular would be below "

@@ -134,3 +134,43 @@ def test_margin_is_in_the_results_and_the_summary(tmp_path):
     assert r.limits.gm_min == pytest.approx(_kmt(7.0) - r.limits.kg_max, abs=1e-6)
     assert "KG may rise by" in render_summary(r)
     assert "kg_margin" in r.to_dict()["limits"]
+
+
+def _kg_turning(draft: float, speed_kn: float) -> float:
+    """IS Code 2008 Part A 3.1.3 (SPEC.md `is2008.passenger`): the turning arm
+    0.200·(v0²/Lwl)·(KG − d/2)/g equal to the wall-sided GZ(10°) = sin θ·(GM + ½·BM·tan²θ),
+    solved for KG (linear in KG); Lwl = L for the box, v0 in m/s (1 knot = 1852/3600 m/s)."""
+    v0, s, t = speed_kn * 1852.0 / 3600.0, math.sin(math.radians(10.0)), \
+        math.tan(math.radians(10.0))
+    a = 0.200 * v0 * v0 / (L * 9.81)
+    bm = B * B / (12.0 * draft)
+    return (a * draft / 2.0 + s * (_kmt(draft) + 0.5 * bm * t * t)) / (a + s)
+
+
+def test_passenger_ship_curve_counts_the_turning_heel():
+    """SPEC "Limits": the curve holds for every criterion of the vessel's `criteria`, the
+    passenger set included. With nothing on board there is no crowd (its moment is 0), but the
+    turning heel of Part A 3.1.3 rises with KG; at 25 knots it governs the box at T = 7 m, at
+    the closed-form KG within 1 mm. (It raised an AttributeError before.)"""
+    d = vessel_dict(criteria=("is2008.general", "is2008.passenger"), passengers={
+        "decks": [{"name": "Deck", "area": 200.0, "z": 13.0, "y_crowded": 4.0}]})
+    d["particulars"]["service_speed"] = 25.0
+    raw = yaml.safe_dump(d, sort_keys=False).encode()
+    v = parse_vessel(raw, "box.yaml")
+    vd = limitcurve.vessel_data(v)
+    up = limitcurve.upright_at(v, raw, "box.yaml", vd, RHO * L * B * 7.0, 0.0,
+                               limitcurve.curve_sets(v))
+    lim = limits.limit_of(up, 0.0)
+    assert lim.governing == "passenger_turning_heel"
+    assert lim.kg_max_m == pytest.approx(_kg_turning(7.0, 25.0), abs=0.001)
+    assert _kg_turning(7.0, 25.0) < _kg_area_0_30(7.0)
+
+
+def test_passenger_ship_curve_without_passenger_decks_is_refused():
+    """A vessel whose criteria hold is2008.passenger but with no passengers block or service
+    speed cannot have the curve of that set: exit-2 message, not a traceback."""
+    d = vessel_dict(criteria=("is2008.general", "is2008.passenger"))
+    raw = yaml.safe_dump(d, sort_keys=False).encode()
+    v = parse_vessel(raw, "box.yaml")
+    with pytest.raises(limitcurve.InputError, match="passengers"):
+        limitcurve.limiting_curve(v, raw, "box.yaml")
