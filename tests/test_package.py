@@ -339,3 +339,19 @@ def test_a_vessel_without_tables_gives_no_curve_and_says_why():
     raw = hull.read_bytes()
     curve, problem = vessel_limits(parse_vessel(raw, hull.name), raw, hull.name)
     assert curve is None and "reportgen tables" in problem
+
+
+def test_a_passenger_ships_package_carries_its_curve():
+    """SPEC "Package": the limiting KG curve of the vessel for its criteria; the ferry's
+    criteria hold is2008.passenger (IS Code 2008 Part A 3.1), whose curve raised an
+    AttributeError, so `reportgen package` of the ferry's conditions ended in a traceback.
+    (Evaluated only, not rendered.)"""
+    from reportgen.inputs import load_case
+    from reportgen.report.package import make_package
+
+    pkg = make_package([load_case(ROOT / "conditions" / "ferry-departure.yaml")])
+    assert pkg.limits_problem is None
+    assert "is2008.passenger" in pkg.limits["criteria"]
+    ids = {c["id"] for c in pkg.limits["criteria_list"]}
+    assert {"passenger_crowding_heel", "passenger_turning_heel"} <= ids
+    assert all(r["kg_max"] is not None for r in pkg.limits["rows"])
