@@ -10,6 +10,8 @@ form hydrostatics (KMt = T/2 + B²/(12·T), TPC = ρ·L·B/100).
 from __future__ import annotations
 
 import math
+import re
+from pathlib import Path
 
 import pytest
 import yaml
@@ -174,3 +176,50 @@ def test_passenger_ship_curve_without_passenger_decks_is_refused():
     v = parse_vessel(raw, "box.yaml")
     with pytest.raises(limitcurve.InputError, match="passengers"):
         limitcurve.limiting_curve(v, raw, "box.yaml")
+
+
+DEMO_ARRIVAL = Path(__file__).resolve().parent.parent / "conditions" / "full-load-arrival.yaml"
+
+
+def _printed_numbers(text: str) -> list[float]:
+    return [float(x) for x in re.findall(r"(\d+\.\d{3}) m", text)]
+
+
+def test_printed_kg_max_and_gm_min_are_on_the_passing_side():
+    """SPEC "Limits": kg_max is a KG at which every criterion passes. The demo's full-load
+    arrival has kg_max 5.790822 m and area_30_40 (IS Code 2008 Part A 2.2.1) failing from
+    about 5.7909 m: printed to the nearest mm, "to 5.791 m, GM 0.422 m" named a KG at which
+    the condition fails. The conservative reading (house rules): the printed KG max and KG
+    margin are rounded down, the GM min up; at the printed KG max and at KMt − printed GM min
+    every criterion passes, whether the text is the summary of `check`, the sheet's sentence
+    or the limits table."""
+    from reportgen.inputs import load_case
+    from reportgen.limitsummary import render_limits
+    from reportgen.pipeline import evaluate
+    from reportgen.report.render import template_environment
+    from reportgen.summary import margin_text
+    from reportgen.vesseldata import vessel_data
+
+    case = load_case(DEMO_ARRIVAL)
+    r = evaluate(case)
+    up = stages.upright(case, vessel_data(case.vessel))
+    kmt, kg = r.hydrostatics.kmt, r.hydrostatics.kg_fluid
+
+    def all_pass(kg_m: float) -> bool:
+        return all(c.passed for c in stages.checked(up, kg_m).checks)
+
+    assert not all_pass(round(r.limits.kg_max, 3))  # the case the test is about
+    sheet = template_environment().get_template("margin.html.j2").render(r=r)
+    for text in (margin_text(r), sheet):
+        rise, kg_max, gm_min = _printed_numbers(text)[:3]
+        assert all_pass(kg_max) and all_pass(kmt - gm_min), text
+        assert all_pass(kg + rise), text
+    doc = {"vessel": {"name": "v", "identifier": "i"}, "trim": 0.0, "density": 1.025,
+           "criteria": ["is2008.general"], "warnings": [],
+           "search": {"start": 0.0, "step_max": 0.25, "tolerance": 0.001},
+           "rows": [{"displacement": 1.0, "draft_mean": 1.0, "kmt": kmt,
+                     "kg_max": r.limits.kg_max, "gm_min": r.limits.gm_min,
+                     "governing": "area_30_40", "flooding": 50.0, "deck_edge": 20.0}]}
+    table = render_limits(doc)
+    assert f"{math.floor(r.limits.kg_max * 1000) / 1000:.3f}" in table
+    assert f"{math.ceil(r.limits.gm_min * 1000) / 1000:.3f}" in table
