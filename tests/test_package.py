@@ -355,3 +355,22 @@ def test_a_passenger_ships_package_carries_its_curve():
     ids = {c["id"] for c in pkg.limits["criteria_list"]}
     assert {"passenger_crowding_heel", "passenger_turning_heel"} <= ids
     assert all(r["kg_max"] is not None for r in pkg.limits["rows"])
+
+
+def test_attachment_names_are_unique_when_the_vessel_file_is_named_package_json(tmp_path):
+    """SPEC "Package": names made unique; the data document is package.json (ISO 32000-2
+    7.11.4: an embedded file is found by its name). A vessel file named package.json was
+    embedded under that name beside the package's own package.json."""
+    from reportgen.docinfo import PACKAGE_NAME
+    from reportgen.inputs import load_case
+    from reportgen.report.package import _attachments, make_package, package_json
+
+    (tmp_path / PACKAGE_NAME).write_bytes(VESSEL.read_bytes())
+    cond = tmp_path / "c.yaml"
+    cond.write_text(CONDITIONS[0].read_text(encoding="utf-8").replace(
+        "vessel: vessels/linnet-demo.yaml", f"vessel: {PACKAGE_NAME}"), encoding="utf-8")
+    pkg = make_package([load_case(cond)])
+    names = [a.name for a in _attachments(pkg, package_json(pkg))]
+    assert len(names) == len(set(names)), names
+    doc = json.loads(package_json(pkg))
+    assert doc["vessel"]["file"] in names and doc["vessel"]["file"] != PACKAGE_NAME
