@@ -15,6 +15,7 @@ from __future__ import annotations
 import hashlib
 import io
 import json
+import math
 import shutil
 import subprocess
 from pathlib import Path
@@ -104,6 +105,13 @@ def test_summary_prints_the_results_numbers(package):
                      f"{h['draft_mean']:.3f}", f"{h['draft_fore']:.3f}",
                      f"{h['gm_fluid']:.3f}", f"{h['kg_fluid']:.3f}"):
             assert text in summary, (r["condition"]["title"], text)
+        # KG max and its margin rounded down, to the passing side (SPEC "Limits": every
+        # criterion passes at kg_max; the house rules' conservative reading); trim signed
+        lim = r["limits"]
+        for text in (f"{math.floor(lim['kg_max'] * 1000 + 1e-6) / 1000:.3f}",
+                     f"{math.floor(lim['kg_margin'] * 1000 + 1e-6) / 1000:+.3f}",
+                     f"{h['trim']:+.3f}"):
+            assert text.replace("-", "−") in summary, (r["condition"]["title"], text)
 
 
 def test_bookmarks_lead_to_the_cover_summary_each_condition_and_appendix(package):
