@@ -31,7 +31,7 @@ from reportgen.inputs.special import PASSENGER_SET
 from reportgen.inputs.tables import ship_x_range
 from reportgen.inputs.vessel import Lightship, Vessel
 from reportgen.limitsmodel import LimitsDocument
-from reportgen.plainjson import clean
+from reportgen.plainjson import clean, round_float
 from reportgen.vesseldata import VesselData, vessel_data
 
 LIMITS_FORMAT = docinfo.LIMITS_FORMAT
@@ -148,6 +148,9 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
     """The limits document (reportgen/limits-1) of a vessel at a trim (m)."""
     if not math.isfinite(trim_m):
         raise InputError("--trim: expected a finite number of metres")
+    # the trim as the document records it (6 decimals, −0.0 as 0.0): the curve, its hash and
+    # `verify`'s recomputation all rest on that one number
+    trim_m = round_float(float(trim_m))
     if not vessel.has_tables:
         raise InputError(f"{vessel_name}: no hydrostatics and cross_curves; make them with "
                          f"'reportgen tables' first")
