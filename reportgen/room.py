@@ -69,7 +69,11 @@ def trial_of(case: Case, vd: VesselData, mass_t: float, x_m: float, y_m: float,
     c = with_mass(case, mass_t, x_m, y_m, z_m) if mass_t > 0.0 else case
     try:
         up = stages.upright(c, vd)
-    except InputError as exc:  # the refusal, in its own words, is what limits the mass
+    except InputError as exc:
+        if mass_t <= 0.0:  # the condition itself is refused: bad input, as `check` says
+            raise InputError(f"{case.condition_name} (vessel {case.vessel_name}): {exc}"
+                             ) from None
+        # the refusal of the heavier condition, in its own words, is what limits the mass
         return Trial(mass_t, False, TABLES_END, str(exc).splitlines()[0])
     k = stages.at_kg(up, stages.kg_fluid_of(up)[1])
     failing = [ch for ch in k.checks if not ch.passed]

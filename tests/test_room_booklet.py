@@ -84,6 +84,19 @@ def test_room_names_why_a_heavier_condition_is_refused(tmp_path):
     assert "forward perpendicular" in text and "below zero" in text
 
 
+def test_room_of_a_condition_that_cannot_be_evaluated_is_bad_input(tmp_path):
+    """SPEC.md "Conventions": a physically impossible condition is refused, exit status 2 (as
+    `check` refuses it). The box at T = 3 m with 30000 t more lies beyond its tables (19680 t
+    at 12 m); `room` answered "no mass can be added" with exit status 1."""
+    item = {"name": "Far too much", "mass": 30000.0, "lcg": L / 2, "vcg": 5.0}
+    path = write_case(tmp_path, condition_dict([_cargo_for(3.0, 5.0), item]))
+    for command in (["check", str(path)], ["room", str(path), "--at", "50,5"]):
+        run = subprocess.run([sys.executable, "-m", "reportgen", *command], check=False,
+                             capture_output=True, text=True)
+        assert run.returncode == 2, (command, run.stdout, run.stderr)
+        assert "cond.yaml (vessel box.yaml)" in run.stderr and "Traceback" not in run.stderr
+
+
 def test_room_refuses_a_point_outside_the_ship(tmp_path):
     path = write_case(tmp_path, condition_dict([_cargo_for(7.0, 5.0)]))
     run = subprocess.run([sys.executable, "-m", "reportgen", "room", str(path), "--at",
