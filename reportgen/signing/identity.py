@@ -21,6 +21,7 @@ from cryptography.x509.oid import NameOID
 
 from reportgen.errors import InputError
 from reportgen.files import check_output, make_folder, read_input, write_atomic
+from reportgen.printable import printable  # noqa: F401  (signing's modules name it here)
 
 DEMO_ORGANISATION = "reportgen demo identity - not for real use"
 DEMO_VALIDITY = dt.timedelta(days=365)
@@ -213,21 +214,6 @@ def keygen(name: str, out_dir: Path, passphrase: bytes | None = None,
     write_atomic(paths[1], cert_pem, force=force)
     write_atomic(paths[2], p12, force=force, mode=0o600)
     return paths
-
-
-def printable(text: object) -> str:
-    """``text`` with every control character (C0, DEL, C1) and the Unicode line and paragraph
-    separators shown as an escape, so that a name cannot rewrite a terminal or a report
-    (SPEC "Verification", point 7)."""
-    out = []
-    for ch in str(text):
-        code = ord(ch)
-        if code < 32 or 127 <= code < 160 or code in (0x2028, 0x2029) or \
-                unicodedata.category(ch) in ("Cf", "Cs", "Co"):
-            out.append(f"\\x{code:02x}" if code < 256 else f"\\u{code:04x}")
-        else:
-            out.append(ch)
-    return "".join(out)
 
 
 def _normal(name: str) -> str:

@@ -21,7 +21,8 @@ from reportgen import __version__
 from reportgen.docinfo import DOCNO_LENGTH
 from reportgen.errors import InputError
 from reportgen.files import read_input
-from reportgen.provenance import read_approval, rendering_stack
+from reportgen.provenance import read_approval
+from reportgen.report.stack import rendering_stack
 from reportgen.signing.recompute import Inputs, rebuild
 from reportgen.signing.sheetfile import Document, quiet_pdf_libraries, read_document, title_number
 from reportgen.signing.signatures import change_problems, read_signatures
