@@ -108,8 +108,7 @@ def test_summary_prints_the_results_numbers(package):
         # KG max and its margin rounded down, to the passing side (SPEC "Limits": every
         # criterion passes at kg_max; the house rules' conservative reading); trim signed
         lim = r["limits"]
-        for text in (f"{math.floor(lim['kg_max'] * 1000 + 1e-6) / 1000:.3f}",
-                     f"{math.floor(lim['kg_margin'] * 1000 + 1e-6) / 1000:+.3f}",
+        for text in (f"{_down(lim['kg_max']):.3f}", f"{_down(lim['kg_margin']):+.3f}",
                      f"{h['trim']:+.3f}"):
             assert text.replace("-", "−") in summary, (r["condition"]["title"], text)
 
@@ -267,11 +266,17 @@ def _signed(value: float) -> str:
     return "0.000" if float(text) == 0.0 else text.replace("-", "\u2212")
 
 
+def _down(value: float) -> float:
+    """A KG max as documents print it: rounded down to 1 mm, to the passing side."""
+    return math.floor(value * 1000 + 1e-6) / 1000
+
+
 def test_curve_page_draws_every_condition_and_says_what_the_curve_rests_on(package):
     """SPEC "Package": the limiting KG curve with every condition drawn as a labelled point;
     SPEC "Limits": the curve is upright at trim 0 in water of the table's density. The curve's
     KG max at each condition's displacement is checked against numpy.interp (linear in
-    displacement, as the booklet criterion reads a curve) on the embedded curve."""
+    displacement, as the booklet criterion reads a curve) on the embedded curve, printed
+    rounded down as every KG max is."""
     import numpy as np
 
     text = " ".join(_curve_page(package["unsigned"]).split())
@@ -287,7 +292,8 @@ def test_curve_page_draws_every_condition_and_says_what_the_curve_rests_on(packa
                           [x["kg_max"] for x in rows])
         row = (f"{i} {r['condition']['title']} {r['loading']['displacement']:.1f} "
                f"{_signed(r['hydrostatics']['trim'])} {r['condition']['water_density']:.4f} "
-               f"{r['hydrostatics']['kg_fluid']:.3f} {curve:.3f} {r['limits']['kg_max']:.3f}")
+               f"{r['hydrostatics']['kg_fluid']:.3f} {_down(curve):.3f} "
+               f"{_down(r['limits']['kg_max']):.3f}")
         assert row in text, row
 
 
