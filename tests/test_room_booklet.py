@@ -97,6 +97,16 @@ def test_room_of_a_condition_that_cannot_be_evaluated_is_bad_input(tmp_path):
         assert "cond.yaml (vessel box.yaml)" in run.stderr and "Traceback" not in run.stderr
 
 
+@pytest.mark.parametrize("at", ["4_8,5", "٤٨,5", "48,5 ,", "48;5", "0x30,5"])
+def test_room_refuses_a_point_that_is_not_two_plain_numbers(tmp_path, at):
+    """`--at X,Z` in metres (SPEC.md "Command line"): Python's float() also reads "4_8" as
+    48 and Arabic-Indic digits as numbers, so a typing slip put the mass elsewhere."""
+    path = write_case(tmp_path, condition_dict([_cargo_for(7.0, 5.0)]))
+    run = subprocess.run([sys.executable, "-m", "reportgen", "room", str(path), "--at", at],
+                         check=False, capture_output=True, text=True)
+    assert run.returncode == 2 and "--at" in run.stderr and "Traceback" not in run.stderr
+
+
 def test_room_refuses_a_point_outside_the_ship(tmp_path):
     path = write_case(tmp_path, condition_dict([_cargo_for(7.0, 5.0)]))
     run = subprocess.run([sys.executable, "-m", "reportgen", "room", str(path), "--at",
