@@ -7,6 +7,8 @@ put upright (TCG 0) at that displacement and trim T, in water of the table's den
 vessel's windage profile and nothing else on board, and made by the same `stages.upright` as a
 condition (so the KN, the flooding and deck-edge angles, the wind and roll quantities are taken
 exactly as a condition's would be); `reportgen.limits.limit_of` then searches KG from 0 upward.
+The LCG for trim T is read from the hydrostatic table; where the offsets float the ship
+(calculation.method: hull) it is corrected until their trim is T to within TRIM_MATCH_M.
 The criteria are the vessel's `criteria` without `booklet.limits` (the booklet's own curve
 cannot limit the curve that would replace it) and without `grain.2008` (its heeling moment is a
 property of a grain cargo, which an empty ship at a displacement does not have).
@@ -14,6 +16,7 @@ property of a grain cargo, which an empty ship at a displacement does not have).
 
 from __future__ import annotations
 
+import dataclasses
 import hashlib
 import json
 import math
@@ -39,6 +42,7 @@ LIMITS_NAME = docinfo.LIMITS_NAME  # the embedded data document of a limits PDF
 REQUEST_NAME = docinfo.LIMITS_REQUEST_NAME  # what, beside the vessel file, the curve rests on
 NOT_ON_CURVE = ("booklet.limits", "grain.2008")  # the booklet's own curve; needs a grain cargo
 TRIM_MATCH_M = 0.001  # the upright trim must come out within this of the trim asked, m
+HULL_TRIM_STEPS = 4  # corrections of the LCG where the offsets float the ship (method hull)
 
 
 class ImpossibleTrim(InputError):
@@ -123,7 +127,18 @@ def upright_at(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, vd: Vessel
         raise ImpossibleTrim(f"a trim of {trim_m:g} m is not physically possible at this "
                          f"displacement (draughts aft {dr.aft:.2f} m, fore {dr.fore:.2f} m, "
                          f"depth {p.depth:g} m; LCG {lcg:.1f} m): choose a smaller --trim")
-    return stages.upright(case, vd)
+    up = stages.upright(case, vd)
+    for _ in range(HULL_TRIM_STEPS):  # on the offsets (method hull) the trim is theirs
+        off = up.floating.trim - trim_m
+        if abs(off) <= TRIM_MATCH_M:
+            return up
+        # t = Δ·(LCB − LCG)/(100·MCT) (reportgen.floating.trim_m): G moved by 100·MCT·Δt/Δ
+        lcg += 100.0 * fl.mct * off / disp_t
+        ship = ship.model_copy(update={"lightship": Lightship.model_construct(
+            mass=disp_t, lcg=lcg, vcg=0.0, tcg=0.0)})
+        up = stages.upright(dataclasses.replace(case, vessel=ship), vd)
+    raise InputError(f"the offsets do not float the ship at a trim of {trim_m:g} m at "
+                     f"{disp_t:.1f} t (they give {up.floating.trim:.3f} m)")
 
 
 def row(up: stages.Upright) -> dict:

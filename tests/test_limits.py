@@ -223,3 +223,20 @@ def test_printed_kg_max_and_gm_min_are_on_the_passing_side():
     table = render_limits(doc)
     assert f"{math.floor(r.limits.kg_max * 1000) / 1000:.3f}" in table
     assert f"{math.ceil(r.limits.gm_min * 1000) / 1000:.3f}" in table
+
+
+def test_on_the_offsets_the_curve_is_at_the_trim_asked():
+    """SPEC "Limits": each row is upright at trim T. With calculation.method: hull the offsets
+    float the ship, and the LCG read from the hydrostatic table put the demo ship at
+    7779 t 6 mm off a trim of 0.5 m; the rows are now at T to 1 mm (TRIM_MATCH_M). Checked
+    against the trim the offsets' own floating gives (reportgen.hull, the box and Wigley
+    tests' route)."""
+    path = Path(__file__).resolve().parent.parent / "conditions" / "vessels" / "linnet-demo.yaml"
+    raw = path.read_bytes().replace(b"calculation: {method: tables",
+                                    b"calculation: {method: hull")
+    v = parse_vessel(raw, path.name)
+    assert v.calculation.method == "hull"
+    vd = limitcurve.vessel_data(v)
+    disp = next(d for d in limitcurve.displacements(vd) if d > 7700.0)
+    up = limitcurve.upright_at(v, raw, path.name, vd, disp, 0.5, limitcurve.curve_sets(v))
+    assert up.floating.trim == pytest.approx(0.5, abs=limitcurve.TRIM_MATCH_M)
