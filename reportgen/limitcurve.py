@@ -7,6 +7,8 @@ put upright (TCG 0) at that displacement and trim T, in water of the table's den
 vessel's windage profile and nothing else on board, and made by the same `stages.upright` as a
 condition (so the KN, the flooding and deck-edge angles, the wind and roll quantities are taken
 exactly as a condition's would be); `reportgen.limits.limit_of` then searches KG from 0 upward.
+The LCG for trim T is read from the hydrostatic table; where the offsets float the ship
+(calculation.method: hull) it is corrected until their trim is T to within TRIM_MATCH_M.
 The criteria are the vessel's `criteria` without `booklet.limits` (the booklet's own curve
 cannot limit the curve that would replace it) and without `grain.2008` (its heeling moment is a
 property of a grain cargo, which an empty ship at a displacement does not have).
@@ -14,6 +16,7 @@ property of a grain cargo, which an empty ship at a displacement does not have).
 
 from __future__ import annotations
 
+import dataclasses
 import hashlib
 import json
 import math
@@ -25,11 +28,13 @@ from reportgen import NAME, __version__, docinfo, limits, stages
 from reportgen.errors import InputError
 from reportgen.floating import HydroTable, check_in_range, floating_on_tables
 from reportgen.inputs import Case
+from reportgen.inputs.case import special_problems
 from reportgen.inputs.condition import Condition
+from reportgen.inputs.special import PASSENGER_SET
 from reportgen.inputs.tables import ship_x_range
 from reportgen.inputs.vessel import Lightship, Vessel
 from reportgen.limitsmodel import LimitsDocument
-from reportgen.plainjson import clean
+from reportgen.plainjson import clean, round_float
 from reportgen.vesseldata import VesselData, vessel_data
 
 LIMITS_FORMAT = docinfo.LIMITS_FORMAT
@@ -37,6 +42,7 @@ LIMITS_NAME = docinfo.LIMITS_NAME  # the embedded data document of a limits PDF
 REQUEST_NAME = docinfo.LIMITS_REQUEST_NAME  # what, beside the vessel file, the curve rests on
 NOT_ON_CURVE = ("booklet.limits", "grain.2008")  # the booklet's own curve; needs a grain cargo
 TRIM_MATCH_M = 0.001  # the upright trim must come out within this of the trim asked, m
+HULL_TRIM_STEPS = 4  # corrections of the LCG where the offsets float the ship (method hull)
 
 
 class ImpossibleTrim(InputError):
@@ -96,15 +102,20 @@ def upright_at(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, vd: Vessel
     lcg = lcg_for_trim(h, disp_t, trim_m, vessel.particulars.length_bp)
     ship = vessel.model_copy(update={"lightship": Lightship.model_construct(
         mass=disp_t, lcg=lcg, vcg=0.0, tcg=0.0)})
+    empty = {"format": "reportgen/condition-1", "vessel": vessel_name,
+             "condition": {"title": "limits", "water_density": h.density},
+             "items": [], "free_surface": "actual", "criteria": sets}
+    if PASSENGER_SET in sets:  # nobody on board: no crowd; the turning heel still counts
+        empty["passengers"] = {"number": 0}
     try:
-        cond = Condition.model_validate({
-            "format": "reportgen/condition-1", "vessel": vessel_name,
-            "condition": {"title": "limits", "water_density": h.density},
-            "items": [], "free_surface": "actual", "criteria": sets})
+        cond = Condition.model_validate(empty)
     except ValueError as exc:
         raise InputError(f"hydrostatics.density {h.density:g}: the limits are found in water "
                          f"of the table's density, which a condition cannot take "
                          f"({str(exc).splitlines()[0]})") from None
+    problems = special_problems(cond, vessel, sets)
+    if problems:
+        raise InputError(f"criteria: {problems[0][1]}")
     case = Case(cond, ship, b"", vessel_bytes, "limits", vessel_name)
     p = vessel.particulars
     fl = floating_on_tables(h, disp_t, h.density, lcg, p.length_bp)
@@ -116,7 +127,18 @@ def upright_at(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, vd: Vessel
         raise ImpossibleTrim(f"a trim of {trim_m:g} m is not physically possible at this "
                          f"displacement (draughts aft {dr.aft:.2f} m, fore {dr.fore:.2f} m, "
                          f"depth {p.depth:g} m; LCG {lcg:.1f} m): choose a smaller --trim")
-    return stages.upright(case, vd)
+    up = stages.upright(case, vd)
+    for _ in range(HULL_TRIM_STEPS):  # on the offsets (method hull) the trim is theirs
+        off = up.floating.trim - trim_m
+        if abs(off) <= TRIM_MATCH_M:
+            return up
+        # t = Δ·(LCB − LCG)/(100·MCT) (reportgen.floating.trim_m): G moved by 100·MCT·Δt/Δ
+        lcg += 100.0 * fl.mct * off / disp_t
+        ship = ship.model_copy(update={"lightship": Lightship.model_construct(
+            mass=disp_t, lcg=lcg, vcg=0.0, tcg=0.0)})
+        up = stages.upright(dataclasses.replace(case, vessel=ship), vd)
+    raise InputError(f"the offsets do not float the ship at a trim of {trim_m:g} m at "
+                     f"{disp_t:.1f} t (they give {up.floating.trim:.3f} m)")
 
 
 def row(up: stages.Upright) -> dict:
@@ -141,6 +163,9 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
     """The limits document (reportgen/limits-1) of a vessel at a trim (m)."""
     if not math.isfinite(trim_m):
         raise InputError("--trim: expected a finite number of metres")
+    # the trim as the document records it (6 decimals, −0.0 as 0.0): the curve, its hash and
+    # `verify`'s recomputation all rest on that one number
+    trim_m = round_float(float(trim_m))
     if not vessel.has_tables:
         raise InputError(f"{vessel_name}: no hydrostatics and cross_curves; make them with "
                          f"'reportgen tables' first")
@@ -171,6 +196,10 @@ def limiting_curve(vessel: Vessel, vessel_bytes: bytes, vessel_name: str, trim_m
     if not rows:
         raise InputError(f"{vessel_name}: a trim of {trim_m:g} m is not physically possible at "
                          f"any displacement of the tables: choose a smaller --trim")
+    if PASSENGER_SET in sets:
+        warnings.append("The curve has no passengers on board, so the crowding heel of IS Code "
+                        "2008 Part A 3.1.2 is nil on it; the turning heel of 3.1.3 is counted. "
+                        "Each condition's own KG limit counts its passengers crowded.")
     if skipped:
         warnings.append(f"No limit is given at {', '.join(f'{d:.1f}' for d in skipped)} t: "
                         f"at a trim of {trim_m:g} m a draught at a perpendicular would be below "

@@ -42,6 +42,27 @@ REPORTED_DECIMALS = 6  # the results documents round to 6 decimals (reportgen.re
 SAFE_SIDE_M = 2e-6  # kg_max as reported is this much below the passing end, then rounded down,
 # so that a KG re-made from the printed numbers (KG + margin) still passes
 
+PRINTED_DECIMALS = 3  # texts and documents print KG, GM and the margin to 1 mm
+PRINT_SLACK = 1e-6  # of the last printed digit: a stored 5.524000 is not printed as 5.523
+
+
+def printed_down(value_m: float | None, decimals: int = PRINTED_DECIMALS) -> float | None:
+    """A KG max or KG margin (m) as printed: rounded down, so that the KG it names passes (the
+    conservative reading; to the nearest, 5.790822 m read 5.791 m, where a criterion fails)."""
+    if value_m is None:
+        return None
+    scale = 10.0 ** decimals
+    return math.floor(value_m * scale + PRINT_SLACK) / scale
+
+
+def printed_up(value_m: float | None, decimals: int = PRINTED_DECIMALS) -> float | None:
+    """A minimum GM (m) as printed: rounded up (``printed_down``'s reason)."""
+    if value_m is None:
+        return None
+    scale = 10.0 ** decimals
+    return math.ceil(value_m * scale - PRINT_SLACK) / scale
+
+
 Evaluate = Callable[[float], Sequence[Check]]
 
 

@@ -8,6 +8,7 @@ from rich import box
 from rich.console import Console
 from rich.table import Table
 
+from reportgen.limits import printed_down, printed_up
 from reportgen.printable import printable
 from reportgen.summary import CAUTION, WIDTH
 
@@ -36,7 +37,8 @@ def render_limits(doc: dict) -> str:
         t.add_column(name, justify="left" if name == "Governing" else "right", no_wrap=True)
     for r in doc["rows"]:
         t.add_row(_num(r["displacement"], 1), _num(r["draft_mean"]), _num(r["kmt"]),
-                  _num(r["kg_max"]), _num(r["gm_min"]), r["governing"] or "none",
+                  _num(printed_down(r["kg_max"])), _num(printed_up(r["gm_min"])),
+                  r["governing"] or "none",
                   _num(r["flooding"], 1), _num(r["deck_edge"], 1))
     con.print(t)
     for w in doc["warnings"]:

@@ -5,9 +5,9 @@ draught of the load line (SPEC.md "Limits", `reportgen room`).
 Each trial mass is a new condition (the condition's items plus one more) evaluated through
 `stages.upright` and `stages.at_kg`; the added mass carries no windage. As for the KG limit
 (reportgen.limits), the conservative reading where the Code is silent: the mass is raised from
-0 in steps that double from ``STEP_FIRST_T`` up to ``STEP_MAX_SHARE`` of the displacement, the
-first failure met limits it, and the last step is bisected to ``TOLERANCE_T``; the mass given
-is the passing end (rounded down to 0.1 t).
+0 in steps that double from 1 t up to ``STEP_MAX_SHARE`` of the displacement, the first failure
+met limits it, and the last step is bisected down to ``GRID_T``: every trial mass is a whole
+multiple of 0.1 t, so the mass given passes and 0.1 t more was found to fail.
 """
 
 from __future__ import annotations
@@ -23,11 +23,13 @@ from reportgen.inputs.condition import Item
 from reportgen.inputs.tables import outside_the_ship
 from reportgen.vesseldata import VesselData, vessel_data
 
-STEP_FIRST_T = 1.0  # t
-STEP_MAX_SHARE = 0.02  # of the condition's displacement
-TOLERANCE_T = 0.05  # t: SPEC asks for 0.1 t; the answer is rounded down to 0.1 t
+GRID_T = 0.1  # t: SPEC.md asks for the mass to 0.1 t; every trial mass is a multiple of it
+GRID_PER_T = 10  # multiples of GRID_T in a tonne (a trial mass is k / GRID_PER_T t, exactly)
+STEP_FIRST_K = 10  # first step of the walk, in multiples of GRID_T (1 t)
+STEP_MAX_SHARE = 0.02  # largest step of the walk, as a share of the condition's displacement
 LOAD_LINE = "load_line"
-TABLES_END = "tables_end"  # the displacement leaves the vessel's tables
+TABLES_END = "tables_end"  # the heavier condition is refused: it leaves the vessel's tables
+# (displacement or trim) or cannot float so (a draught below zero or above the depth)
 
 
 @dataclasses.dataclass(frozen=True)
@@ -66,8 +68,12 @@ def trial_of(case: Case, vd: VesselData, mass_t: float, x_m: float, y_m: float,
     c = with_mass(case, mass_t, x_m, y_m, z_m) if mass_t > 0.0 else case
     try:
         up = stages.upright(c, vd)
-    except InputError:
-        return Trial(mass_t, False, TABLES_END, None)
+    except InputError as exc:
+        if mass_t <= 0.0:  # the condition itself is refused: bad input, as `check` says
+            raise InputError(f"{case.condition_name} (vessel {case.vessel_name}): {exc}"
+                             ) from None
+        # the refusal of the heavier condition, in its own words, is what limits the mass
+        return Trial(mass_t, False, TABLES_END, str(exc).splitlines()[0])
     k = stages.at_kg(up, stages.kg_fluid_of(up)[1])
     failing = [ch for ch in k.checks if not ch.passed]
     ll = up.load_line
@@ -99,26 +105,30 @@ def room_at(case: Case, x_m: float, y_m: float, z_m: float,
             advance()
         return trial_of(c, data, m, x, y, z)
 
+    # the search runs on whole multiples of GRID_T (k·0.1 t), so that the answer k·0.1 t passes
+    # and (k + 1)·0.1 t was found to fail: the largest mass to 0.1 t (SPEC.md "Limits")
     lo = trial(case, vd, 0.0, x_m, y_m, z_m)
     hi = None
     if lo.passed:
-        step_max = max(STEP_FIRST_T, STEP_MAX_SHARE * (lo.displacement_t or 0.0))
-        step = STEP_FIRST_T
+        lo_k = 0
+        step_max = max(STEP_FIRST_K, round(STEP_MAX_SHARE * (lo.displacement_t or 0.0) / GRID_T))
+        step = STEP_FIRST_K
         while hi is None:
-            t = trial(case, vd, lo.mass_t + step, x_m, y_m, z_m)
+            t = trial(case, vd, (lo_k + step) / GRID_PER_T, x_m, y_m, z_m)
             if t.passed:
-                lo = t
+                lo, lo_k = t, lo_k + step
             else:
-                hi = t
-            step = min(2.0 * step, step_max)
-        while hi.mass_t - lo.mass_t > TOLERANCE_T:
-            t = trial(case, vd, 0.5 * (lo.mass_t + hi.mass_t), x_m, y_m, z_m)
+                hi, hi_k = t, lo_k + step
+            step = min(2 * step, step_max)
+        while hi_k - lo_k > 1:
+            mid = (lo_k + hi_k) // 2
+            t = trial(case, vd, mid / GRID_PER_T, x_m, y_m, z_m)
             if t.passed:
-                lo = t
+                lo, lo_k = t, mid
             else:
-                hi = t
+                hi, hi_k = t, mid
     stop = hi if hi is not None else lo
-    return {"mass": math.floor(lo.mass_t * 10.0 + 1e-9) / 10.0,
+    return {"mass": lo.mass_t,
             "limited_by": stop.limited_by, "limited_by_title": stop.title,
             "at": {"x": x_m, "y": y_m, "z": z_m},
             "displacement": lo.displacement_t, "draft_mean": lo.draft_mid_m,
@@ -135,7 +145,7 @@ def room_text(answer: dict) -> str:
         reason = (f"the midships draught would pass the permissible draught "
                   f"{answer['permissible_draft']:.3f} m")
     elif why == TABLES_END:
-        reason = "the displacement would leave the vessel's tables"
+        reason = f"the condition would be refused ({answer['limited_by_title']})"
     else:
         reason = f"{answer['limited_by_title']} ({why}) would fail"
     if answer["mass"] <= 0.0:

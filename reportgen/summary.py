@@ -11,6 +11,7 @@ from rich import box
 from rich.console import Console
 from rich.table import Table
 
+from reportgen.limits import printed_down, printed_up
 from reportgen.printable import printable as _p
 from reportgen.results import Results
 
@@ -87,15 +88,17 @@ def margin_text(r: Results) -> str:
     """The KG margin in words (results `limits`, SPEC.md "Limits")."""
     m = r.limits
     named = f"{_p(m.governing_title)} ({_p(m.governing_reference)})"
+    kg_max, margin, gm_min = printed_down(m.kg_max), printed_down(m.kg_margin), \
+        printed_up(m.gm_min)
     if m.kg_max is None:
         return f"KG margin: no KG of 0 m or more meets every criterion; {named} fails at KG 0."
     if m.governing is None:
-        return f"KG margin: every criterion passes for any KG up to {m.kg_max:.3f} m."
+        return f"KG margin: every criterion passes for any KG up to {kg_max:.3f} m."
     if m.kg_margin >= 0:
-        return (f"KG margin: KG may rise by {m.kg_margin:.3f} m (to {m.kg_max:.3f} m, GM "
-                f"{m.gm_min:.3f} m) before {named} fails.")
-    return (f"KG margin: KG must come down by {-m.kg_margin:.3f} m (to {m.kg_max:.3f} m, GM "
-            f"{m.gm_min:.3f} m) before every criterion passes; above it {named} fails.")
+        return (f"KG margin: KG may rise by {margin:.3f} m (to {kg_max:.3f} m, GM "
+                f"{gm_min:.3f} m) before {named} fails.")
+    return (f"KG margin: KG must come down by {-margin:.3f} m (to {kg_max:.3f} m, GM "
+            f"{gm_min:.3f} m) before every criterion passes; above it {named} fails.")
 
 
 def render_summary(r: Results) -> str:

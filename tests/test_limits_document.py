@@ -244,3 +244,20 @@ def test_unapproved_vessel_limits_say_so(small_box, tmp_path):
     run = _cli("limits", str(ship / "box.yaml"), "-o", str(tmp_path / "bad.pdf"))
     assert run.exit_code == 2 and "does not sign these vessel data" in run.stderr
     assert not (tmp_path / "bad.pdf").exists() and "Traceback" not in run.stderr
+
+
+@pytest.mark.parametrize("trim", [-0.0, 0.1234567])
+def test_the_trim_hashed_is_the_trim_recorded(small_box, trim):
+    """`--trim -0` is the even-keel curve (IEEE 754: −0.0 == 0.0), and the document records
+    trims to 6 decimals. It recorded 0.0 (or 0.123457) but hashed the request "-0.0" (or
+    0.1234567), so its inputs_sha256 could not be made again from what it embeds and `verify`
+    refused it (SPEC "Verification": the inputs hash)."""
+    from reportgen.inputs.case import parse_vessel
+    from reportgen.limitcurve import inputs_sha256, limiting_curve
+
+    raw = small_box.read_bytes()
+    v = parse_vessel(raw, small_box.name)
+    doc = limiting_curve(v, raw, small_box.name, trim)
+    assert doc["inputs_sha256"] == inputs_sha256(doc["trim"], raw)
+    again = limiting_curve(v, raw, small_box.name, round(trim, 6) + 0.0)
+    assert doc["inputs_sha256"] == again["inputs_sha256"] and doc == again

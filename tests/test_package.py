@@ -15,6 +15,7 @@ from __future__ import annotations
 import hashlib
 import io
 import json
+import math
 import shutil
 import subprocess
 from pathlib import Path
@@ -104,6 +105,12 @@ def test_summary_prints_the_results_numbers(package):
                      f"{h['draft_mean']:.3f}", f"{h['draft_fore']:.3f}",
                      f"{h['gm_fluid']:.3f}", f"{h['kg_fluid']:.3f}"):
             assert text in summary, (r["condition"]["title"], text)
+        # KG max and its margin rounded down, to the passing side (SPEC "Limits": every
+        # criterion passes at kg_max; the house rules' conservative reading); trim signed
+        lim = r["limits"]
+        for text in (f"{_down(lim['kg_max']):.3f}", f"{_down(lim['kg_margin']):+.3f}",
+                     f"{h['trim']:+.3f}"):
+            assert text.replace("-", "−") in summary, (r["condition"]["title"], text)
 
 
 def test_bookmarks_lead_to_the_cover_summary_each_condition_and_appendix(package):
@@ -259,11 +266,17 @@ def _signed(value: float) -> str:
     return "0.000" if float(text) == 0.0 else text.replace("-", "\u2212")
 
 
+def _down(value: float) -> float:
+    """A KG max as documents print it: rounded down to 1 mm, to the passing side."""
+    return math.floor(value * 1000 + 1e-6) / 1000
+
+
 def test_curve_page_draws_every_condition_and_says_what_the_curve_rests_on(package):
     """SPEC "Package": the limiting KG curve with every condition drawn as a labelled point;
     SPEC "Limits": the curve is upright at trim 0 in water of the table's density. The curve's
     KG max at each condition's displacement is checked against numpy.interp (linear in
-    displacement, as the booklet criterion reads a curve) on the embedded curve."""
+    displacement, as the booklet criterion reads a curve) on the embedded curve, printed
+    rounded down as every KG max is."""
     import numpy as np
 
     text = " ".join(_curve_page(package["unsigned"]).split())
@@ -279,7 +292,8 @@ def test_curve_page_draws_every_condition_and_says_what_the_curve_rests_on(packa
                           [x["kg_max"] for x in rows])
         row = (f"{i} {r['condition']['title']} {r['loading']['displacement']:.1f} "
                f"{_signed(r['hydrostatics']['trim'])} {r['condition']['water_density']:.4f} "
-               f"{r['hydrostatics']['kg_fluid']:.3f} {curve:.3f} {r['limits']['kg_max']:.3f}")
+               f"{r['hydrostatics']['kg_fluid']:.3f} {_down(curve):.3f} "
+               f"{_down(r['limits']['kg_max']):.3f}")
         assert row in text, row
 
 
@@ -339,3 +353,38 @@ def test_a_vessel_without_tables_gives_no_curve_and_says_why():
     raw = hull.read_bytes()
     curve, problem = vessel_limits(parse_vessel(raw, hull.name), raw, hull.name)
     assert curve is None and "reportgen tables" in problem
+
+
+def test_a_passenger_ships_package_carries_its_curve():
+    """SPEC "Package": the limiting KG curve of the vessel for its criteria; the ferry's
+    criteria hold is2008.passenger (IS Code 2008 Part A 3.1), whose curve raised an
+    AttributeError, so `reportgen package` of the ferry's conditions ended in a traceback.
+    (Evaluated only, not rendered.)"""
+    from reportgen.inputs import load_case
+    from reportgen.report.package import make_package
+
+    pkg = make_package([load_case(ROOT / "conditions" / "ferry-departure.yaml")])
+    assert pkg.limits_problem is None
+    assert "is2008.passenger" in pkg.limits["criteria"]
+    ids = {c["id"] for c in pkg.limits["criteria_list"]}
+    assert {"passenger_crowding_heel", "passenger_turning_heel"} <= ids
+    assert all(r["kg_max"] is not None for r in pkg.limits["rows"])
+
+
+def test_attachment_names_are_unique_when_the_vessel_file_is_named_package_json(tmp_path):
+    """SPEC "Package": names made unique; the data document is package.json (ISO 32000-2
+    7.11.4: an embedded file is found by its name). A vessel file named package.json was
+    embedded under that name beside the package's own package.json."""
+    from reportgen.docinfo import PACKAGE_NAME
+    from reportgen.inputs import load_case
+    from reportgen.report.package import _attachments, make_package, package_json
+
+    (tmp_path / PACKAGE_NAME).write_bytes(VESSEL.read_bytes())
+    cond = tmp_path / "c.yaml"
+    cond.write_text(CONDITIONS[0].read_text(encoding="utf-8").replace(
+        "vessel: vessels/linnet-demo.yaml", f"vessel: {PACKAGE_NAME}"), encoding="utf-8")
+    pkg = make_package([load_case(cond)])
+    names = [a.name for a in _attachments(pkg, package_json(pkg))]
+    assert len(names) == len(set(names)), names
+    doc = json.loads(package_json(pkg))
+    assert doc["vessel"]["file"] in names and doc["vessel"]["file"] != PACKAGE_NAME

@@ -37,6 +37,24 @@ def test_room_at_the_centre_of_gravity_is_limited_by_the_load_line(tmp_path):
     assert exact - 0.1 <= answer["mass"] <= exact + RHO * L * B * 0.0005
 
 
+@pytest.mark.parametrize("draft", [7.0, 8.9])
+def test_room_is_the_largest_mass_to_a_tenth_of_a_tonne(tmp_path, draft):
+    """SPEC "Limits", `room`: the largest mass to 0.1 t, so 0.1 t more must fail or pass the
+    permissible draught (the load line, SPEC "load_line": compared in whole mm). At these two
+    draughts the answer was 0.1 t short: the search stopped at a 0.05 t bracket and rounded
+    down."""
+    path = write_case(tmp_path, condition_dict([_cargo_for(draft, 5.0)]))
+    answer = room_at(load_case(path), L / 2, 0.0, 5.0)
+    item = {"name": "Added", "mass": round(answer["mass"] + 0.1, 1), "lcg": L / 2, "vcg": 5.0}
+    r = evaluate_path(write_case(tmp_path, condition_dict([_cargo_for(draft, 5.0), item])))
+    over = round(r.hydrostatics.draft_mean * 1000) > round(r.load_line.permissible_draft * 1000)
+    assert over or not r.passed
+    item["mass"] = answer["mass"]
+    r = evaluate_path(write_case(tmp_path, condition_dict([_cargo_for(draft, 5.0), item])))
+    assert r.passed
+    assert round(r.hydrostatics.draft_mean * 1000) <= round(r.load_line.permissible_draft * 1000)
+
+
 def test_room_high_up_is_limited_by_a_criterion(tmp_path):
     """Mass high on the box raises KG: a criterion stops it before the load line; adding the
     answer passes, 1 t more fails (the property the search promises)."""
@@ -49,6 +67,44 @@ def test_room_high_up_is_limited_by_a_criterion(tmp_path):
     item["mass"] += 1.0
     bad = evaluate_path(write_case(tmp_path, condition_dict([_cargo_for(7.0, 5.0), item])))
     assert not {c.id: c.passed for c in bad.criteria}[answer["limited_by"]]
+
+
+def test_room_names_why_a_heavier_condition_is_refused(tmp_path):
+    """Mass at the AP of the box at T = 3 m trims it by the stern until the draught at the FP
+    reaches zero (SPEC.md "Conventions": a draught below zero is refused) at a displacement
+    well inside the tables (7380 t of 2 m … 12 m = 3280 … 19680 t). The answer must say so; it
+    said the displacement would leave the vessel's tables."""
+    from reportgen.room import room_text
+
+    path = write_case(tmp_path, condition_dict([_cargo_for(3.0, 5.0)]))
+    answer = room_at(load_case(path), 0.0, 0.0, 3.0)
+    assert answer["limited_by"] == "tables_end"
+    text = room_text(answer)
+    assert "leave the vessel's tables" not in text
+    assert "forward perpendicular" in text and "below zero" in text
+
+
+def test_room_of_a_condition_that_cannot_be_evaluated_is_bad_input(tmp_path):
+    """SPEC.md "Conventions": a physically impossible condition is refused, exit status 2 (as
+    `check` refuses it). The box at T = 3 m with 30000 t more lies beyond its tables (19680 t
+    at 12 m); `room` answered "no mass can be added" with exit status 1."""
+    item = {"name": "Far too much", "mass": 30000.0, "lcg": L / 2, "vcg": 5.0}
+    path = write_case(tmp_path, condition_dict([_cargo_for(3.0, 5.0), item]))
+    for command in (["check", str(path)], ["room", str(path), "--at", "50,5"]):
+        run = subprocess.run([sys.executable, "-m", "reportgen", *command], check=False,
+                             capture_output=True, text=True)
+        assert run.returncode == 2, (command, run.stdout, run.stderr)
+        assert "cond.yaml (vessel box.yaml)" in run.stderr and "Traceback" not in run.stderr
+
+
+@pytest.mark.parametrize("at", ["4_8,5", "٤٨,5", "48,5 ,", "48;5", "0x30,5"])
+def test_room_refuses_a_point_that_is_not_two_plain_numbers(tmp_path, at):
+    """`--at X,Z` in metres (SPEC.md "Command line"): Python's float() also reads "4_8" as
+    48 and Arabic-Indic digits as numbers, so a typing slip put the mass elsewhere."""
+    path = write_case(tmp_path, condition_dict([_cargo_for(7.0, 5.0)]))
+    run = subprocess.run([sys.executable, "-m", "reportgen", "room", str(path), "--at", at],
+                         check=False, capture_output=True, text=True)
+    assert run.returncode == 2 and "--at" in run.stderr and "Traceback" not in run.stderr
 
 
 def test_room_refuses_a_point_outside_the_ship(tmp_path):

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 import sys
 from pathlib import Path
 
@@ -9,6 +10,10 @@ import click
 
 from reportgen.cli.group import main, progress
 from reportgen.errors import InputError
+
+# a number as a person types one (ASCII digits, a point, an exponent): Python's float() also
+# takes "4_8" (48), other scripts' digits, "nan" and "inf"
+PLAIN_NUMBER = re.compile(r"[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?", re.ASCII)
 
 
 @main.command(epilog="""\b
@@ -95,10 +100,10 @@ def room(condition: Path, at: str, tcg: float, as_json: bool) -> None:
     from reportgen.inputs import load_case
     from reportgen.room import room_at, room_text
 
-    try:
-        x, z = (float(v) for v in at.split(","))
-    except ValueError:
-        raise InputError(f"--at {at!r}: expected X,Z in metres, e.g. --at 48.0,9.5") from None
+    parts = [v.strip() for v in at.split(",")]
+    if len(parts) != 2 or not all(re.fullmatch(PLAIN_NUMBER, v) for v in parts):
+        raise InputError(f"--at {at!r}: expected X,Z in metres, e.g. --at 48.0,9.5")
+    x, z = (float(v) for v in parts)
     case = load_case(condition)
     with progress("room", None) as advance:
         answer = room_at(case, x, tcg, z, advance)

@@ -35,6 +35,7 @@ import weasyprint
 from markupsafe import Markup
 
 from reportgen import __version__, provenance
+from reportgen.assemble import VESSEL_PREFIX
 from reportgen.docinfo import PACKAGE_FORMAT, PACKAGE_NAME, ROLES, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
@@ -155,7 +156,9 @@ def make_package(cases: list[Any], title: str | None = None,
                              f"{seen[case.condition_bytes]}; give each condition once")
         seen[case.condition_bytes] = case.condition_name
     approval = next((c.vessel_approval for c in cases if c.vessel_approval is not None), None)
-    vessel_file = first.vessel_name
+    vessel_file = first.vessel_name  # its own name, unless the data document has it
+    if vessel_file == PACKAGE_NAME:
+        vessel_file = VESSEL_PREFIX + vessel_file
     taken = {PACKAGE_NAME, vessel_file, provenance.approval_name(vessel_file)}
     files = unique_names([c.condition_name for c in cases], taken)
     members = []

@@ -37,6 +37,7 @@ from reportgen.assemble import attachment_names
 from reportgen.docinfo import RESULTS_NAME, ROLES, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
+from reportgen.limits import printed_down, printed_up
 from reportgen.report import fonts, stack
 from reportgen.report.engine import collector_paused, lay_out
 from reportgen.report.figure_heeling import heeling_figure_svg
@@ -145,6 +146,8 @@ def template_environment() -> jinja2.Environment:
     env.filters["num"] = format_number
     env.filters["signed"] = format_signed
     env.filters["by_unit"] = format_by_unit
+    env.filters["down"] = lambda v, quantity: printed_down(v, DECIMALS[quantity])  # KG max,
+    env.filters["up"] = lambda v, quantity: printed_up(v, DECIMALS[quantity])  # margin; GM min
     return env
 
 
