@@ -9,20 +9,28 @@ from reportgen import NAME, __version__
 from reportgen.criteria.core import Check
 from reportgen.criteria.sets import SETS
 from reportgen.criteria.weather import WIND_PRESSURE_N_M2, Weather
+from reportgen.docinfo import RESULTS_NAME, approval_name
 from reportgen.inputs import Case
 from reportgen.plainjson import Floats
 from reportgen.results import Results
 from reportgen.stability import gz_arrays, list_side
 from reportgen.stages import AtKG, Upright, listed
 
-VESSEL_PREFIX = "vessel-"  # the vessel attachment's prefix when both basenames are equal
+VESSEL_PREFIX = "vessel-"  # the vessel attachment's prefix when its name is taken
+CONDITION_PREFIX = "condition-"  # the condition attachment's prefix when its name is taken
 
 
 def attachment_names(condition_name: str, vessel_name: str) -> tuple[str, str]:
-    """Names of the two embedded input files; the vessel's gets "vessel-" when they clash."""
-    if vessel_name == condition_name:
-        return condition_name, VESSEL_PREFIX + vessel_name
-    return condition_name, vessel_name
+    """Names of the two embedded input files, each unique beside the other, the results
+    document (docinfo.RESULTS_NAME) and the vessel's approval (docinfo.approval_name): the
+    vessel's gets VESSEL_PREFIX when the condition or the results have its name, the
+    condition's CONDITION_PREFIX when the results, the vessel or its approval have its name."""
+    vessel = (VESSEL_PREFIX + vessel_name if vessel_name in (condition_name, RESULTS_NAME)
+              else vessel_name)
+    condition = condition_name
+    if condition in (RESULTS_NAME, vessel, approval_name(vessel)):
+        condition = CONDITION_PREFIX + condition
+    return condition, vessel
 
 
 @cache

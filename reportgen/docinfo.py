@@ -19,3 +19,8 @@ LIMITS_REQUEST_NAME = "limits-request.json"  # the request (trim) hashed with th
 PACKAGE_NAME = "package.json"  # the embedded data document of a calculation package
 PACKAGE_FORMAT = "reportgen/package-1"
 PACKAGE_TITLE_PREFIX = "Stability calculation package "  # the package's PDF title
+
+
+def approval_name(vessel_attachment: str) -> str:
+    """Name of the embedded approval: the vessel attachment's name plus ``.p7s`` (SPEC)."""
+    return vessel_attachment + APPROVAL_SUFFIX

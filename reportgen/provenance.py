@@ -21,19 +21,12 @@ from dataclasses import dataclass
 from cryptography import x509
 from cryptography.x509.oid import NameOID
 
-from reportgen.docinfo import APPROVAL_SUFFIX
-
 MAX_APPROVAL_BYTES = 1024 * 1024  # a detached signature with a few certificates: a few KiB
 
 
 def vessel_fingerprint(vessel_bytes: bytes) -> str:
     """SHA-256 of the vessel file's bytes alone, hex (SPEC: ``vessel.sha256``)."""
     return hashlib.sha256(vessel_bytes).hexdigest()
-
-
-def approval_name(vessel_attachment: str) -> str:
-    """Name of the embedded approval: the vessel attachment's name plus ``.p7s`` (SPEC)."""
-    return vessel_attachment + APPROVAL_SUFFIX
 
 
 @dataclass(frozen=True)

@@ -95,6 +95,13 @@ def test_clashing_basenames_prefix_the_vessel_file():
     # contract.md: "if both basenames are equal the vessel one is prefixed 'vessel-'"
     assert attachment_names("a.yaml", "a.yaml") == ("a.yaml", "vessel-a.yaml")
     assert attachment_names("a.yaml", "b.yaml") == ("a.yaml", "b.yaml")
+    # Names the sheet's own files have: the results document and the vessel's approval (a
+    # PDF name tree holds each name once, ISO 32000-2 7.9.6; verify refused the sheet).
+    assert attachment_names("results.json", "b.yaml") == ("condition-results.json", "b.yaml")
+    assert attachment_names("a.yaml", "results.json") == ("a.yaml", "vessel-results.json")
+    assert attachment_names("b.yaml.p7s", "b.yaml") == ("condition-b.yaml.p7s", "b.yaml")
+    assert attachment_names("vessel-results.json", "results.json") == (
+        "condition-vessel-results.json", "vessel-results.json")
 
 
 def test_embedded_files_are_associated_files_with_relationships(failing):

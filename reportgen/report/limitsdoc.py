@@ -18,10 +18,9 @@ from pathlib import Path
 import weasyprint
 
 from reportgen.criteria.sets import SETS
-from reportgen.docinfo import ROLES, document_number
+from reportgen.docinfo import ROLES, approval_name, document_number
 from reportgen.files import check_output, write_atomic
 from reportgen.limitcurve import LIMITS_NAME, NOT_ON_CURVE, REQUEST_NAME, to_json
-from reportgen.provenance import approval_name
 from reportgen.report import fonts
 from reportgen.report.engine import lay_out
 from reportgen.report.limitsfig import limits_figure_svg

@@ -34,9 +34,9 @@ from typing import Any
 import weasyprint
 from markupsafe import Markup
 
-from reportgen import __version__, provenance
+from reportgen import __version__
 from reportgen.assemble import VESSEL_PREFIX
-from reportgen.docinfo import PACKAGE_FORMAT, PACKAGE_NAME, ROLES, document_number
+from reportgen.docinfo import PACKAGE_FORMAT, PACKAGE_NAME, ROLES, approval_name, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
 from reportgen.report import fonts
@@ -159,7 +159,7 @@ def make_package(cases: list[Any], title: str | None = None,
     vessel_file = first.vessel_name  # its own name, unless the data document has it
     if vessel_file == PACKAGE_NAME:
         vessel_file = VESSEL_PREFIX + vessel_file
-    taken = {PACKAGE_NAME, vessel_file, provenance.approval_name(vessel_file)}
+    taken = {PACKAGE_NAME, vessel_file, approval_name(vessel_file)}
     files = unique_names([c.condition_name for c in cases], taken)
     members = []
     for case, name in zip(cases, files, strict=True):
@@ -307,7 +307,7 @@ def _attachments(pkg: Package, data_json: str) -> list[weasyprint.Attachment]:
                                      **made))
     if pkg.approval is not None:
         out.append(weasyprint.Attachment(string=pkg.approval,
-                                         name=provenance.approval_name(pkg.vessel_file),
+                                         name=approval_name(pkg.vessel_file),
                                          description=words["approval"],
                                          relationship="Source", **made))
     out.append(weasyprint.Attachment(string=data_json.encode("utf-8"), name=PACKAGE_NAME,

@@ -34,7 +34,7 @@ import weasyprint
 
 from reportgen import provenance
 from reportgen.assemble import attachment_names
-from reportgen.docinfo import RESULTS_NAME, ROLES, document_number
+from reportgen.docinfo import RESULTS_NAME, ROLES, approval_name, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
 from reportgen.limits import printed_down, printed_up
@@ -228,7 +228,7 @@ def _attachments(case: Any, results_json: str, when: datetime) -> list[weasyprin
         weasyprint.Attachment(string=results_json.encode("utf-8"), name=RESULTS_NAME,
                               description=words["results"], relationship="Data", **made),
     ] + ([weasyprint.Attachment(string=case.vessel_approval,
-                                name=provenance.approval_name(vessel_file),
+                                name=approval_name(vessel_file),
                                 description=words["approval"], relationship="Source", **made)]
          if getattr(case, "vessel_approval", None) is not None else [])
 

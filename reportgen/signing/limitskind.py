@@ -14,9 +14,9 @@ import math
 from collections.abc import Mapping
 from typing import Any
 
-from reportgen.docinfo import LIMITS_FORMAT, LIMITS_NAME, LIMITS_REQUEST_NAME
+from reportgen.docinfo import LIMITS_FORMAT, LIMITS_NAME, LIMITS_REQUEST_NAME, approval_name
 from reportgen.errors import InputError
-from reportgen.provenance import approval_name, vessel_fingerprint
+from reportgen.provenance import vessel_fingerprint
 from reportgen.signing.recompute import Inputs, Kind, Rebuilt, register
 
 

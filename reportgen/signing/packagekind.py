@@ -13,9 +13,9 @@ import dataclasses
 from collections.abc import Mapping
 from typing import Any
 
-from reportgen.docinfo import PACKAGE_FORMAT, PACKAGE_NAME, PACKAGE_TITLE_PREFIX
+from reportgen.docinfo import PACKAGE_FORMAT, PACKAGE_NAME, PACKAGE_TITLE_PREFIX, approval_name
 from reportgen.errors import InputError
-from reportgen.provenance import approval_name, vessel_fingerprint
+from reportgen.provenance import vessel_fingerprint
 from reportgen.signing.recompute import Inputs, Kind, Rebuilt, register
 from reportgen.signing.recompute import _sheet_certified as sheet_certified
 

@@ -16,9 +16,9 @@ from functools import lru_cache
 from importlib import import_module
 from typing import Any
 
-from reportgen.docinfo import RESULTS_NAME, ROLES, TITLE_PREFIX
+from reportgen.docinfo import RESULTS_NAME, ROLES, TITLE_PREFIX, approval_name
 from reportgen.errors import InputError
-from reportgen.provenance import approval_name, vessel_fingerprint
+from reportgen.provenance import vessel_fingerprint
 from reportgen.results import RESULTS_FORMAT
 
 

@@ -21,10 +21,10 @@ from cryptography.hazmat.primitives import serialization
 import reportgen.signing.identity as ids
 import reportgen.signing.pages as pg
 from reportgen import __version__
-from reportgen.docinfo import DOCNO_LENGTH, ROLES
+from reportgen.docinfo import DOCNO_LENGTH, ROLES, approval_name
 from reportgen.errors import InputError
 from reportgen.files import read_input
-from reportgen.provenance import approval_name, read_approval
+from reportgen.provenance import read_approval
 from reportgen.report.stack import rendering_stack
 from reportgen.signing.recompute import Inputs, rebuild
 from reportgen.signing.sheetfile import Document, quiet_pdf_libraries, read_document, title_number
