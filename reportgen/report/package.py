@@ -39,6 +39,7 @@ from reportgen.assemble import VESSEL_PREFIX
 from reportgen.docinfo import PACKAGE_FORMAT, PACKAGE_NAME, ROLES, approval_name, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
+from reportgen.limits import relative_margin
 from reportgen.report import fonts
 from reportgen.report import render as sheet
 from reportgen.report.appendix import vessel_appendix
@@ -209,13 +210,9 @@ def package_json(pkg: Package) -> str:
 
 
 def tightest_criterion(results: Results) -> Any | None:
-    """The criterion with the smallest margin relative to its requirement (margin/|required|;
-    a criterion whose quantity does not exist counts as the smallest)."""
-    def key(c: Any) -> float:
-        if c.margin is None:
-            return float("-inf")
-        return c.margin / abs(c.required) if c.required else c.margin
-    return min(results.criteria, key=key, default=None)
+    """The criterion with the smallest margin relative to its requirement, as the KG search
+    ranks them (reportgen.limits.relative_margin)."""
+    return min(results.criteria, key=relative_margin, default=None)
 
 
 def summary_row(member: Member) -> dict:
