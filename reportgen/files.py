@@ -119,11 +119,14 @@ def _identity(info: os.stat_result) -> tuple[int, int, int]:
     return info.st_dev, info.st_ino, info.st_ctime_ns
 
 
-def check_output(path: str | Path, force: bool) -> None:
+def check_output(path: str | Path, force: bool, make_folders: bool = False) -> None:
     """InputError when ``path`` cannot be written: it is one of this command's inputs, it is a
     folder, it exists and ``force`` is not set (nothing is silently overwritten), or its folder
-    does not exist. Checked again at the moment of writing (``write_atomic``)."""
+    does not exist (with ``make_folders``: cannot be made, because a file stands where a
+    folder is needed). Checked again at the moment of writing (``write_atomic``)."""
     path = Path(path)
+    if make_folders:
+        _folders_can_be_made(_folder(path))
     if is_input(path):
         raise InputError(f"{path}: is one of the input files of this command; an output never "
                          f"replaces an input (choose another name)")
@@ -133,8 +136,18 @@ def check_output(path: str | Path, force: bool) -> None:
         raise InputError(f"{path}: already exists; choose another name or add --force to "
                          f"replace it")
     folder = _folder(path)
-    if not folder.is_dir():
+    if not make_folders and not folder.is_dir():
         raise InputError(f"{path}: the folder {folder} does not exist")
+
+
+def _folders_can_be_made(folder: Path) -> None:
+    """InputError when some part of ``folder`` exists and is not a folder (make_folder would
+    fail there); a command that writes several files checks them all before the first."""
+    for part in (folder, *folder.parents):
+        if part.exists():
+            if not part.is_dir():
+                raise InputError(f"{part}: exists and is not a folder")
+            return
 
 
 def _folder(path: Path) -> Path:

@@ -23,15 +23,30 @@ EXIT_BAD_INPUT = 2
 
 
 @contextmanager
-def progress(what: str, total: int | None) -> Iterator[Callable[[], None]]:
-    """A progress bar on stderr for work of `total` steps, shown only on a terminal and not
-    with NO_COLOR set; yields the function that advances it one step."""
+def progress(what: str, total: int | None) -> Iterator[Callable[..., None]]:
+    """A progress bar on stderr (status, never on stdout, which carries data) for work of
+    `total` steps, shown only when stderr is a terminal and NO_COLOR is not set (set at all,
+    even empty: SPEC "never ... with NO_COLOR"); yields the function that advances it one
+    step, or that sets (done, total) when given them."""
+    from rich.console import Console
     from rich.progress import Progress
 
-    shown = sys.stderr.isatty() and not os.environ.get("NO_COLOR")
-    with Progress(transient=True, disable=not shown) as bar:
+    with Progress(console=Console(stderr=True), transient=True,
+                  disable=not bar_wanted()) as bar:
         task = bar.add_task(what, total=total)
-        yield lambda: bar.advance(task)
+
+        def advance(done: int | None = None, of: int | None = None) -> None:
+            if done is None:
+                bar.advance(task)
+            else:
+                bar.update(task, completed=done, total=of)
+
+        yield advance
+
+
+def bar_wanted() -> bool:
+    """A progress bar only on a terminal (stderr) and never with NO_COLOR in the environment."""
+    return sys.stderr.isatty() and "NO_COLOR" not in os.environ
 
 
 # Each command and the module of this package that defines it: a command's module is imported

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import math
+import re
 import sys
 from pathlib import Path
 
@@ -77,6 +79,20 @@ def _approval_beside(vessel: Path, raw: bytes) -> bytes | None:
     return p7s
 
 
+_DECIMAL = re.compile(r"[-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?")
+
+
+def _point(at: str) -> tuple[float, float]:
+    """X, Z of `--at X,Z`: two plain decimal numbers of metres (ASCII digits; no NaN,
+    infinity, digit grouping or other scripts' digits, which float() would take)."""
+    parts = [p.strip() for p in at.split(",")]
+    values = [float(p) for p in parts if _DECIMAL.fullmatch(p)]
+    if len(parts) != 2 or len(values) != 2 or not all(map(math.isfinite, values)):
+        raise InputError(f"--at {at!r}: expected X,Z, two finite numbers of metres, "
+                         f"e.g. --at 48.0,9.5")
+    return values[0], values[1]
+
+
 @main.command(epilog="""\b
 Examples:
   reportgen room conditions/full-load-departure.yaml --at 48.0,9.5
@@ -95,10 +111,7 @@ def room(condition: Path, at: str, tcg: float, as_json: bool) -> None:
     from reportgen.inputs import load_case
     from reportgen.room import room_at, room_text
 
-    try:
-        x, z = (float(v) for v in at.split(","))
-    except ValueError:
-        raise InputError(f"--at {at!r}: expected X,Z in metres, e.g. --at 48.0,9.5") from None
+    x, z = _point(at)
     case = load_case(condition)
     with progress("room", None) as advance:
         answer = room_at(case, x, tcg, z, advance)
