@@ -50,6 +50,17 @@ def _not_regular(mode: int) -> str | None:
     return None if stat.S_ISREG(mode) else "it is not a regular file"
 
 
+def not_a_file(path: str | Path) -> str | None:
+    """Why ``path`` cannot be read as an input file ("not found", "it is a folder, not a
+    file", ...), without opening it; None for a regular file."""
+    try:
+        return _not_regular(os.stat(path).st_mode)
+    except FileNotFoundError:
+        return "not found"
+    except OSError as exc:
+        return exc.strerror or str(exc)
+
+
 def read_input(path: str | Path, what: str, max_bytes: int = MAX_INPUT_BYTES) -> bytes:
     """The bytes of a regular input file of at most ``max_bytes``.
 

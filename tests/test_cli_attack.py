@@ -189,3 +189,14 @@ def test_extract_writes_nothing_when_a_file_stands_where_a_folder_must_go(tmp_pa
     done = _run("extract", str(demo["unsigned"]), "-o", str(out))
     assert done.exit_code == 2 and "exists and is not a folder" in done.output
     assert sorted(p.name for p in out.iterdir()) == ["vessels"]
+
+
+def test_a_vessel_path_that_is_a_folder_or_a_device_is_named_as_such(work):
+    # SPEC "Conventions": the message names the key, its line and the reason; a folder or
+    # /dev/zero was reported as "not found".
+    text = (work / "c.yaml").read_text()
+    for ref, reason in (("vessels", "it is a folder"), ("/dev/zero", "character device")):
+        (work / "c.yaml").write_text(text.replace("vessels/linnet-demo.yaml", ref, 1))
+        done = _run("check", str(work / "c.yaml"))
+        assert done.exit_code == 2
+        assert "vessel (line" in done.output and reason in done.output
