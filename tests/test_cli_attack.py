@@ -200,3 +200,16 @@ def test_a_vessel_path_that_is_a_folder_or_a_device_is_named_as_such(work):
         done = _run("check", str(work / "c.yaml"))
         assert done.exit_code == 2
         assert "vessel (line" in done.output and reason in done.output
+
+
+@pytest.mark.parametrize("command", [
+    ["sheet", str(PASSING)], ["new", str(VESSEL)], ["limits", str(VESSEL)],
+    ["package", str(PASSING)], ["import", "tank", "t.csv"], ["tables", str(VESSEL)],
+    ["hull-from-mesh", "m.stl"]])
+def test_an_output_named_with_a_trailing_slash_is_not_written_as_a_file(tmp_path, command):
+    # `-o out/` means a folder; a file named "out" was written in its place (SPEC "Command
+    # line": -o names the file to write; a folder only for several sheets).
+    out = tmp_path / "out"
+    done = _run(*command, "-o", f"{out}/")
+    assert done.exit_code == 2 and "ends with a slash, which names a folder" in done.output
+    assert not out.exists()

@@ -8,7 +8,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli.group import EXIT_BAD_INPUT, main, progress
+from reportgen.cli.group import EXIT_BAD_INPUT, main, names_a_folder, progress
 from reportgen.errors import InputError
 
 
@@ -73,10 +73,10 @@ Exit status: 0 every sheet written and every condition passes; 1 written, but a 
 fails a criterion; 2 bad input or an output that cannot be written (nothing is written for
 that file; the other files are still processed).""")
 @click.argument("conditions", nargs=-1, required=True, type=click.Path(path_type=Path))
-@click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
+@click.option("-o", "--output", "output", required=True, type=click.Path(),
               help="The PDF to write; a folder for several conditions.")
 @click.option("--force", is_flag=True, help="Replace an existing file.")
-def sheet(conditions: tuple[Path, ...], output: Path, force: bool) -> None:
+def sheet(conditions: tuple[Path, ...], output: str, force: bool) -> None:
     """Write calculation sheets (PDF/A-3 with inputs and results embedded)."""
     from reportgen.files import check_output
     from reportgen.inputs import load_case
@@ -84,6 +84,10 @@ def sheet(conditions: tuple[Path, ...], output: Path, force: bool) -> None:
     from reportgen.report.render import write_sheet
 
     several = len(conditions) > 1
+    if not several and names_a_folder(output):
+        raise InputError(f"{output}: ends with a slash, which names a folder; give the name "
+                         f"of the PDF to write")
+    output = Path(output)
     if several and not output.is_dir():
         raise InputError(f"{output}: with several conditions, -o must name an existing folder")
     codes = []

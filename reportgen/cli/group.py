@@ -87,6 +87,26 @@ class _Group(click.Group):
             ctx.exit(130)
 
 
+class OutputFile(click.Path):
+    """The type of `-o FILE`: a path, refused when it ends with a slash. Such a name means a
+    folder (`-o out/`), and the file would otherwise be written under the folder's name."""
+
+    def __init__(self) -> None:
+        super().__init__(path_type=Path)
+
+    def convert(self, value, param, ctx):
+        if names_a_folder(value):
+            self.fail(f"{os.fspath(value)!r} ends with a slash, which names a folder; give the "
+                      f"name of the file to write", param, ctx)
+        return super().convert(value, param, ctx)
+
+
+def names_a_folder(value: object) -> bool:
+    """True for a path written with a trailing slash (`out/`), which names a folder."""
+    text = os.fspath(value) if isinstance(value, (str, os.PathLike)) else ""
+    return isinstance(text, str) and text.endswith(tuple(filter(None, (os.sep, os.altsep))))
+
+
 def read_passphrase(path: Path | None) -> bytes | None:
     if path is None:
         return None

@@ -9,7 +9,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli.group import main, progress
+from reportgen.cli.group import OutputFile, main, progress
 from reportgen.errors import InputError
 
 
@@ -27,7 +27,7 @@ Exit status: 0 the limits were found (and written); 2 bad input (nothing is writ
 @click.option("--trim", "trim", type=float, default=0.0, show_default=True,
               help="Upright trim of the curve, m, + by the stern.")
 @click.option("--json", "as_json", is_flag=True, help="Print the limits document (JSON).")
-@click.option("-o", "--output", "output", type=click.Path(path_type=Path),
+@click.option("-o", "--output", "output", type=OutputFile(),
               help="Write the limits document as a PDF/A-3 file.")
 @click.option("--booklet-block", "booklet", is_flag=True,
               help="Print the curve as a limiting_kg block for a vessel file (booklet.limits).")

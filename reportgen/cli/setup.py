@@ -6,7 +6,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli.group import main, progress
+from reportgen.cli.group import OutputFile, main, progress
 from reportgen.errors import InputError
 
 
@@ -19,7 +19,7 @@ Tanks given by geometry (a box clipped by the hull) get their sounding tables to
 Exit status: 0 written; 2 bad input or offsets that cannot be integrated faithfully
 (nothing written).""")
 @click.argument("vessel", type=click.Path(path_type=Path))
-@click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
+@click.option("-o", "--output", "output", required=True, type=OutputFile(),
               help="The vessel file to write, with the tables.")
 @click.option("--even-keel", is_flag=True, help="Cross curves at even keel (default: free trim).")
 @click.option("--trims", "trims_text", metavar="LIST",

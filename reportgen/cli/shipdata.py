@@ -11,7 +11,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli.group import main, progress
+from reportgen.cli.group import OutputFile, main, progress
 from reportgen.errors import InputError
 
 MESH_TYPES = {".stl": "stl", ".obj": "obj"}
@@ -59,7 +59,7 @@ the moulded baseline. The output holds the hull: block for a vessel file; with
 --vessel, that vessel file with its hull: block put in (added, or replaced).
 Exit status: 0 written; 2 bad input (nothing written).""")
 @click.argument("mesh", type=click.Path(path_type=Path))
-@click.option("-o", "--output", required=True, type=click.Path(path_type=Path),
+@click.option("-o", "--output", required=True, type=OutputFile(),
               help="The YAML file to write (the hull: block).")
 @click.option("--stations", type=click.IntRange(3, 1001), default=None,  # mesh.MAX_STATIONS
               help="Number of stations, evenly spaced (default: enough to hold the mesh's "
@@ -181,7 +181,7 @@ Exit status: 0 printed or written; 2 bad input (the line and column named).""")
                    "free, said in the block).")
 @click.option("--density", type=click.FloatRange(0.99, 1.05), default=1.025,
               help="Hydrostatics and offsets: the water density of the table, t/m³.")
-@click.option("-o", "--output", type=click.Path(path_type=Path), default=None,
+@click.option("-o", "--output", type=OutputFile(), default=None,
               help="Write the YAML block to this file instead of printing it.")
 @click.option("--force", is_flag=True, help="Replace an existing file.")
 def import_table(kind: str, csv_file: Path, trim: str | None, density: float,
@@ -258,7 +258,7 @@ Examples:
 \b
 Exit status: 0 written; 2 bad input (nothing written).""")
 @click.argument("vessel", type=click.Path(path_type=Path))
-@click.option("-o", "--output", required=True, type=click.Path(path_type=Path),
+@click.option("-o", "--output", required=True, type=OutputFile(),
               help="The condition file to write.")
 @click.option("--force", is_flag=True, help="Replace an existing file.")
 def new(vessel: Path, output: Path, force: bool) -> None:
