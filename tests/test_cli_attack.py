@@ -213,3 +213,16 @@ def test_an_output_named_with_a_trailing_slash_is_not_written_as_a_file(tmp_path
     done = _run(*command, "-o", f"{out}/")
     assert done.exit_code == 2 and "ends with a slash, which names a folder" in done.output
     assert not out.exists()
+
+
+def test_a_reader_that_goes_away_is_not_a_failed_criterion():
+    # `reportgen check ... | head`: the broken pipe ended the program with status 1, which
+    # SPEC "Command line" gives to a failed criterion; now 128 + SIGPIPE, as a shell reports a
+    # process the signal ends (Python's signal docs, "Note on SIGPIPE"), and no traceback.
+    import subprocess
+
+    p = subprocess.Popen([sys.executable, "-m", "reportgen", "schema", "vessel"],
+                         stdout=subprocess.PIPE, stderr=subprocess.PIPE)
+    p.stdout.close()  # long before the interpreter has started: the first write fails
+    err = p.stderr.read()
+    assert p.wait() == 141 and b"Traceback" not in err

@@ -85,6 +85,14 @@ class _Group(click.Group):
         except KeyboardInterrupt:
             click.echo("reportgen: interrupted; nothing was written", err=True)
             ctx.exit(130)
+        except BrokenPipeError:
+            # The reader of stdout went away (`reportgen check ... | head`): no more output,
+            # and the status a shell gives a process ended by SIGPIPE (128 + 13), not 1 (a
+            # failed criterion). Python's signal module docs, "Note on SIGPIPE": stdout is
+            # pointed at devnull so that the interpreter's final flush does not fail again.
+            devnull = os.open(os.devnull, os.O_WRONLY)
+            os.dup2(devnull, sys.stdout.fileno())
+            ctx.exit(128 + 13)
 
 
 class OutputFile(click.Path):
