@@ -226,3 +226,12 @@ def test_a_reader_that_goes_away_is_not_a_failed_criterion():
     p.stdout.close()  # long before the interpreter has started: the first write fails
     err = p.stderr.read()
     assert p.wait() == 141 and b"Traceback" not in err
+
+
+def test_a_mesh_vertex_that_is_not_a_number_is_named_as_such(tmp_path):
+    # The faces at a NaN vertex were dropped while loading, and the mesh reported open.
+    obj = ("v nan 0 0\nv 50 0 0\nv 0 10 0\nv 0 0 6\n"
+           "f 1 3 2\nf 1 2 4\nf 1 4 3\nf 2 3 4\n")
+    (tmp_path / "m.obj").write_text(obj)
+    done = _run("hull-from-mesh", str(tmp_path / "m.obj"), "-o", str(tmp_path / "h.yaml"))
+    assert done.exit_code == 2 and "not finite numbers" in done.output

@@ -68,7 +68,9 @@ def load_mesh(raw: bytes, file_type: str, scale: float = 1.0):
     with warnings.catch_warnings(), np.errstate(all="ignore"):
         warnings.simplefilter("ignore")
         try:
-            mesh = trimesh.load_mesh(io.BytesIO(raw), file_type=file_type, process=True)
+            # unprocessed first: processing drops faces with coordinates that are not finite,
+            # and the mesh would then be reported open instead of as holding NaN or infinity
+            mesh = trimesh.load_mesh(io.BytesIO(raw), file_type=file_type, process=False)
         except Exception as exc:  # noqa: BLE001 - any reader failure is a bad file
             raise ValueError(f"cannot read it as {file_type.upper()}: {exc}") from None
         return _checked(mesh, scale)
@@ -104,6 +106,7 @@ def _checked(mesh, scale: float):
                          f"{MAX_FACES:,}; reduce it in the CAD program")
     if not np.all(np.isfinite(mesh.vertices)):
         raise ValueError("some vertex coordinates are not finite numbers")
+    mesh.process()  # what loading with process=True does: equal vertices merged
     if scale != 1.0:
         mesh.apply_scale(scale)
     size = float(np.max(np.ptp(mesh.vertices, axis=0)))
