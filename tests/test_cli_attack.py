@@ -235,3 +235,18 @@ def test_a_mesh_vertex_that_is_not_a_number_is_named_as_such(tmp_path):
     (tmp_path / "m.obj").write_text(obj)
     done = _run("hull-from-mesh", str(tmp_path / "m.obj"), "-o", str(tmp_path / "h.yaml"))
     assert done.exit_code == 2 and "not finite numbers" in done.output
+
+
+@pytest.mark.parametrize("key, kind", [("1", "a number"), ("yes", "true or false"),
+                                       ("2026-01-01", "a date"), ("null", "null")])
+def test_a_key_yaml_reads_as_a_number_date_or_truth_is_named_as_written(work, key, kind):
+    # YAML 1.1 resolves plain keys like values (yaml.org/type/bool.html: yes is true); the
+    # message showed "tanks.datetime.date(2026, 1, 1)" or "tanks.None".
+    text = (work / "c.yaml").read_text().replace("tanks:\n", f"tanks:\n  {key}: {{percent: 1}}\n",
+                                                 1)
+    (work / "c.yaml").write_text(text)
+    done = _run("check", str(work / "c.yaml"))
+    line = text.splitlines().index(f"  {key}: {{percent: 1}}") + 1
+    assert done.exit_code == 2
+    assert f"(line {line}): the key {key} is read as {kind}" in done.output
+    assert f"write it in quotes ('{key}')" in done.output

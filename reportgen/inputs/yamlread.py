@@ -336,10 +336,34 @@ def validate(model: type[BaseModel], data: Any, name: str, raw: bytes) -> Any:
         errors = exc.errors(include_url=False)
         # A misspelt key is reported before the "missing" it causes.
         err = min(errors, key=lambda e: e["type"] != "extra_forbidden")
-        loc = tuple(p for p in err["loc"] if not (isinstance(p, str) and "[" in p))
         more = f" (and {exc.error_count() - 1} more problems)" if exc.error_count() > 1 else ""
+        if err["loc"][-1:] == ("[key]",) and err["type"] == "string_type":
+            raise InputError(f"{name}: {_key_not_text(data, err['loc'][:-2], err['loc'][-2], raw)}"
+                             f"{more}") from None
+        loc = tuple(p for p in err["loc"] if not (isinstance(p, str) and "[" in p))
         raise InputError(f"{name}: {where(loc, key_lines(raw))}: {_message(err)}{more}") \
             from None
+
+
+def _key_not_text(data: Any, parent: tuple, shown: Any, raw: bytes) -> str:
+    """'where: the key ... is not read as text' for a key of the mapping at `parent` that YAML
+    made a number, a date, null or a truth (pydantic shows it as `shown`, a repr for a date),
+    with the key as written in the file and its line."""
+    from reportgen.inputs.yamlfast import scalar
+
+    for p in parent:
+        data = data[p]
+    key = next((k for k in data if shown in (k, repr(k))), shown)
+    lines = key_lines(raw)
+    written = next((p[-1] for p in lines if len(p) == len(parent) + 1 and p[:-1] == parent
+                    and type(scalar(str(p[-1]))) is type(key) and scalar(str(p[-1])) == key),
+                   None)
+    kind = {bool: "true or false", type(None): "null (nothing)", dt.date: "a date",
+            dt.datetime: "a date and time"}.get(type(key), "a number")
+    if written is None:
+        return f"{where(parent, lines)}: a key is read as {kind}, not as text"
+    return (f"{where((*parent, written), lines)}: the key {written} is read as {kind}, not as "
+            f"text; write it in quotes ('{written}')")
 
 
 def iso_date(value: Any) -> str:
