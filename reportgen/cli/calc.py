@@ -90,10 +90,16 @@ def sheet(conditions: tuple[Path, ...], output: str, force: bool) -> None:
     output = Path(output)
     if several and not output.is_dir():
         raise InputError(f"{output}: with several conditions, -o must name an existing folder")
+    targets = [output / f"{path.stem}.pdf" for path in conditions] if several else [output]
+    first: dict[Path, Path] = {}
+    for path, target in zip(conditions, targets, strict=True):
+        if first.setdefault(target, path) != path or conditions.count(path) > 1:
+            raise InputError(f"{path}: its sheet would be {target}, as would that of "
+                             f"{first[target]}; one run never writes a file twice (give each "
+                             f"condition once, or sheet them into different folders)")
     codes = []
     with progress("sheets", len(conditions)) as advance:
-        for path in conditions:
-            target = output / f"{path.stem}.pdf" if several else output
+        for path, target in zip(conditions, targets, strict=True):
             try:
                 case = load_case(path)
                 check_output(target, force)
