@@ -65,10 +65,16 @@ def read_input(path: str | Path, what: str, max_bytes: int = MAX_INPUT_BYTES) ->
     """The bytes of a regular input file of at most ``max_bytes``.
 
     InputError naming the file and what it was meant to be when it is missing, unreadable,
-    not a regular file, or too large. The file is opened without blocking (O_NONBLOCK), so a
+    not a regular file, too large, or named by bytes that are not UTF-8 text. The file is opened without blocking (O_NONBLOCK), so a
     FIFO with no writer is refused at once instead of hanging.
     """
     path = Path(path)
+    try:  # the name goes into documents and results (UTF-8 text): a name of other bytes
+        path.name.encode("utf-8")  # would fail there, far from its cause
+    except UnicodeEncodeError:
+        shown = os.fsencode(path).decode("utf-8", "backslashreplace")
+        raise InputError(f"{shown}: the name of the {what} is not UTF-8 text; rename the "
+                         f"file") from None
     try:
         fd = os.open(path, os.O_RDONLY | os.O_NONBLOCK | getattr(os, "O_CLOEXEC", 0))
     except FileNotFoundError:

@@ -264,3 +264,15 @@ def test_several_sheets_never_write_one_file_twice(work):
                     "--force")
         assert done.exit_code == 2 and "one run never writes a file twice" in done.output
     assert list((work / "out").iterdir()) == []
+
+
+def test_an_input_named_by_bytes_that_are_not_utf8_is_refused_by_name(work):
+    # The name goes into the results (JSON, UTF-8): `check --json` ended in a traceback, and
+    # `limits` blamed the table's water density.
+    odd = work / os.fsdecode(b"\xff.yaml")
+    shutil.copy(work / "c.yaml", odd)
+    shutil.copy(VESSEL, work / "vessels" / os.fsdecode(b"\xfe.yaml"))
+    for args in (["check", "--json", str(odd)],
+                 ["limits", str(work / "vessels" / os.fsdecode(b"\xfe.yaml")), "--json"]):
+        done = _run(*args)
+        assert done.exit_code == 2 and "is not UTF-8 text; rename the file" in done.output
