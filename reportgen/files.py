@@ -9,7 +9,8 @@ Writing (``write_atomic``): the bytes go to a temporary file in the target folde
 to disk and then take the target's name. Without ``force`` that last step is a hard link,
 which the kernel refuses when the name exists (POSIX link(2), EEXIST): a file that appears
 while the work runs is never replaced. The temporary file is removed on every exit that can
-be caught: an error, Ctrl-C (SIGINT) and SIGTERM. Every failure names the path (InputError).
+be caught: an error, Ctrl-C (SIGINT), SIGTERM and SIGHUP. Every failure names the path
+(InputError).
 """
 
 from __future__ import annotations
@@ -178,32 +179,41 @@ def _umask() -> int:
 
 
 class Terminated(SystemExit):
-    """SIGTERM arrived while a temporary file existed (exit status 128 + 15)."""
+    """SIGTERM (or SIGHUP: the terminal closed) arrived while a temporary file existed; exit
+    status 128 + the signal's number, as a shell reports a process the signal ended."""
 
-    def __init__(self) -> None:
-        super().__init__(128 + signal.SIGTERM)
+    def __init__(self, signum: int = signal.SIGTERM) -> None:
+        super().__init__(128 + signum)
 
 
-def _raise_terminated(_signum: int, _frame: object) -> None:
-    raise Terminated()
+def _raise_terminated(signum: int, _frame: object) -> None:
+    raise Terminated(signum)
+
+
+# The signals that end the program by default and can be caught: SIGTERM (kill, timeout) and
+# SIGHUP (the terminal window closed, an ssh session dropped). Ctrl-C is KeyboardInterrupt.
+_CAUGHT = tuple(getattr(signal, name) for name in ("SIGTERM", "SIGHUP") if hasattr(signal, name))
 
 
 @contextlib.contextmanager
 def _cleanup_on_signals() -> Iterator[None]:
-    """While active (main thread only), SIGTERM raises ``Terminated`` so that ``finally`` and
-    ``except BaseException`` blocks run, as they do for Ctrl-C (KeyboardInterrupt)."""
+    """While active (main thread only), SIGTERM and SIGHUP raise ``Terminated`` so that
+    ``finally`` and ``except BaseException`` blocks run, as they do for Ctrl-C
+    (KeyboardInterrupt). A signal somebody else handles is left to them."""
     if threading.current_thread() is not threading.main_thread():
         yield
         return
-    before = signal.getsignal(signal.SIGTERM)
-    if before not in (signal.SIG_DFL, None):  # somebody else's handler: leave it in charge
-        yield
-        return
-    signal.signal(signal.SIGTERM, _raise_terminated)
+    before = {}
+    for signum in _CAUGHT:
+        handler = signal.getsignal(signum)
+        if handler in (signal.SIG_DFL, None):
+            before[signum] = handler
+            signal.signal(signum, _raise_terminated)
     try:
         yield
     finally:
-        signal.signal(signal.SIGTERM, before)
+        for signum, handler in before.items():
+            signal.signal(signum, handler if handler is not None else signal.SIG_DFL)
 
 
 def _write_error(path: Path, exc: OSError) -> InputError:
