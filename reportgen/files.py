@@ -153,6 +153,10 @@ def check_output(path: str | Path, force: bool, make_folders: bool = False) -> N
     if (path.exists() or path.is_symlink()) and not force:
         raise InputError(f"{path}: already exists; choose another name or add --force to "
                          f"replace it")
+    kind = not_a_file(path) if path.exists() else None
+    if kind is not None:  # /dev/stdout, a FIFO, a device: --force replaces files only
+        raise InputError(f"{path}: {kind.removeprefix('it ')}; reportgen replaces only a "
+                         f"regular file (give the name of a file to write)")
     folder = _folder(path)
     if not make_folders and not folder.is_dir():
         raise InputError(f"{path}: the folder {folder} does not exist")

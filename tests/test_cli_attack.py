@@ -276,3 +276,24 @@ def test_an_input_named_by_bytes_that_are_not_utf8_is_refused_by_name(work):
                  ["limits", str(work / "vessels" / os.fsdecode(b"\xfe.yaml")), "--json"]):
         done = _run(*args)
         assert done.exit_code == 2 and "is not UTF-8 text; rename the file" in done.output
+
+
+def test_force_replaces_only_a_regular_file(tmp_path):
+    # `-o /dev/stdout --force` run as root replaced the /dev/stdout link with a file; a FIFO
+    # or a device is not an output file to replace.
+    from reportgen.errors import InputError
+    from reportgen.files import check_output
+
+    os.mkfifo(tmp_path / "pipe")
+    for target in ("/dev/null", "/dev/stdout", str(tmp_path / "pipe")):
+        with pytest.raises(InputError, match="replaces only a regular file"):
+            check_output(target, force=True)
+    (tmp_path / "old.yaml").write_text("x")
+    check_output(tmp_path / "old.yaml", force=True)  # a file: replaced with --force
+
+
+def test_output_dash_is_not_a_file_named_dash(tmp_path, monkeypatch):
+    monkeypatch.chdir(tmp_path)
+    done = _run("new", str(VESSEL), "-o", "-")
+    assert done.exit_code == 2 and "not to standard output" in done.output
+    assert not (tmp_path / "-").exists()

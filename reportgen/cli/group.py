@@ -103,6 +103,9 @@ class OutputFile(click.Path):
         super().__init__(path_type=Path)
 
     def convert(self, value, param, ctx):
+        if os.fspath(value) == "-":
+            self.fail("'-': reportgen writes its documents to files, not to standard output; "
+                      "give the name of the file to write", param, ctx)
         if names_a_folder(value):
             self.fail(f"{os.fspath(value)!r} ends with a slash, which names a folder; give the "
                       f"name of the file to write", param, ctx)
