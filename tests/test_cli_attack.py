@@ -167,7 +167,7 @@ def test_room_at_takes_two_plain_finite_numbers(at):
 def test_tables_refuses_a_hard_link_to_its_input_before_any_work(work, monkeypatch):
     # SPEC "Command line": never replaces one of its own inputs, with --force too; the input
     # is read once (the text written is made from the bytes validated).
-    import reportgen.hull.tables as tables
+    from reportgen.hull import tables
 
     def never(*_a, **_k):
         raise AssertionError("tables built before the output was checked")
