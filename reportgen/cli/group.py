@@ -118,15 +118,6 @@ def names_a_folder(value: object) -> bool:
     return isinstance(text, str) and text.endswith(tuple(filter(None, (os.sep, os.altsep))))
 
 
-def read_passphrase(path: Path | None) -> bytes | None:
-    if path is None:
-        return None
-    try:
-        return path.read_bytes().rstrip(b"\r\n")
-    except OSError as exc:
-        raise InputError(f"{path}: cannot read the passphrase file: {exc.strerror}") from None
-
-
 @click.group(cls=_Group, context_settings={"help_option_names": ["-h", "--help"]})
 @click.version_option(__version__, "-V", "--version", prog_name="reportgen")
 def main() -> None:
