@@ -95,7 +95,7 @@ def weather_section(wx: Weather | None) -> dict | None:
             "lw1": w.lw1, "lw2": w.lw2, "theta0": a.theta0, "theta1": r.theta1,
             "theta2": a.theta2, "thetac": a.thetac, "area_a": a.area_a, "area_b": a.area_b,
             "roll_period": r.roll_period, "c": r.c, "s": r.s, "r": r.r, "og": r.og, "x1": r.x1,
-            "x2": r.x2, "k": r.k, "lever": w.lever_m, "z_method": w.z_method,
+            "x2": r.x2, "k": r.k, "k_length": r.k_length, "lever": w.lever_m, "z_method": w.z_method,
             "theta1_formula": r.theta1_formula, "roll_angle_source": wx.roll_angle_source,
             "b_over_d": r.b_over_d, "cb": r.cb, "kg_over_d_minus_1": r.kg_over_d_minus_1,
             "theta_lw2": a.theta_lw2, "theta_start": a.theta_start,

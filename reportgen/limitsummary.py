@@ -8,6 +8,7 @@ from rich import box
 from rich.console import Console
 from rich.table import Table
 
+from reportgen.printable import printable
 from reportgen.summary import CAUTION, WIDTH
 
 
@@ -21,7 +22,7 @@ def render_limits(doc: dict) -> str:
     con = Console(file=buf, width=WIDTH, color_system=None, highlight=False, emoji=False,
                   soft_wrap=True)
     v = doc["vessel"]
-    con.print(f"{v['name']} ({v['identifier']})", markup=False)
+    con.print(f"{printable(v['name'])} ({printable(v['identifier'])})", markup=False)
     con.print(f"Limiting KG and minimum GM, upright at a trim of {doc['trim']:+.3f} m "
               f"(+ by the stern), in water of {doc['density']:.4f} t/m³", markup=False)
     con.print("Criteria: " + ", ".join(doc["criteria"]), markup=False)
@@ -39,6 +40,6 @@ def render_limits(doc: dict) -> str:
                   _num(r["flooding"], 1), _num(r["deck_edge"], 1))
     con.print(t)
     for w in doc["warnings"]:
-        con.print(f"  ! {w}", markup=False)
+        con.print(f"  ! {printable(w)}", markup=False)
     con.print(CAUTION)
     return "\n".join(line.rstrip() for line in buf.getvalue().rstrip("\n").split("\n"))

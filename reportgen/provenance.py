@@ -6,7 +6,8 @@ content; DER) over the vessel file's bytes, written by ``reportgen approve`` as
 the given bytes, who signed and when. Whether the signer is entitled to approve is a question
 of trust, answered by reportgen.signing (``verify --vessel-trust``).
 
-Imports nothing from reportgen.report or reportgen.signing, so both can import it.
+Imports nothing from reportgen.report or reportgen.signing, so both can import it (the
+versions of the rendering stack are reportgen.report.stack).
 """
 
 from __future__ import annotations
@@ -15,11 +16,7 @@ import asyncio
 import datetime as dt
 import hashlib
 import logging
-import re
 from dataclasses import dataclass
-from functools import lru_cache
-from pathlib import Path
-from urllib.parse import unquote, urlparse
 
 from cryptography import x509
 from cryptography.x509.oid import NameOID
@@ -117,32 +114,3 @@ def read_approval(p7s: bytes, vessel_bytes: bytes) -> Approval:
         intact, problem = False, "the approval states no signing time (RFC 5652 11.3)"
     return Approval(intact, _name(cert, NameOID.COMMON_NAME),
                     _name(cert, NameOID.ORGANIZATION_NAME), when, cert, others, problem)
-
-
-@lru_cache(maxsize=1)
-def rendering_stack() -> dict[str, str]:
-    """Versions of everything that decides the bytes of a page: reportgen, WeasyPrint, pydyf,
-    matplotlib, fontTools, Pango, whether HarfBuzz subsets the fonts, and the font files."""
-    from importlib.metadata import version
-
-    from weasyprint.text.ffi import harfbuzz_subset, pango
-
-    from reportgen import __version__
-
-    stack = {"reportgen": __version__}
-    stack.update({name: version(name) for name in ("weasyprint", "pydyf", "matplotlib",
-                                                    "fonttools")})
-    stack["pango"] = str(pango.pango_version())
-    stack["harfbuzz_subset"] = "yes" if harfbuzz_subset is not None else "no"
-    stack["fonts"] = _font_fingerprint()
-    return stack
-
-
-def _font_fingerprint() -> str:
-    """The first 16 hex digits of the SHA-256 of the sheet's font files, in order."""
-    from reportgen.report import fonts  # here: the report package imports this module
-
-    digest = hashlib.sha256()
-    for url in sorted(re.findall(r'url\("([^"]+)"\)', fonts.font_face_css())):
-        digest.update(Path(unquote(urlparse(url).path)).read_bytes())
-    return "sha256:" + digest.hexdigest()[:16]

@@ -184,6 +184,7 @@ class Weather(Section):
     theta_lw2: OptF  # deg, first intercept of lw2 with GZ
     theta_start: OptF  # deg, θ0 − θ1: start of area a
     areas_missing: list[str] = Field(default_factory=list)  # no_theta0 | no_lw2 | no_roll
+    k_length: OptF = None  # m, L of k's table 2.3.4-3: the greater of Lpp and Lwl
 
 
 class LoadLine(Section):

@@ -53,8 +53,7 @@ def check_point(case: Case, x_m: float, y_m: float, z_m: float) -> None:
     """InputError when the point is outside the ship (SPEC.md "Conventions")."""
     v = case.vessel
     p = v.particulars
-    top = max(z for _x, z in v.windage.profile)
-    bad = outside_the_ship(p.length_bp, p.breadth, top, x_m, y_m, z_m)
+    bad = outside_the_ship(p.length_bp, p.breadth, v.windage.top_m, x_m, y_m, z_m)
     if not all(math.isfinite(v) for v in (x_m, y_m, z_m)):
         bad.append("the point must be finite numbers")
     if bad:

@@ -3,22 +3,22 @@
 from __future__ import annotations
 
 import io
-import re
 from typing import Any
 
 from rich import box
 from rich.console import Console
 from rich.table import Table
 
+from reportgen.printable import printable
+
 WIDTH = 200
-_CONTROL = re.compile(r"[\x00-\x1f\x7f-\x9f]")
 
 
 def _t(value: Any) -> str:
     """A text from the file, control characters shown escaped (never acted on)."""
     if value is None:
         return "—"
-    return _CONTROL.sub(lambda m: f"\\x{ord(m.group()):02x}", str(value))
+    return printable(value)
 
 
 def _n(value: float | None, digits: int) -> str:

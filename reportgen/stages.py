@@ -116,7 +116,8 @@ def at_kg(up: Upright, kg_fluid_m: float) -> AtKG:
                         f"the ship is unstable upright and lolls to {abs(heel):.1f}°.")
     if flooding < 30.0:
         warnings.append(f"The angle of flooding θf = {flooding:.1f}° is below 30°: the areas to "
-                        f"40° stop at θf, and GZ beyond θf is "
+                        f"40° stop at θf (the area from 30° is then nil and fails), the area to "
+                        f"30° is taken to 30° as 2.2.1 writes it, and GZ beyond θf is "
                         f"{'credited' if include else 'not credited'}.")
     wx = c.weather
     if wx is not None:

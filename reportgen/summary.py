@@ -11,6 +11,7 @@ from rich import box
 from rich.console import Console
 from rich.table import Table
 
+from reportgen.printable import printable as _p
 from reportgen.results import Results
 
 WIDTH = 200  # characters: lines are not wrapped, the table is as wide as its content
@@ -37,7 +38,7 @@ def _criteria_table(r: Results) -> Table:
     for c in r.criteria:
         dg = DIGITS.get(c.unit, 3)
         sign = "≤ " if c.limit == "at_most" else "≥ "
-        t.add_row(c.title, c.reference, sign + _num(c.required, dg), _num(c.attained, dg),
+        t.add_row(_p(c.title), _p(c.reference), sign + _num(c.required, dg), _num(c.attained, dg),
                   _num(c.margin, dg), c.unit, "PASS" if c.passed else "FAIL")
     return t
 
@@ -85,7 +86,7 @@ def _observed_lines(r: Results) -> list[str]:
 def margin_text(r: Results) -> str:
     """The KG margin in words (results `limits`, SPEC.md "Limits")."""
     m = r.limits
-    named = f"{m.governing_title} ({m.governing_reference})"
+    named = f"{_p(m.governing_title)} ({_p(m.governing_reference)})"
     if m.kg_max is None:
         return f"KG margin: no KG of 0 m or more meets every criterion; {named} fails at KG 0."
     if m.governing is None:
@@ -104,10 +105,10 @@ def render_summary(r: Results) -> str:
     con = Console(file=buf, width=WIDTH, color_system=None, highlight=False, emoji=False,
                   soft_wrap=True)
     cond, ld, hy, an = r.condition, r.loading, r.hydrostatics, r.angles
-    con.print(f"{r.vessel.name} ({r.vessel.identifier})", markup=False)
-    con.print(f"Condition: {cond.title}", markup=False)
+    con.print(f"{_p(r.vessel.name)} ({_p(r.vessel.identifier)})", markup=False)
+    con.print(f"Condition: {_p(cond.title)}", markup=False)
     if cond.voyage:
-        con.print(f"Voyage: {cond.voyage}", markup=False)
+        con.print(f"Voyage: {_p(cond.voyage)}", markup=False)
     con.print(f"Date: {cond.date or 'not stated'}")
     con.print(f"Method: {METHOD_WORDS[r.assumptions.method]}")
     verdict = ("PASS: every criterion is met" if r.passed else
@@ -116,18 +117,18 @@ def render_summary(r: Results) -> str:
     if r.limits is not None:
         con.print(margin_text(r), markup=False)
     for w in r.warnings:
-        con.print(f"  ! {w}", markup=False)
+        con.print(f"  ! {_p(w)}", markup=False)
     con.print("\nLoading")
     con.print(f"  Lightship {ld.lightship:.1f} t   Deadweight {ld.deadweight:.1f} t   "
               f"Displacement {ld.displacement:.1f} t")
     con.print(f"  LCG {ld.lcg:.3f} m   VCG {ld.vcg:.3f} m   TCG {ld.tcg:.3f} m   "
               f"FSM {ld.fsm:.1f} t·m (free surface: {cond.free_surface})")
     for t in r.assumptions.free_surface_tanks:
-        con.print(f"    {t.id}: {t.fsm:.1f} t·m, {FS_WORDS.get(t.reason, t.reason)}",
+        con.print(f"    {_p(t.id)}: {t.fsm:.1f} t·m, {FS_WORDS.get(t.reason, t.reason)}",
                   markup=False)
     for ln in r.loading.lines:
         if ln.kind == "allowance":
-            con.print(f"  + {ln.name}: {ln.mass:.1f} t at LCG {ln.lcg:.3f} m, VCG {ln.vcg:.3f} m",
+            con.print(f"  + {_p(ln.name)}: {ln.mass:.1f} t at LCG {ln.lcg:.3f} m, VCG {ln.vcg:.3f} m",
                       markup=False)
     con.print("\nFloating position")
     con.print(f"  Draught aft {hy.draft_aft:.3f} m   midships {hy.draft_mean:.3f} m   "
@@ -150,7 +151,7 @@ def render_summary(r: Results) -> str:
         con.print(line, markup=False)
     con.print(f"\nAngles (towards {an.side})")
     flood = f"{an.flooding:.1f}° ({an.flooding_source}"
-    flood += f", {an.flooding_opening})" if an.flooding_opening else ")"
+    flood += f", {_p(an.flooding_opening)})" if an.flooding_opening else ")"
     vanish = "beyond the tables" if an.vanishing is None else f"{an.vanishing:.1f}°"
     con.print(f"  Deck edge {an.deck_edge:.1f}° ({an.deck_edge_source})   Flooding {flood}",
               markup=False)

@@ -174,7 +174,7 @@ def _roll_hull(case: Case, fl: Floating, loading: Loading) -> tuple[rolling.Hull
         rho = case.condition.condition.water_density
         cb = rolling.block_coefficient(loading.totals.displacement, rho, lwl, p.breadth, d)
         source = "computed"
-    return rolling.Hull(p.breadth, d, lwl, cb, p.bilge, p.bilge_keel_area), source
+    return rolling.Hull(p.breadth, d, lwl, cb, p.bilge, p.bilge_keel_area, p.length_bp), source
 
 
 def _load_line(case: Case, vd: VesselData, fl: Floating) -> tuple[LoadLine | None, list[str]]:
@@ -284,7 +284,7 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
         pax, pax_lines = stage.passenger_lines(case)
         loading = stage.with_lines(loading, timber_lines + pax_lines)
     p = v.particulars
-    plausible.check_positions(loading.lines, p.length_bp, p.breadth, vd.profile.bounds[3])
+    plausible.check_positions(loading.lines, p.length_bp, p.breadth, v.windage.top_m)
     fl, kn, heel_max, finder, kn_warnings = _float(method, case, vd, loading)
     plausible.check_draughts(fl.draughts, p.depth)
     if stage is not None:
@@ -309,7 +309,7 @@ def upright(case: Case, vd: VesselData, method: str | None = None) -> Upright:
         windy = [it for it in c.items if it.wind_area]
         bad = plausible.item_windage_problems(
             [(it.name, it.wind_area, it.wind_z) for it in windy], fl.draughts.mid,
-            p.length_bp, vd.profile.bounds[3])
+            p.length_bp, v.windage.top_m)
         if bad:
             raise InputError("; ".join(bad))
         items = [(it.wind_area, it.wind_z) for it in windy]

@@ -13,9 +13,9 @@ from reportgen.signing import verify, verify_document
 
 
 def _other_stack(monkeypatch) -> None:
-    from reportgen import provenance
+    from reportgen.report import stack
 
-    real = provenance.rendering_stack()
+    real = stack.rendering_stack()
     monkeypatch.setattr(verify, "rendering_stack", lambda: {**real, "weasyprint": "0.0"})
 
 

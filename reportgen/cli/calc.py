@@ -10,6 +10,7 @@ import click
 
 from reportgen.cli.group import EXIT_BAD_INPUT, main, names_a_folder, progress
 from reportgen.errors import InputError
+from reportgen.printable import printable_lines
 
 
 def _worst(codes: list[int]) -> int:
@@ -41,7 +42,7 @@ def check(conditions: tuple[Path, ...], as_json: bool, compare: bool) -> None:
         try:
             results = evaluate_compared(path) if compare else evaluate_path(path)
         except InputError as exc:
-            click.echo(f"reportgen: {exc}", err=True)
+            click.echo(f"reportgen: {printable_lines(exc)}", err=True)
             codes.append(EXIT_BAD_INPUT)
             continue
         codes.append(0 if results.passed else 1)
@@ -106,7 +107,7 @@ def sheet(conditions: tuple[Path, ...], output: str, force: bool) -> None:
                 results = evaluate(case)
                 write_sheet(case, results, target, force=force)
             except InputError as exc:
-                click.echo(f"reportgen: {exc}", err=True)
+                click.echo(f"reportgen: {printable_lines(exc)}", err=True)
                 codes.append(EXIT_BAD_INPUT)
                 advance()
                 continue

@@ -18,6 +18,7 @@ import click
 
 from reportgen import __version__
 from reportgen.errors import InputError
+from reportgen.printable import printable_lines
 
 EXIT_BAD_INPUT = 2
 
@@ -80,7 +81,7 @@ class _Group(click.Group):
             with command_scope():  # outputs never replace this command's inputs
                 return super().invoke(ctx)
         except InputError as exc:
-            click.echo(f"reportgen: {exc}", err=True)
+            click.echo(f"reportgen: {printable_lines(exc)}", err=True)
             ctx.exit(EXIT_BAD_INPUT)
         except KeyboardInterrupt:
             click.echo("reportgen: interrupted; nothing was written", err=True)

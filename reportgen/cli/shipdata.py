@@ -13,6 +13,7 @@ import click
 
 from reportgen.cli.group import OutputFile, main, progress
 from reportgen.errors import InputError
+from reportgen.printable import printable_lines
 
 MESH_TYPES = {".stl": "stl", ".obj": "obj"}
 _GENERATED = ("# Hull offsets made by", "# (SHA-256 ", "# the offsets (closed", "# warning: ")
@@ -104,7 +105,7 @@ def hull_from_mesh(mesh: Path, output: Path, stations: int | None, scale: float,
         text = _with_hull(head_text, text, head, output)
     write_atomic(output, text.encode("utf-8"), force=force)
     for w in made.warnings:
-        click.echo(f"reportgen: warning: {w}", err=True)
+        click.echo(f"reportgen: warning: {printable_lines(w)}", err=True)
     click.echo(f"{output}: {len(made.stations)} stations from x {x0:.3f} to {x1:.3f} m; breadth "
                f"{2 * y1:.3f} m, z {z0:.3f} to {z1:.3f} m; mesh volume "
                f"{made.mesh_volume_m3:.3f} m³, the offsets {made.offsets_volume_m3:.3f} m³",

@@ -6,6 +6,7 @@ only (never on a pipe, never with NO_COLOR set).
 
 from __future__ import annotations
 
+import functools
 import json
 import os
 import sys
@@ -20,6 +21,21 @@ from reportgen.errors import InputError
 
 EXIT_CODES = """\b
 Exit status: 0 done, 2 bad input (a clear message on stderr, nothing written)."""
+
+
+def _escaped(func):
+    """The command with its bad-input message printed with control characters escaped (SPEC
+    "Verification", point 7: a file name or a text from a hostile file)."""
+    @functools.wraps(func)
+    def command(*args, **kwargs):
+        from reportgen.signing.identity import printable
+
+        try:
+            return func(*args, **kwargs)
+        except InputError as exc:
+            raise InputError(printable(exc)) from None
+
+    return command
 
 
 def _bar_wanted() -> bool:
@@ -117,6 +133,7 @@ integrity checks.
 @click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
               help="The signed PDF to write (a new file).")
 @click.option("--force", is_flag=True, help="Replace an existing output file.")
+@_escaped
 def sign(sheet_pdf: Path, role: str, key_path: Path | None, cert_path: Path | None,
          p12_path: Path | None, passphrase_file: Path | None, reason: str | None,
          location: str | None, output: Path, force: bool) -> None:
@@ -132,18 +149,25 @@ def sign(sheet_pdf: Path, role: str, key_path: Path | None, cert_path: Path | No
     click.echo(f"{output}: signed as {role} by {printable(done['signer'])}", err=True)
 
 
-def _expand(paths: tuple[Path, ...]) -> list[Path]:
+def _expand(paths: tuple[Path, ...]) -> tuple[list[Path], list[dict]]:
+    """The files to verify (a folder: its PDF files) and the folders without any (each one
+    bad input: a mistyped folder must not pass unnoticed beside good files)."""
     files: list[Path] = []
+    empty: list[dict] = []
     for path in paths:
         if path.is_dir():
             found = sorted(p for p in path.iterdir() if p.suffix.lower() == ".pdf"
                            and p.is_file())
             if not found:
-                click.echo(f"reportgen: {path}: no PDF files in this folder", err=True)
+                from reportgen.signing.identity import printable
+
+                message = printable(f"{path}: no PDF files in this folder")
+                click.echo(f"reportgen: {message}", err=True)
+                empty.append({"file": str(path), "error": message})
             files.extend(found)
         else:
             files.append(path)
-    return files
+    return files, empty
 
 
 @main.command(epilog="""\b
@@ -188,9 +212,8 @@ def verify(files: tuple[Path, ...], trust: tuple[Path, ...], vessel: Path | None
     vessel_store = load_trust(vessel_trust) if vessel_trust else None
     if vessel is not None:
         read_input(vessel, "approved vessel data file")  # a bad --vessel is bad input, once
-    paths = _expand(files)
+    paths, unreadable = _expand(files)
     reports: list[dict] = []
-    unreadable: list[dict] = []
     with _progress("verifying", total=len(paths)) as advance:
         for path in paths:
             try:
@@ -198,24 +221,24 @@ def verify(files: tuple[Path, ...], trust: tuple[Path, ...], vessel: Path | None
                     path, store, vessel=vessel, vessel_trust=vessel_store or (),
                     accept_other_version=accept_other_version))
             except InputError as exc:
-                if len(paths) == 1:
-                    raise
+                if len(paths) == 1 and not unreadable:  # file names and parser texts
+                    raise InputError(printable(exc)) from None  # are escaped (point 7)
                 click.echo(f"reportgen: {printable(exc)}", err=True)
                 unreadable.append({"file": str(path), "error": printable(exc)})
             advance()
     status = 2 if unreadable or not paths else (0 if all(r["ok"] for r in reports) else 1)
     if as_json:
-        if len(paths) == 1 and reports:
+        if len(paths) == 1 and reports and not unreadable:
             document: object = reports[0]
         else:
             document = {"format": "reportgen/verify-batch-1", "files": reports,
                         "unreadable": unreadable,
-                        "summary": {"files": len(paths),
+                        "summary": {"files": len(reports) + len(unreadable),
                                     "verified": sum(1 for r in reports if r["ok"]),
                                     "not_verified": sum(1 for r in reports if not r["ok"]),
                                     "unreadable": len(unreadable)}}
         click.echo(json.dumps(document, indent=2, ensure_ascii=True))
-    elif len(paths) == 1 and reports:
+    elif len(paths) == 1 and reports and not unreadable:
         color = sys.stdout.isatty() and "NO_COLOR" not in os.environ
         click.echo(render_report(reports[0], color=color), nl=False)
     else:
@@ -235,6 +258,7 @@ Example:
 @click.option("-o", "--output", "output", type=click.Path(path_type=Path),
               help="The approval to write (default: VESSEL.yaml.p7s beside the file).")
 @click.option("--force", is_flag=True, help="Replace an existing approval.")
+@_escaped
 def approve(vessel_file: Path, key_path: Path | None, cert_path: Path | None,
             p12_path: Path | None, passphrase_file: Path | None, output: Path | None,
             force: bool) -> None:
@@ -261,6 +285,7 @@ Examples:
               help="Folder to write the condition and vessel files (and approval) into "
                    "(a limits document: its vessel file and approval).")
 @click.option("--force", is_flag=True, help="Replace existing files.")
+@_escaped
 def extract(sheet_pdf: Path, out_dir: Path, force: bool) -> None:
     """Write a document's embedded input files, ready to run again."""
     from reportgen.signing.approve import extract_and_hint

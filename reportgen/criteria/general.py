@@ -22,7 +22,9 @@ GM0_M = 0.15  # 2.2.4
 
 
 def area_0_30(s: State) -> Check:
-    """2.2.1: area under the GZ curve up to 30° ≥ 0.055 m·rad."""
+    """2.2.1: area under the GZ curve up to 30° ≥ 0.055 m·rad, to 30° whatever θf, as 2.2.1
+    and SPEC.md write it (θf bounds the areas to 40° only). With θf below 30° the area from
+    30° to θf is nil and area_30_40 fails, so such a ship never passes 2.2.1."""
     return at_least("area_0_30", "Area under GZ, 0° to 30°", REF_2_2_1, AREA_0_30_MRAD,
                     area_mrad(s.curve, 0.0, 30.0), "m·rad", SET)
 

@@ -58,14 +58,14 @@ def factor_x2(cb: float) -> float:
     return _table(_X2, cb)
 
 
-def factor_k(bilge: str, bilge_keel_area_m2: float, lwl_m: float, breadth_m: float) -> float:
+def factor_k(bilge: str, bilge_keel_area_m2: float, length_m: float, breadth_m: float) -> float:
     """k, IS Code 2008 2.3.4: 1.0 round bilge without bilge or bar keels, 0.7 sharp bilge,
-    otherwise table 2.3.4-3 by Ak·100/(L·B), L the waterline length (m)."""
+    otherwise table 2.3.4-3 by Ak·100/(L·B), L in m (which length: Hull.k_length_m)."""
     if bilge == "sharp":
         return K_SHARP_BILGE
     if bilge_keel_area_m2 <= 0.0:
         return K_NO_KEELS
-    return _table(_K, bilge_keel_area_m2 * 100.0 / (lwl_m * breadth_m))
+    return _table(_K, bilge_keel_area_m2 * 100.0 / (length_m * breadth_m))
 
 
 def factor_s(roll_period_s: float) -> float:
@@ -102,7 +102,8 @@ def block_coefficient(displacement_t: float, density_t_m3: float, lwl_m: float,
 @dataclass(frozen=True)
 class Hull:
     """What θ1 reads of the ship, KG-independent: moulded breadth B, mean moulded draught d,
-    waterline length L (m), block coefficient CB, bilge kind and bilge keel area Ak (m²)."""
+    waterline length Lwl (m), block coefficient CB, bilge kind and bilge keel area Ak (m²),
+    and the length between perpendiculars (m)."""
 
     breadth_m: float
     draft_m: float
@@ -110,6 +111,15 @@ class Hull:
     cb: float
     bilge: str
     bilge_keel_area_m2: float
+    length_bp_m: float
+
+    @property
+    def k_length_m(self) -> float:
+        """L of table 2.3.4-3 (m): the greater of Lpp and Lwl. The symbols listed under 2.3.4
+        define only Lwl, the table writes L (the ship's length, as the Code's definitions
+        give it: recalled from memory); k falls as Ak·100/(L·B) rises, so the greater length
+        gives the greater θ1, the conservative reading (stated on the sheet)."""
+        return max(self.length_bp_m, self.lwl_m)
 
     @cached_property
     def factors(self) -> tuple[float, float, float, float, float]:
@@ -118,7 +128,7 @@ class Hull:
         b_over_d = self.breadth_m / self.draft_m
         return (b_over_d, coefficient_c(self.breadth_m, self.draft_m, self.lwl_m),
                 factor_x1(b_over_d), factor_x2(self.cb),
-                factor_k(self.bilge, self.bilge_keel_area_m2, self.lwl_m, self.breadth_m))
+                factor_k(self.bilge, self.bilge_keel_area_m2, self.k_length_m, self.breadth_m))
 
 
 @dataclass(frozen=True)
@@ -140,6 +150,7 @@ class Roll:
     cb: float
     kg_over_d_minus_1: float
     outside: tuple[str, ...]  # where the tables' range is left
+    k_length: float = 0.0  # m, L of table 2.3.4-3 (Hull.k_length_m)
 
 
 def roll(h: Hull, kg_fluid_m: float, gm_fluid_m: float, given_deg: float | None) -> Roll:
@@ -165,4 +176,4 @@ def roll(h: Hull, kg_fluid_m: float, gm_fluid_m: float, given_deg: float | None)
                        f"{ROLL_PERIOD_LIMIT_S:g} s")
     theta1 = given_deg if given_deg is not None else formula
     return Roll(theta1, formula, period, s, c, r, og, x1, x2, k, b_over_d, h.cb, kg_d,
-                tuple(outside))
+                tuple(outside), h.k_length_m)

@@ -70,6 +70,12 @@ class Windage(Model):
             raise ValueError("profile must be a simple closed polygon with positive area")
         return self
 
+    @property
+    def top_m(self) -> float:
+        """The top of the windage profile above the base (m): SPEC.md "Conventions" bounds
+        every centre of mass by it."""
+        return max(z for _x, z in self.profile)
+
 
 class Calculation(Model):
     method: Literal["tables", "hull"] = "tables"  # read the tables, or compute on the offsets
@@ -174,7 +180,7 @@ class Vessel(Model):
                                    self.grain) + hull_problems(self.particulars, self.hull))
         if problems:
             raise ValueError("implausible tables: " + "; ".join(problems))
-        top = max(z for _, z in self.windage.profile)
+        top = self.windage.top_m
         problems = (particulars_problems(self.particulars, self.hydrostatics,
                                          self.windage.profile)
                     + curve_problems(self.particulars, {"deck_edge": self.deck_edge,

@@ -22,7 +22,7 @@ MATPLOTLIB_FAMILY = TYPEFACE  # the name matplotlib writes into SVG text styles
 LAYOUT_CHARACTERS = frozenset("\n\r\t")  # laid out as white space, drawn with no glyph
 
 
-def _font_paths() -> dict[str, Path]:
+def font_paths() -> dict[str, Path]:
     folder = Path(matplotlib.get_data_path()) / "fonts" / "ttf"
     return {weight: folder / name for weight, name in _FILES.items()}
 
@@ -32,7 +32,7 @@ def font_face_css() -> str:
     return "".join(
         f'@font-face {{ font-family: "{FAMILY}"; font-weight: {weight}; '
         f'src: url("{path.as_uri()}"); }}\n'
-        for weight, path in _font_paths().items())
+        for weight, path in font_paths().items())
 
 
 @lru_cache(maxsize=1)
@@ -40,7 +40,7 @@ def printable_characters() -> frozenset[str]:
     """The characters that both weights of FAMILY have a glyph for (their Unicode cmaps)."""
     from fontTools.ttLib import TTFont  # loaded with WeasyPrint, which subsets with it
 
-    cmaps = [set(TTFont(path, lazy=True).getBestCmap()) for path in _font_paths().values()]
+    cmaps = [set(TTFont(path, lazy=True).getBestCmap()) for path in font_paths().values()]
     return frozenset(map(chr, set.intersection(*cmaps))) | LAYOUT_CHARACTERS
 
 

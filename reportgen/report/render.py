@@ -6,7 +6,7 @@ and the results document as PDF/A-3 associated files (ISO 19005-3:2012, 6.8), an
 three empty signature fields (ISO 32000-1:2008, 12.7.4.5) placed over the boxes of
 the signature block, for pyHanko to fill by name. The vessel data's approval
 (VESSEL.yaml.p7s, reportgen.provenance), when the case carries one, is embedded too, and
-the document information records the versions of the rendering stack (``rendering_stack``),
+the document information records the versions of the rendering stack (reportgen.report.stack),
 so that ``verify`` can tell a different stack from a different page.
 
 Lengths in this module: CSS px from WeasyPrint's layout, PDF points in the file
@@ -37,7 +37,7 @@ from reportgen.assemble import attachment_names
 from reportgen.docinfo import RESULTS_NAME, ROLES, document_number
 from reportgen.errors import InputError
 from reportgen.files import check_output, write_atomic
-from reportgen.report import fonts
+from reportgen.report import fonts, stack
 from reportgen.report.engine import collector_paused, lay_out
 from reportgen.report.figure_heeling import heeling_figure_svg
 from reportgen.report.figures import gz_figure_svg, weather_figure_svg
@@ -312,7 +312,7 @@ def _deduplicate_associated_files(pdf: pydyf.PDF) -> None:
 def _finisher(document: weasyprint.Document, pdf: pydyf.PDF) -> None:
     _deduplicate_associated_files(pdf)
     _add_signature_fields(document, pdf)
-    pdf.info[STACK_KEY] = pydyf.String(json.dumps(provenance.rendering_stack(),
+    pdf.info[STACK_KEY] = pydyf.String(json.dumps(stack.rendering_stack(),
                                                    sort_keys=True))
 
 

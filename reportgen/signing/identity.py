@@ -21,6 +21,7 @@ from cryptography.x509.oid import NameOID
 
 from reportgen.errors import InputError
 from reportgen.files import check_output, make_folder, read_input, write_atomic
+from reportgen.printable import printable  # noqa: F401  (signing's modules name it here)
 
 DEMO_ORGANISATION = "reportgen demo identity - not for real use"
 DEMO_VALIDITY = dt.timedelta(days=365)
@@ -215,27 +216,70 @@ def keygen(name: str, out_dir: Path, passphrase: bytes | None = None,
     return paths
 
 
-def printable(text: object) -> str:
-    """``text`` with every control character (C0, DEL, C1) and the Unicode line and paragraph
-    separators shown as an escape, so that a name cannot rewrite a terminal or a report
-    (SPEC "Verification", point 7)."""
-    out = []
-    for ch in str(text):
-        code = ord(ch)
-        if code < 32 or 127 <= code < 160 or code in (0x2028, 0x2029) or \
-                unicodedata.category(ch) in ("Cf", "Cs", "Co"):
-            out.append(f"\\x{code:02x}" if code < 256 else f"\\u{code:04x}")
-        else:
-            out.append(ch)
-    return "".join(out)
+# Letters of these scripts look alike (Latin "A", Greek "Α", Cyrillic "А"): a name mixing them
+# is a mixed-script confusable (Unicode Technical Standard #39, 5.1 and 5.2).
+LOOKALIKE_SCRIPTS = ("LATIN", "GREEK", "CYRILLIC")
 
 
-def _normal(name: str) -> str:
+def _plain(name: str) -> str:
+    """The name in canonical composition (NFC, Unicode Standard Annex #15: the same text,
+    whatever the byte form), without leading, trailing or repeated ASCII spaces."""
+    return " ".join(part for part in unicodedata.normalize("NFC", name).split(" ") if part)
+
+
+def _unusual(name: str) -> list[str]:
+    """The characters that have no place in a person's name: control, format, private-use,
+    unassigned and surrogate characters (category C) and every separator but the ASCII space
+    (category Z: no-break, en, ideographic space, line and paragraph separators)."""
+    return sorted({f"U+{ord(ch):04X}" for ch in name
+                   if ch != " " and unicodedata.category(ch)[0] in "CZ"})
+
+
+def _scripts(name: str) -> list[str]:
+    found = {unicodedata.name(ch, "").split(" ")[0] for ch in name if ch.isalpha()}
+    return sorted(found & set(LOOKALIKE_SCRIPTS))
+
+
+def name_problem(certificate_name: str, sheet_name: str) -> str | None:
+    """Why a certificate's name is not the name the sheet gives for a role; None when it is.
+
+    The rule is the conservative one (SPEC "Verification", point 3): the two names are the
+    same text, after canonical normalisation (NFC) and the folding of ASCII spaces only. A
+    difference in letter case, a compatibility look-alike (full-width letters, ligatures:
+    NFKC would fold them), another script's look-alike letter, an invisible or control
+    character or another kind of space is a different name; and a name that mixes Latin,
+    Greek or Cyrillic letters, or holds such characters, matches nothing, even itself (it
+    cannot be told from the name it imitates when printed). "A. Other" does not match
+    "B. Other" nor "A. Other, master".
+    """
+    for whose, name in (("certificate", certificate_name), ("sheet", sheet_name)):
+        odd = _unusual(name)
+        if odd:
+            return (f"the {whose}'s name holds invisible, control or unusual space "
+                    f"characters ({', '.join(odd)})")
+        scripts = _scripts(name)
+        if len(scripts) > 1:
+            return (f"the {whose}'s name mixes {' and '.join(s.lower() for s in scripts)} "
+                    f"letters, which look alike (Unicode Technical Standard #39)")
+    mine, theirs = _plain(certificate_name), _plain(sheet_name)
+    if not theirs:
+        return "the sheet's name is empty"
+    if mine == theirs:
+        return None
+    if mine.casefold() == theirs.casefold():
+        return "the names differ in letter case"
+    if unicodedata.normalize("NFKC", mine) == unicodedata.normalize("NFKC", theirs):
+        return "the names differ in look-alike characters (Unicode compatibility forms)"
+    return "the names differ"
+
+
+def person_key(name: str) -> str:
+    """A name folded as far as it goes (NFKC, case, every space): two certificates whose names
+    give the same key are taken for the same person (the conservative direction here)."""
     return " ".join(unicodedata.normalize("NFKC", name).casefold().split())
 
 
 def names_match(certificate_name: str, sheet_name: str) -> bool:
-    """Whether a certificate's name is the name the sheet gives for a role: equal after
-    Unicode compatibility normalisation (NFKC), case folding and folding of white space.
-    Nothing looser: "A. Other" does not match "B. Other" nor "A. Other, master"."""
-    return bool(sheet_name.strip()) and _normal(certificate_name) == _normal(sheet_name)
+    """Whether a certificate's name is the name the sheet gives for a role (``name_problem``
+    finds nothing)."""
+    return name_problem(certificate_name, sheet_name) is None

@@ -16,7 +16,7 @@ from functools import lru_cache
 from importlib import import_module
 from typing import Any
 
-from reportgen.docinfo import RESULTS_NAME, TITLE_PREFIX
+from reportgen.docinfo import RESULTS_NAME, ROLES, TITLE_PREFIX
 from reportgen.errors import InputError
 from reportgen.provenance import approval_name, vessel_fingerprint
 from reportgen.results import RESULTS_FORMAT
@@ -126,8 +126,17 @@ def _sheet_certified(data: Mapping[str, Any], inputs: Inputs | None) -> dict:
         "date": condition.get("date"),
         "passed": data.get("passed") is True,
         "failing_criteria": failing,
-        "signatories": condition.get("signatories") or {},
+        "signatories": _names(condition.get("signatories")),
     }
+
+
+def _names(signatories: Any) -> dict[str, str]:
+    """The names the results give for the roles (ROLE_by: text); anything else in a forged
+    document is left out here and found by the recomputation."""
+    if not isinstance(signatories, dict):
+        return {}
+    return {f"{role}_by": name if isinstance(name := signatories.get(f"{role}_by"), str)
+            else None for role in ROLES}
 
 
 SHEET = Kind("sheet", "calculation sheet", RESULTS_NAME, RESULTS_FORMAT,

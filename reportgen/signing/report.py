@@ -142,6 +142,8 @@ def render_report(report: dict, width: int = WIDTH, color: bool = False) -> str:
         console.print(Text("Problems", style="bold"))
         for problem in problems:
             console.print(Text("  - ") + _t(problem))
+    for note in report.get("notes") or []:
+        console.print(Text("Note: ", style="bold") + _t(note))
     console.print(Text("Result: ") + (Text("VERIFIED", style="bold green") if report.get("ok")
                                       else Text("NOT VERIFIED", style="bold red")))
     return out.getvalue()
@@ -156,6 +158,8 @@ def one_line(report: dict) -> str:
     line = f"{head}  {report.get('file')}  {what}"
     if not report.get("ok") and report.get("problems"):
         line += f"  [{report['problems'][0]}]"
+    elif report.get("notes"):
+        line += f"  [{report['notes'][0]}]"
     return printable(line)
 
 

@@ -102,9 +102,11 @@ def _sign_document(in_path: Path, out_path: Path, role: str, *, key_path: Path |
         raise InputError(f"{who.origin}: the certificate may not sign documents: "
                          f"{'; '.join(usage)}")
     named = (doc.kind.certified(doc.content, None).get("signatories") or {}).get(f"{role}_by")
-    if named and not ids.names_match(name, named):
+    why = ids.name_problem(name, named) if named else None
+    if why:
         raise InputError(f"{who.origin}: the certificate is issued to '{ids.printable(name)}' "
-                         f"but the {doc.kind.name} names '{ids.printable(named)}' for {role}")
+                         f"but the {doc.kind.name} names '{ids.printable(named)}' for {role}: "
+                         f"{why}")
 
     state = guarded_integrity(doc)
     if state["problems"]:

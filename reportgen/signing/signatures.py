@@ -4,7 +4,9 @@ SPEC "Verification", point 1: every signature is cryptographically intact and co
 whole revision; the revisions after the first (the rendered document) are exactly one per
 signature, in role order (prepared, checked, reviewed); each may do nothing but fill its own
 signature field with its signature and appearance; nothing follows the last signature (its
-byte range ends at the end of the file). The changes are judged by pyHanko's difference
+byte range ends at the end of the file); the first signature certifies the document with
+DocMDP permission 2 and no other certifies (ISO 32000-2 12.8.2.2: a viewer honours P = 1 by
+calling every later signature a breach, and allows one certification). The changes are judged by pyHanko's difference
 analysis with a policy stricter than its default: no document information or XMP metadata
 edits, no catalogue changes other than the form, no annotations, no other form fields.
 ISO 32000-2:2020 7.5.6 (incremental updates), 12.8.1 (byte ranges).
@@ -49,6 +51,9 @@ STRICT_POLICY = StandardDiffPolicy(
     form_rule=FormUpdatingRule(field_rules=[SigFieldModificationRule()],
                                ignored_acroform_keys=frozenset({"/Fields", "/SigFlags"})),
 )
+# The first signature certifies the document, allowing form filling and signing only
+# (ISO 32000-2 12.8.2.2.2, P = 2): what ``reportgen sign`` writes; no later one certifies.
+CERTIFICATION_PERMISSION = 2
 _ALLOWED = (ModificationLevel.NONE, ModificationLevel.LTA_UPDATES,
             ModificationLevel.FORM_FILLING)
 
@@ -65,6 +70,7 @@ class Signature:
     signing_time: dt.datetime | None = None  # /M of the signature dictionary, UTC
     byte_range_end: int | None = None
     coverage: str | None = None
+    docmdp: int | None = None  # the DocMDP permission when the signature certifies
     problems: list[str] = field(default_factory=list)
 
 
@@ -96,6 +102,19 @@ def _contents_problem(data: bytes, emb, len1: int, start2: int) -> str | None:
     return None
 
 
+def _docmdp(sig_object) -> int | None:
+    """The permission P of the signature's DocMDP transform (ISO 32000-2 12.8.1, table 255
+    /Reference; 12.8.2.2), None when it does not certify; -1 when it cannot be read."""
+    try:
+        for ref in sig_object.get("/Reference", ()):
+            ref = ref.get_object()
+            if ref.get("/TransformMethod") == "/DocMDP":
+                return int(ref["/TransformParams"].get_object().get("/P", 2))
+    except Exception:  # noqa: BLE001 - unreadable permissions are not those reportgen writes
+        return -1
+    return None
+
+
 def _one(emb, data: bytes) -> Signature:
     sig = Signature(field=str(emb.field_name))
     try:
@@ -115,6 +134,7 @@ def _one(emb, data: bytes) -> Signature:
         text = " ".join(str(exc).split())[:200]
         sig.problems.append(f"the signature cannot be validated ({type(exc).__name__}: {text})")
         return sig
+    sig.docmdp = _docmdp(emb.sig_object)
     sig.intact = bool(status.intact and status.valid) and not sig.problems
     sig.signing_time = _utc(status.signer_reported_dt)
     sig.coverage = status.coverage.name.lower() if status.coverage is not None else None
@@ -157,6 +177,14 @@ def change_problems(reader: PdfFileReader, sigs: list[Signature], file_size: int
             problems.append(f"signature {index + 1} is in the field '{sig.field}' where the "
                             f"next role is {expected or 'none'} (roles sign in the order "
                             f"{', '.join(ROLES)})")
+        if index == 0 and sig.docmdp != CERTIFICATION_PERMISSION:
+            problems.append(f"the first signature ({sig.field}) does not certify the document "
+                            f"with DocMDP permission {CERTIFICATION_PERMISSION} (form filling "
+                            f"and signing; ISO 32000-2 12.8.2.2) as reportgen signs it"
+                            + ("" if sig.docmdp is None else f": permission {sig.docmdp}"))
+        elif index > 0 and sig.docmdp is not None:
+            problems.append(f"the {sig.field} signature certifies the document again (ISO "
+                            f"32000-2 12.8.2.2: only the first signature certifies)")
         if sig.revision != index + 1:
             problems.append(f"the {sig.field} signature is not in revision {index + 1} of "
                             f"the file")

@@ -10,6 +10,8 @@
 - A signing certificate must allow signatures: key usage digitalSignature or nonRepudiation
   (RFC 5280 4.2.1.3; an absent extension restricts nothing), and an extended key usage, when
   present, must allow document signing or any purpose (RFC 5280 4.2.1.12, RFC 9336).
+- A certificate with a critical extension not understood here is rejected (RFC 5280 4.2);
+  pyhanko_certvalidator applies the rule on a path, ``signing_usage_problems`` to the signer.
 - Every certificate on the path must be valid at the signing time and at the time of
   verification. The second is the conservative reading: a PAdES B-B signature carries no
   trusted time, only the signer's own claim, so the certificate is validated at the current
@@ -82,8 +84,15 @@ def load_trust(paths: Iterable[Path]) -> TrustStore:
 
 
 def signing_usage_problems(cert: x509.Certificate) -> list[str]:
-    """Why the certificate's key may not sign documents (empty when it may)."""
-    problems = []
+    """Why the certificate's key may not sign documents (empty when it may); a critical
+    extension not understood here rejects the certificate (RFC 5280 4.2)."""
+    try:
+        problems = [f"its critical extension {ext.oid.dotted_string} is not understood "
+                    f"(RFC 5280 4.2: such a certificate is rejected)"
+                    for ext in cert.extensions
+                    if ext.critical and isinstance(ext.value, x509.UnrecognizedExtension)]
+    except ValueError as exc:
+        problems = [f"its extensions cannot be read: {exc}"]
     try:
         usage = cert.extensions.get_extension_for_oid(ExtensionOID.KEY_USAGE).value
         if not (usage.digital_signature or usage.content_commitment):
@@ -111,7 +120,8 @@ def validity_problem(cert: x509.Certificate, at: dt.datetime, when: str) -> str 
     """A message when ``at`` lies outside the certificate's validity (RFC 5280 4.1.2.5)."""
     start, end = cert.not_valid_before_utc, cert.not_valid_after_utc
     if at < start:
-        return (f"certificate of {common_name(cert)} not yet valid {when} "
+        return (f"certificate of {common_name(cert)} not yet valid "
+                f"{when if when == 'now' else 'at ' + when} "
                 f"(valid from {start:%Y-%m-%d %H:%M} UTC)")
     if at > end:
         return (f"certificate of {common_name(cert)} expired before {when} "
