@@ -8,6 +8,7 @@ import io
 
 from conftest import FAILING
 
+from reportgen import __version__
 from reportgen.signing import recompute as rc
 from reportgen.signing import verify, verify_document
 
@@ -69,7 +70,7 @@ def test_other_reportgen_version_is_not_compared_unless_accepted(demo, trust_bot
     monkeypatch.setattr(verify, "__version__", "9.9.9")
     report = verify_document(demo["two"], trust_both)
     assert not report["ok"]
-    assert report["pages"]["note"] == "rendered by version 0.1.0; pages not compared"
+    assert report["pages"]["note"] == f"rendered by version {__version__}; pages not compared"
     report = verify_document(demo["two"], trust_both, accept_other_version=True)
     assert report["ok"], report["problems"]
     assert report["pages"]["method"] is None
