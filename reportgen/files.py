@@ -9,7 +9,8 @@ Writing (``write_atomic``): the bytes go to a temporary file in the target folde
 to disk and then take the target's name. Without ``force`` that last step is a hard link,
 which the kernel refuses when the name exists (POSIX link(2), EEXIST): a file that appears
 while the work runs is never replaced. The temporary file is removed on every exit that can
-be caught: an error, Ctrl-C (SIGINT) and SIGTERM. Every failure names the path (InputError).
+be caught: an error, Ctrl-C (SIGINT), SIGTERM and SIGHUP. Every failure names the path
+(InputError).
 """
 
 from __future__ import annotations
@@ -50,14 +51,31 @@ def _not_regular(mode: int) -> str | None:
     return None if stat.S_ISREG(mode) else "it is not a regular file"
 
 
+def not_a_file(path: str | Path) -> str | None:
+    """Why ``path`` cannot be read as an input file ("not found", "it is a folder, not a
+    file", ...), without opening it; None for a regular file."""
+    try:
+        return _not_regular(os.stat(path).st_mode)
+    except FileNotFoundError:
+        return "not found"
+    except OSError as exc:
+        return exc.strerror or str(exc)
+
+
 def read_input(path: str | Path, what: str, max_bytes: int = MAX_INPUT_BYTES) -> bytes:
     """The bytes of a regular input file of at most ``max_bytes``.
 
     InputError naming the file and what it was meant to be when it is missing, unreadable,
-    not a regular file, or too large. The file is opened without blocking (O_NONBLOCK), so a
+    not a regular file, too large, or named by bytes that are not UTF-8 text. The file is opened without blocking (O_NONBLOCK), so a
     FIFO with no writer is refused at once instead of hanging.
     """
     path = Path(path)
+    try:  # the name goes into documents and results (UTF-8 text): a name of other bytes
+        path.name.encode("utf-8")  # would fail there, far from its cause
+    except UnicodeEncodeError:
+        shown = os.fsencode(path).decode("utf-8", "backslashreplace")
+        raise InputError(f"{shown}: the name of the {what} is not UTF-8 text; rename the "
+                         f"file") from None
     try:
         fd = os.open(path, os.O_RDONLY | os.O_NONBLOCK | getattr(os, "O_CLOEXEC", 0))
     except FileNotFoundError:
@@ -119,11 +137,14 @@ def _identity(info: os.stat_result) -> tuple[int, int, int]:
     return info.st_dev, info.st_ino, info.st_ctime_ns
 
 
-def check_output(path: str | Path, force: bool) -> None:
+def check_output(path: str | Path, force: bool, make_folders: bool = False) -> None:
     """InputError when ``path`` cannot be written: it is one of this command's inputs, it is a
     folder, it exists and ``force`` is not set (nothing is silently overwritten), or its folder
-    does not exist. Checked again at the moment of writing (``write_atomic``)."""
+    does not exist (with ``make_folders``: cannot be made, because a file stands where a
+    folder is needed). Checked again at the moment of writing (``write_atomic``)."""
     path = Path(path)
+    if make_folders:
+        _folders_can_be_made(_folder(path))
     if is_input(path):
         raise InputError(f"{path}: is one of the input files of this command; an output never "
                          f"replaces an input (choose another name)")
@@ -132,9 +153,23 @@ def check_output(path: str | Path, force: bool) -> None:
     if (path.exists() or path.is_symlink()) and not force:
         raise InputError(f"{path}: already exists; choose another name or add --force to "
                          f"replace it")
+    kind = not_a_file(path) if path.exists() else None
+    if kind is not None:  # /dev/stdout, a FIFO, a device: --force replaces files only
+        raise InputError(f"{path}: {kind.removeprefix('it ')}; reportgen replaces only a "
+                         f"regular file (give the name of a file to write)")
     folder = _folder(path)
-    if not folder.is_dir():
+    if not make_folders and not folder.is_dir():
         raise InputError(f"{path}: the folder {folder} does not exist")
+
+
+def _folders_can_be_made(folder: Path) -> None:
+    """InputError when some part of ``folder`` exists and is not a folder (make_folder would
+    fail there); a command that writes several files checks them all before the first."""
+    for part in (folder, *folder.parents):
+        if part.exists():
+            if not part.is_dir():
+                raise InputError(f"{part}: exists and is not a folder")
+            return
 
 
 def _folder(path: Path) -> Path:
@@ -148,32 +183,41 @@ def _umask() -> int:
 
 
 class Terminated(SystemExit):
-    """SIGTERM arrived while a temporary file existed (exit status 128 + 15)."""
+    """SIGTERM (or SIGHUP: the terminal closed) arrived while a temporary file existed; exit
+    status 128 + the signal's number, as a shell reports a process the signal ended."""
 
-    def __init__(self) -> None:
-        super().__init__(128 + signal.SIGTERM)
+    def __init__(self, signum: int = signal.SIGTERM) -> None:
+        super().__init__(128 + signum)
 
 
-def _raise_terminated(_signum: int, _frame: object) -> None:
-    raise Terminated()
+def _raise_terminated(signum: int, _frame: object) -> None:
+    raise Terminated(signum)
+
+
+# The signals that end the program by default and can be caught: SIGTERM (kill, timeout) and
+# SIGHUP (the terminal window closed, an ssh session dropped). Ctrl-C is KeyboardInterrupt.
+_CAUGHT = tuple(getattr(signal, name) for name in ("SIGTERM", "SIGHUP") if hasattr(signal, name))
 
 
 @contextlib.contextmanager
 def _cleanup_on_signals() -> Iterator[None]:
-    """While active (main thread only), SIGTERM raises ``Terminated`` so that ``finally`` and
-    ``except BaseException`` blocks run, as they do for Ctrl-C (KeyboardInterrupt)."""
+    """While active (main thread only), SIGTERM and SIGHUP raise ``Terminated`` so that
+    ``finally`` and ``except BaseException`` blocks run, as they do for Ctrl-C
+    (KeyboardInterrupt). A signal somebody else handles is left to them."""
     if threading.current_thread() is not threading.main_thread():
         yield
         return
-    before = signal.getsignal(signal.SIGTERM)
-    if before not in (signal.SIG_DFL, None):  # somebody else's handler: leave it in charge
-        yield
-        return
-    signal.signal(signal.SIGTERM, _raise_terminated)
+    before = {}
+    for signum in _CAUGHT:
+        handler = signal.getsignal(signum)
+        if handler in (signal.SIG_DFL, None):
+            before[signum] = handler
+            signal.signal(signum, _raise_terminated)
     try:
         yield
     finally:
-        signal.signal(signal.SIGTERM, before)
+        for signum, handler in before.items():
+            signal.signal(signum, handler if handler is not None else signal.SIG_DFL)
 
 
 def _write_error(path: Path, exc: OSError) -> InputError:

@@ -23,12 +23,20 @@ def text_value(value: str) -> str:
 
 
 def number(value: float, decimals: int | None = None) -> str:
-    """A number as YAML: fixed decimals, or the shortest text that reads back exactly."""
+    """A number as YAML: fixed decimals, or the shortest text that reads back exactly.
+
+    YAML 1.1 (the version PyYAML reads) takes an exponent form for a number only with a
+    decimal point in the mantissa and a sign in the exponent (yaml.org/type/float.html):
+    Python's 1e-05 and 1e+16 would read back as text, so they are written 1.0e-05, 1.0e+16."""
     v = float(value)
     if decimals is not None:
         s = f"{v:.{decimals}f}"
         return s[1:] if s.startswith("-") and float(s) == 0.0 else s
-    return repr(v + 0.0)
+    s = repr(v + 0.0)
+    mantissa, e, exponent = s.partition("e")
+    if e and "." not in mantissa:
+        s = f"{mantissa}.0e{exponent}"
+    return s
 
 
 def flow(values: Sequence[float], decimals: int | None = None) -> str:

@@ -112,7 +112,8 @@ _SIGNAL_SCRIPT = textwrap.dedent("""
 """)
 
 
-@pytest.mark.parametrize("name, status", [("SIGTERM", 128 + 15), ("SIGINT", None)])
+@pytest.mark.parametrize("name, status", [("SIGTERM", 128 + 15), ("SIGINT", None),
+                                          ("SIGHUP", 128 + 1)])  # SPEC: any exit it can catch
 def test_temporary_file_removed_on_sigterm_and_sigint(tmp_path, name, status):
     target = tmp_path / "out.pdf"
     done = subprocess.run([sys.executable, "-c", _SIGNAL_SCRIPT, str(target), name],

@@ -158,7 +158,8 @@ def test_open_mesh_refused_with_the_reason(tmp_path):
 
 
 def test_garbage_and_wrong_kinds_refused(tmp_path):
-    assert "cannot read" in refused(tmp_path, "junk.stl", b"solid x\n facet garbage \x00\xff")
+    assert "not an STL file" in refused(tmp_path, "junk.stl",
+                                        b"solid x\n facet garbage \x00\xff")
     msg = refused(tmp_path, "empty.obj", b"# nothing\n")
     assert "no triangles" in msg or "cannot read" in msg
     assert ".stl or .obj" in refused(tmp_path, "hull.step", b"ISO-10303-21;")

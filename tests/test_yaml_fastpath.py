@@ -26,7 +26,14 @@ def test_values_that_are_not_plain_decimals_are_left_to_the_full_constructor():
             "1., +1.5, -01.5, 00, -0.0, 1.5e-3, 1.5E+3, 0b101, 190:20:30.15, 2026-12-03, "
             "~, null, .5, -.5, 1__2.5]\nb: {1.5: x, 2: y, -3: z}\n")
     got, ref = yamlread.parse(text.encode(), "t"), yaml.safe_load(text)
+    # Except what YAML 1.1 makes octal or base 60 (yaml.org/type/int.html): both readers keep
+    # those as the text written, so that a number field refuses them (a leading zero is not
+    # taken for octal: 017 is not 15).
+    written = text[text.index("[") + 1:text.index("]")].split(", ")
+    misread = {"017", "1:30", "007", "00", "190:20:30.15"}
+    ref["a"] = [w if w in misread else v for w, v in zip(written, ref["a"], strict=True)]
     assert [repr(v) for v in got["a"]] == [repr(v) for v in ref["a"]]
+    assert yamlread.parse_strict(text.encode(), "t") == got
     assert got["b"] == ref["b"]
 
 

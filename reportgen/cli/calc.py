@@ -8,7 +8,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli.group import EXIT_BAD_INPUT, main, progress
+from reportgen.cli.group import EXIT_BAD_INPUT, main, names_a_folder, progress
 from reportgen.errors import InputError
 from reportgen.printable import printable_lines
 
@@ -74,10 +74,10 @@ Exit status: 0 every sheet written and every condition passes; 1 written, but a 
 fails a criterion; 2 bad input or an output that cannot be written (nothing is written for
 that file; the other files are still processed).""")
 @click.argument("conditions", nargs=-1, required=True, type=click.Path(path_type=Path))
-@click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
+@click.option("-o", "--output", "output", required=True, type=click.Path(),
               help="The PDF to write; a folder for several conditions.")
 @click.option("--force", is_flag=True, help="Replace an existing file.")
-def sheet(conditions: tuple[Path, ...], output: Path, force: bool) -> None:
+def sheet(conditions: tuple[Path, ...], output: str, force: bool) -> None:
     """Write calculation sheets (PDF/A-3 with inputs and results embedded)."""
     from reportgen.files import check_output
     from reportgen.inputs import load_case
@@ -85,12 +85,22 @@ def sheet(conditions: tuple[Path, ...], output: Path, force: bool) -> None:
     from reportgen.report.render import write_sheet
 
     several = len(conditions) > 1
+    if not several and names_a_folder(output):
+        raise InputError(f"{output}: ends with a slash, which names a folder; give the name "
+                         f"of the PDF to write")
+    output = Path(output)
     if several and not output.is_dir():
         raise InputError(f"{output}: with several conditions, -o must name an existing folder")
+    targets = [output / f"{path.stem}.pdf" for path in conditions] if several else [output]
+    first: dict[Path, Path] = {}
+    for path, target in zip(conditions, targets, strict=True):
+        if first.setdefault(target, path) != path or conditions.count(path) > 1:
+            raise InputError(f"{path}: its sheet would be {target}, as would that of "
+                             f"{first[target]}; one run never writes a file twice (give each "
+                             f"condition once, or sheet them into different folders)")
     codes = []
     with progress("sheets", len(conditions)) as advance:
-        for path in conditions:
-            target = output / f"{path.stem}.pdf" if several else output
+        for path, target in zip(conditions, targets, strict=True):
             try:
                 case = load_case(path)
                 check_output(target, force)

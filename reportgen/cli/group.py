@@ -24,15 +24,30 @@ EXIT_BAD_INPUT = 2
 
 
 @contextmanager
-def progress(what: str, total: int | None) -> Iterator[Callable[[], None]]:
-    """A progress bar on stderr for work of `total` steps, shown only on a terminal and not
-    with NO_COLOR set; yields the function that advances it one step."""
+def progress(what: str, total: int | None) -> Iterator[Callable[..., None]]:
+    """A progress bar on stderr (status, never on stdout, which carries data) for work of
+    `total` steps, shown only when stderr is a terminal and NO_COLOR is not set (set at all,
+    even empty: SPEC "never ... with NO_COLOR"); yields the function that advances it one
+    step, or that sets (done, total) when given them."""
+    from rich.console import Console
     from rich.progress import Progress
 
-    shown = sys.stderr.isatty() and not os.environ.get("NO_COLOR")
-    with Progress(transient=True, disable=not shown) as bar:
+    with Progress(console=Console(stderr=True), transient=True,
+                  disable=not bar_wanted()) as bar:
         task = bar.add_task(what, total=total)
-        yield lambda: bar.advance(task)
+
+        def advance(done: int | None = None, of: int | None = None) -> None:
+            if done is None:
+                bar.advance(task)
+            else:
+                bar.update(task, completed=done, total=of)
+
+        yield advance
+
+
+def bar_wanted() -> bool:
+    """A progress bar only on a terminal (stderr) and never with NO_COLOR in the environment."""
+    return sys.stderr.isatty() and "NO_COLOR" not in os.environ
 
 
 # Each command and the module of this package that defines it: a command's module is imported
@@ -71,15 +86,37 @@ class _Group(click.Group):
         except KeyboardInterrupt:
             click.echo("reportgen: interrupted; nothing was written", err=True)
             ctx.exit(130)
+        except BrokenPipeError:
+            # The reader of stdout went away (`reportgen check ... | head`): no more output,
+            # and the status a shell gives a process ended by SIGPIPE (128 + 13), not 1 (a
+            # failed criterion). Python's signal module docs, "Note on SIGPIPE": stdout is
+            # pointed at devnull so that the interpreter's final flush does not fail again.
+            devnull = os.open(os.devnull, os.O_WRONLY)
+            os.dup2(devnull, sys.stdout.fileno())
+            ctx.exit(128 + 13)
 
 
-def read_passphrase(path: Path | None) -> bytes | None:
-    if path is None:
-        return None
-    try:
-        return path.read_bytes().rstrip(b"\r\n")
-    except OSError as exc:
-        raise InputError(f"{path}: cannot read the passphrase file: {exc.strerror}") from None
+class OutputFile(click.Path):
+    """The type of `-o FILE`: a path, refused when it ends with a slash. Such a name means a
+    folder (`-o out/`), and the file would otherwise be written under the folder's name."""
+
+    def __init__(self) -> None:
+        super().__init__(path_type=Path)
+
+    def convert(self, value, param, ctx):
+        if os.fspath(value) == "-":
+            self.fail("'-': reportgen writes its documents to files, not to standard output; "
+                      "give the name of the file to write", param, ctx)
+        if names_a_folder(value):
+            self.fail(f"{os.fspath(value)!r} ends with a slash, which names a folder; give the "
+                      f"name of the file to write", param, ctx)
+        return super().convert(value, param, ctx)
+
+
+def names_a_folder(value: object) -> bool:
+    """True for a path written with a trailing slash (`out/`), which names a folder."""
+    text = os.fspath(value) if isinstance(value, (str, os.PathLike)) else ""
+    return isinstance(text, str) and text.endswith(tuple(filter(None, (os.sep, os.altsep))))
 
 
 @click.group(cls=_Group, context_settings={"help_option_names": ["-h", "--help"]})

@@ -2,18 +2,15 @@
 
 from __future__ import annotations
 
+import math
 import re
 import sys
 from pathlib import Path
 
 import click
 
-from reportgen.cli.group import main, progress
+from reportgen.cli.group import OutputFile, main, progress
 from reportgen.errors import InputError
-
-# a number as a person types one (ASCII digits, a point, an exponent): Python's float() also
-# takes "4_8" (48), other scripts' digits, "nan" and "inf"
-PLAIN_NUMBER = re.compile(r"[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?", re.ASCII)
 
 
 @main.command(epilog="""\b
@@ -30,7 +27,7 @@ Exit status: 0 the limits were found (and written); 2 bad input (nothing is writ
 @click.option("--trim", "trim", type=float, default=0.0, show_default=True,
               help="Upright trim of the curve, m, + by the stern.")
 @click.option("--json", "as_json", is_flag=True, help="Print the limits document (JSON).")
-@click.option("-o", "--output", "output", type=click.Path(path_type=Path),
+@click.option("-o", "--output", "output", type=OutputFile(),
               help="Write the limits document as a PDF/A-3 file.")
 @click.option("--booklet-block", "booklet", is_flag=True,
               help="Print the curve as a limiting_kg block for a vessel file (booklet.limits).")
@@ -82,6 +79,35 @@ def _approval_beside(vessel: Path, raw: bytes) -> bytes | None:
     return p7s
 
 
+_DECIMAL = re.compile(r"[-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?")
+
+
+def _plain(text: str) -> float | None:
+    """A plain decimal number (ASCII digits, a point, an exponent), finite; None otherwise:
+    float() would also take NaN, infinity, digit grouping ("0_5" as 5) and other scripts'
+    digits."""
+    text = text.strip()
+    value = float(text) if _DECIMAL.fullmatch(text) else None
+    return value if value is not None and math.isfinite(value) else None
+
+
+def _point(at: str) -> tuple[float, float]:
+    """X, Z of `--at X,Z`: two plain decimal numbers of metres."""
+    values = [_plain(p) for p in at.split(",")]
+    if len(values) != 2 or None in values:
+        raise InputError(f"--at {at!r}: expected X,Z, two finite numbers of metres, "
+                         f"e.g. --at 48.0,9.5")
+    return values[0], values[1]
+
+
+def _tcg(text: str) -> float:
+    """Y of `--tcg Y`: one plain decimal number of metres."""
+    value = _plain(text)
+    if value is None:
+        raise InputError(f"--tcg {text!r}: expected one finite number of metres, e.g. --tcg 2.0")
+    return value
+
+
 @main.command(epilog="""\b
 Examples:
   reportgen room conditions/full-load-departure.yaml --at 48.0,9.5
@@ -90,23 +116,21 @@ Examples:
 Exit status: 0 some mass can be added; 1 none can; 2 bad input.""")
 @click.argument("condition", type=click.Path(path_type=Path))
 @click.option("--at", "at", required=True, help="X,Z of the added mass: m from AP, m above base.")
-@click.option("--tcg", "tcg", type=float, default=0.0, show_default=True,
+@click.option("--tcg", "tcg", default="0.0", show_default=True,
               help="Y of the added mass, m, + starboard.")
 @click.option("--json", "as_json", is_flag=True, help="Print the answer as JSON.")
-def room(condition: Path, at: str, tcg: float, as_json: bool) -> None:
+def room(condition: Path, at: str, tcg: str, as_json: bool) -> None:
     """The most mass that can still be added at a point."""
     import json
 
     from reportgen.inputs import load_case
     from reportgen.room import room_at, room_text
 
-    parts = [v.strip() for v in at.split(",")]
-    if len(parts) != 2 or not all(re.fullmatch(PLAIN_NUMBER, v) for v in parts):
-        raise InputError(f"--at {at!r}: expected X,Z in metres, e.g. --at 48.0,9.5")
-    x, z = (float(v) for v in parts)
+    x, z = _point(at)
+    y = _tcg(tcg)
     case = load_case(condition)
     with progress("room", None) as advance:
-        answer = room_at(case, x, tcg, z, advance)
+        answer = room_at(case, x, y, z, advance)
     if as_json:
         click.echo(json.dumps(answer, indent=2, ensure_ascii=False))
     else:

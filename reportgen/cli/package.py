@@ -7,7 +7,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli.group import main, progress
+from reportgen.cli.group import OutputFile, main, progress
 
 
 @main.command(epilog="""\b
@@ -20,7 +20,7 @@ Every condition must name a vessel file with the same bytes. Exit status: 0 the 
 written and every condition passes; 1 written, but a condition fails a criterion; 2 bad input
 or an output that cannot be written (nothing is written).""")
 @click.argument("conditions", nargs=-1, required=True, type=click.Path(path_type=Path))
-@click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
+@click.option("-o", "--output", "output", required=True, type=OutputFile(),
               help="The PDF to write.")
 @click.option("--title", default=None, help="The package's title (default: the vessel's "
               "loading conditions).")

@@ -11,7 +11,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli.group import main, progress
+from reportgen.cli.group import OutputFile, main, progress
 from reportgen.errors import InputError
 from reportgen.printable import printable_lines
 
@@ -60,12 +60,13 @@ the moulded baseline. The output holds the hull: block for a vessel file; with
 --vessel, that vessel file with its hull: block put in (added, or replaced).
 Exit status: 0 written; 2 bad input (nothing written).""")
 @click.argument("mesh", type=click.Path(path_type=Path))
-@click.option("-o", "--output", required=True, type=click.Path(path_type=Path),
+@click.option("-o", "--output", required=True, type=OutputFile(),
               help="The YAML file to write (the hull: block).")
 @click.option("--stations", type=click.IntRange(3, 1001), default=None,  # mesh.MAX_STATIONS
               help="Number of stations, evenly spaced (default: enough to hold the mesh's "
                    "volume to 0.1 %).")
 @click.option("--scale", type=click.FloatRange(min=0, min_open=True), default=1.0,
+              callback=lambda _c, _p, v: _finite("--scale", v),
               help="Factor to metres (0.001 for a mesh in millimetres).")
 @click.option("--density", type=click.FloatRange(0.99, 1.05), default=1.025,
               help="Water density for the tables made from these offsets, t/m³.")
@@ -109,6 +110,15 @@ def hull_from_mesh(mesh: Path, output: Path, stations: int | None, scale: float,
                f"{2 * y1:.3f} m, z {z0:.3f} to {z1:.3f} m; mesh volume "
                f"{made.mesh_volume_m3:.3f} m³, the offsets {made.offsets_volume_m3:.3f} m³",
                err=True)
+
+
+def _finite(option: str, value: float) -> float:
+    """`value` when it is a finite number; click's ranges let NaN and infinity through."""
+    import math
+
+    if not math.isfinite(value):
+        raise click.BadParameter(f"{value!r}: expected a finite number", param_hint=option)
+    return value
 
 
 def _with_hull(head_text: str, hull_text: str, head: Path, output: Path) -> str:
@@ -172,7 +182,7 @@ Exit status: 0 printed or written; 2 bad input (the line and column named).""")
                    "free, said in the block).")
 @click.option("--density", type=click.FloatRange(0.99, 1.05), default=1.025,
               help="Hydrostatics and offsets: the water density of the table, t/m³.")
-@click.option("-o", "--output", type=click.Path(path_type=Path), default=None,
+@click.option("-o", "--output", type=OutputFile(), default=None,
               help="Write the YAML block to this file instead of printing it.")
 @click.option("--force", is_flag=True, help="Replace an existing file.")
 def import_table(kind: str, csv_file: Path, trim: str | None, density: float,
@@ -249,7 +259,7 @@ Examples:
 \b
 Exit status: 0 written; 2 bad input (nothing written).""")
 @click.argument("vessel", type=click.Path(path_type=Path))
-@click.option("-o", "--output", required=True, type=click.Path(path_type=Path),
+@click.option("-o", "--output", required=True, type=OutputFile(),
               help="The condition file to write.")
 @click.option("--force", is_flag=True, help="Replace an existing file.")
 def new(vessel: Path, output: Path, force: bool) -> None:
@@ -267,8 +277,9 @@ def new(vessel: Path, output: Path, force: bool) -> None:
     docs = Path(__file__).resolve().parents[2] / "docs" / "schema" / SCHEMA_FILE
     schema_ref = Path(os.path.relpath(docs, here)).as_posix() if docs.is_file() else SCHEMA_FILE
     write_atomic(output, condition_text(model, ref, schema_ref).encode("utf-8"), force=force)
-    click.echo(f"{output}: a condition for {model.vessel.name} with {len(model.tanks)} tanks "
-               f"at zero and no items", err=True)
+    tanks = f"{len(model.tanks)} tanks at zero" if model.tanks else "no tanks (it has none)"
+    click.echo(f"{output}: a condition for {model.vessel.name} with {tanks} and no items",
+               err=True)
     untabled = [t.id for t in model.tanks if t.table is None]
     if untabled:
         click.echo(f"reportgen: note: tanks {', '.join(untabled)} have no table yet: make the "

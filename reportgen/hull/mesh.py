@@ -64,13 +64,36 @@ def load_mesh(raw: bytes, file_type: str, scale: float = 1.0):
 
     import trimesh
 
+    _check_layout(raw, file_type)
     with warnings.catch_warnings(), np.errstate(all="ignore"):
         warnings.simplefilter("ignore")
         try:
-            mesh = trimesh.load_mesh(io.BytesIO(raw), file_type=file_type, process=True)
+            # unprocessed first: processing drops faces with coordinates that are not finite,
+            # and the mesh would then be reported open instead of as holding NaN or infinity
+            mesh = trimesh.load_mesh(io.BytesIO(raw), file_type=file_type, process=False)
         except Exception as exc:  # noqa: BLE001 - any reader failure is a bad file
             raise ValueError(f"cannot read it as {file_type.upper()}: {exc}") from None
         return _checked(mesh, scale)
+
+
+def _check_layout(raw: bytes, file_type: str) -> None:
+    """ValueError unless `raw` is laid out as the format says, before a reader guesses: a
+    binary STL is an 80-byte header, a 4-byte little-endian triangle count n and 50 bytes per
+    triangle (84 + 50·n bytes in all); an ASCII STL and an OBJ are text."""
+    if file_type == "stl" and len(raw) >= 84:
+        count = int.from_bytes(raw[80:84], "little")
+        if len(raw) == 84 + 50 * count:
+            return
+    try:
+        text = raw.decode("utf-8")
+    except UnicodeDecodeError:
+        if file_type == "stl":
+            raise ValueError("not an STL file: neither a binary STL (84 + 50 bytes per "
+                             "triangle, as its header counts them) nor ASCII text") from None
+        raise ValueError("not an OBJ file: not text (UTF-8)") from None
+    if file_type == "stl" and not text.lstrip().startswith("solid"):
+        raise ValueError("not an STL file: neither a binary STL (84 + 50 bytes per triangle, "
+                         "as its header counts them) nor ASCII text starting 'solid'")
 
 
 def _checked(mesh, scale: float):
@@ -83,6 +106,7 @@ def _checked(mesh, scale: float):
                          f"{MAX_FACES:,}; reduce it in the CAD program")
     if not np.all(np.isfinite(mesh.vertices)):
         raise ValueError("some vertex coordinates are not finite numbers")
+    mesh.process()  # what loading with process=True does: equal vertices merged
     if scale != 1.0:
         mesh.apply_scale(scale)
     size = float(np.max(np.ptp(mesh.vertices, axis=0)))

@@ -10,7 +10,7 @@ from pathlib import Path
 
 from reportgen.docinfo import APPROVAL_SUFFIX
 from reportgen.errors import InputError
-from reportgen.files import read_input
+from reportgen.files import not_a_file, read_input
 from reportgen.inputs.condition import Condition
 from reportgen.inputs.grain import check_grain
 from reportgen.inputs.special import PASSENGER_SET
@@ -185,9 +185,11 @@ def vessel_path(condition_path: Path, data: object, raw: bytes) -> Path:
         validate(Condition, data, str(condition_path), raw)
         raise InputError(f"{condition_path}: vessel: expected the path of the vessel data file")
     path = condition_path.parent / ref
-    if not path.is_file():
+    reason = not_a_file(path)
+    if reason is not None:  # named with the key and line that give the path
         at = where(("vessel",), key_lines(raw))
-        raise InputError(f"{condition_path}: {at}: vessel data file {path} not found")
+        reason = "not found" if reason == "not found" else f"cannot be read: {reason}"
+        raise InputError(f"{condition_path}: {at}: vessel data file {path} {reason}")
     return path
 
 

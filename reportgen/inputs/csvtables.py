@@ -86,7 +86,30 @@ def read_sheet(text: str) -> Sheet:
         raise TableError(f"line {reader.line_num}: {exc}") from None
     if not rows:
         raise TableError("no rows under the header")
+    if delim != ",":
+        _one_decimal_mark(rows)
     return Sheet(header or [], rows, delim != ",")
+
+
+_DECIMAL = {mark: re.compile(rf"[-+]?[0-9]*\{mark}[0-9]+") for mark in ",."}
+
+
+def _one_decimal_mark(rows: list[tuple[int, list[str]]]) -> None:
+    """TableError when a semicolon or tab separated sheet writes decimals both with a comma and
+    with a point: one of them is then a thousands separator (1.500 meaning 1500 beside 0,5),
+    and reading it as a decimal would take a number a thousand times too small."""
+    first: dict[str, tuple[int, int, str]] = {}
+    for line, cells in rows:
+        for j, cell in enumerate(cells, start=1):
+            for mark, pattern in _DECIMAL.items():
+                if mark not in first and pattern.fullmatch(cell):
+                    first[mark] = (line, j, cell)
+        if len(first) == 2:
+            (l1, j1, c1), (l2, j2, c2) = first[","], first["."]
+            raise TableError(f"line {l2}, column {j2}: {c2!r} has a decimal point, while line "
+                             f"{l1}, column {j1} has a decimal comma ({c1!r}); one of them would "
+                             f"be a thousands separator: write every number with the same "
+                             f"decimal mark and no thousands separator")
 
 
 def name_and_unit(cell: str, column: int) -> tuple[str, str | None]:

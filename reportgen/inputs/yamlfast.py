@@ -57,6 +57,20 @@ _RESOLVER = yaml.resolver.Resolver()
 _FIRST = _RESOLVER.yaml_implicit_resolvers  # first character -> PyYAML's implicit resolvers
 _FAST_FLOAT = re.compile(r"-?[0-9]+\.[0-9]+")  # PyYAML's float, not its int: float(text)
 _FAST_INT = re.compile(r"-?(?:0|[1-9][0-9]*)")  # PyYAML's int, not its float: int(text)
+# Numbers YAML 1.1 reads in a way a person typing a decimal does not mean (yaml.org/type/int.html
+# and float.html): a leading zero makes octal (0250 is 168) and colons make base 60 (1:20 is
+# 80). Such a plain scalar is kept as text, so that a number field refuses it and says why
+# (yamlread._message) instead of taking a value nobody wrote; free text (notes) keeps it as
+# written. Both readers resolve through `is_misread_number`.
+MISREAD_NUMBER = re.compile(r"[-+]?0[0-7_]+|[-+]?[0-9][0-9_]*(?::[0-5]?[0-9])+(?:\.[0-9_]*)?")
+_NUMBER_TAGS = ("tag:yaml.org,2002:int", "tag:yaml.org,2002:float")
+
+
+def is_misread_number(tag: str, text: str) -> bool:
+    """True when YAML 1.1 would make `text` (resolved to `tag`) an octal or base-60 number."""
+    return tag in _NUMBER_TAGS and MISREAD_NUMBER.fullmatch(text) is not None
+
+
 _CONSTRUCTOR = yaml.constructor.SafeConstructor()
 _SCALARS = {f"tag:yaml.org,2002:{name}": getattr(_CONSTRUCTOR, f"construct_yaml_{name}")
             for name in ("bool", "int", "float", "null", "timestamp", "str")}
@@ -193,6 +207,8 @@ def scalar(text: str) -> Any:
     if _FAST_INT.fullmatch(text):
         return int(text)
     tag = _RESOLVER.resolve(yaml.ScalarNode, text, (True, False))
+    if is_misread_number(tag, text):
+        return text
     build = _SCALARS.get(tag)
     if build is None:
         raise _NotFast  # merge, value, yaml or a tag of our own: the strict reader decides

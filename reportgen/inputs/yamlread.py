@@ -23,7 +23,7 @@ import yaml
 from pydantic import BaseModel, ValidationError
 
 from reportgen.errors import InputError
-from reportgen.inputs.yamlfast import NOT_FAST, fast_data
+from reportgen.inputs.yamlfast import MISREAD_NUMBER, NOT_FAST, fast_data, is_misread_number
 
 MAX_EXPANDED_NODES = 2_000_000  # nodes after alias expansion; a large vessel file has ~10⁵
 MAX_DEPTH = 64  # nesting of mappings and sequences
@@ -79,7 +79,10 @@ class _Loader(_Base):  # type: ignore[misc, valid-type]
                 return _FLOAT_TAG
             if _FAST_INT.fullmatch(value):
                 return _INT_TAG
-        return super().resolve(kind, value, implicit)
+        tag = super().resolve(kind, value, implicit)
+        if kind is yaml.ScalarNode and implicit[0] and is_misread_number(tag, value):
+            return "tag:yaml.org,2002:str"  # 0250, 1:20: text, refused where a number is due
+        return tag
 
     def construct_mapping(self, node: yaml.Node, deep: bool = False) -> dict:
         if not isinstance(node, yaml.MappingNode):
@@ -214,6 +217,12 @@ def _parse(text: str, name: str) -> Any:
         mark = exc.problem_mark or exc.context_mark
         at = f" (line {mark.line + 1}, column {mark.column + 1})" if mark else ""
         raise InputError(f"{name}: not valid YAML{at}: {exc.problem or exc}") from None
+    except yaml.reader.ReaderError as exc:  # a character YAML forbids (NUL, most controls)
+        line = text.count("\n", 0, exc.position) + 1
+        column = exc.position - (text.rfind("\n", 0, exc.position) + 1) + 1
+        raise InputError(f"{name}: not valid YAML (line {line}, column {column}): the "
+                         f"character U+{exc.character:04X} is not allowed in a YAML file") \
+            from None
     except yaml.YAMLError as exc:
         raise InputError(f"{name}: not valid YAML: {exc}") from None
     except RecursionError:
@@ -283,6 +292,7 @@ def where(path: tuple, lines: dict[tuple, int]) -> str:
 
 # YAML 1.1 (the version PyYAML reads) takes a number with an exponent for a number only with
 # a decimal point and a signed exponent: 1.0e+6 is a number; 1e6, 1.0e6 and 1e+6 are text.
+_LEADING_ZERO = re.compile(r"[-+]?0[0-9_]+")  # 08, 09: neither octal nor decimal in YAML 1.1
 _EXPONENT_TEXT = re.compile(r"^[-+]?[0-9][0-9_]*(\.[0-9_]*)?[eE][-+]?[0-9]+$")
 
 
@@ -299,6 +309,10 @@ def _message(err: dict) -> str:
         exponent = exponent if exponent[0] in "+-" else "+" + exponent
         text += (f" ({given!r} is text in YAML 1.1: write the number with a decimal point "
                  f"and a signed exponent, {mantissa}e{exponent})")
+    elif isinstance(given, str) and (MISREAD_NUMBER.fullmatch(given.strip())
+                                     or _LEADING_ZERO.fullmatch(given.strip())):
+        text += (f" ({given!r} is not read as a number: YAML 1.1 would take a leading zero "
+                 f"for octal and colons for base 60; write a plain decimal number)")
     return text
 
 
@@ -322,10 +336,34 @@ def validate(model: type[BaseModel], data: Any, name: str, raw: bytes) -> Any:
         errors = exc.errors(include_url=False)
         # A misspelt key is reported before the "missing" it causes.
         err = min(errors, key=lambda e: e["type"] != "extra_forbidden")
-        loc = tuple(p for p in err["loc"] if not (isinstance(p, str) and "[" in p))
         more = f" (and {exc.error_count() - 1} more problems)" if exc.error_count() > 1 else ""
+        if err["loc"][-1:] == ("[key]",) and err["type"] == "string_type":
+            raise InputError(f"{name}: {_key_not_text(data, err['loc'][:-2], err['loc'][-2], raw)}"
+                             f"{more}") from None
+        loc = tuple(p for p in err["loc"] if not (isinstance(p, str) and "[" in p))
         raise InputError(f"{name}: {where(loc, key_lines(raw))}: {_message(err)}{more}") \
             from None
+
+
+def _key_not_text(data: Any, parent: tuple, shown: Any, raw: bytes) -> str:
+    """'where: the key ... is not read as text' for a key of the mapping at `parent` that YAML
+    made a number, a date, null or a truth (pydantic shows it as `shown`, a repr for a date),
+    with the key as written in the file and its line."""
+    from reportgen.inputs.yamlfast import scalar
+
+    for p in parent:
+        data = data[p]
+    key = next((k for k in data if shown in (k, repr(k))), shown)
+    lines = key_lines(raw)
+    written = next((p[-1] for p in lines if len(p) == len(parent) + 1 and p[:-1] == parent
+                    and type(scalar(str(p[-1]))) is type(key) and scalar(str(p[-1])) == key),
+                   None)
+    kind = {bool: "true or false", type(None): "null (nothing)", dt.date: "a date",
+            dt.datetime: "a date and time"}.get(type(key), "a number")
+    if written is None:
+        return f"{where(parent, lines)}: a key is read as {kind}, not as text"
+    return (f"{where((*parent, written), lines)}: the key {written} is read as {kind}, not as "
+            f"text; write it in quotes ('{written}')")
 
 
 def iso_date(value: Any) -> str:

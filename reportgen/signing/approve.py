@@ -172,9 +172,8 @@ def _extract_inputs(sheet_path: Path, out_dir: Path,
 def _write_layout(layout: dict[Path, bytes], out_dir: Path, force: bool,
                   doc: Document) -> tuple[list[Path], str | None]:
     files = [(out_dir / rel, contents) for rel, contents in layout.items()]
-    for path, _data in files:
-        if path.parent.is_dir():
-            check_output(path, force)
+    for path, _data in files:  # every file checked before the first is written
+        check_output(path, force, make_folders=True)
     for path, data in files:
         make_folder(path.parent)
         write_atomic(path, data, force=force)
