@@ -305,3 +305,18 @@ def test_room_tcg_takes_one_plain_finite_number(tcg):
     # it looks like (SPEC.md "Conventions": bad input refused, exit 2, the option named).
     done = _run("room", "no-such-condition.yaml", "--at", "48,9.5", "--tcg", tcg)
     assert done.exit_code == 2 and "--tcg" in done.output and "expected one finite" in done.output
+
+
+def test_keygen_refuses_a_name_no_certificate_can_hold_and_makes_no_folder(tmp_path):
+    # RFC 5280 Appendix A.1: ub-common-name INTEGER ::= 64 (the subject's common name).
+    done = _run("keygen", "--name", "A" * 65, "-o", str(tmp_path / "id"))
+    assert done.exit_code == 2 and "at most 64" in done.output
+    assert not (tmp_path / "id").exists()
+
+
+@pytest.mark.parametrize("command", [["sign", "x.pdf", "--role", "prepared", "--p12", "x.p12"],
+                                     ["approve", "v.yaml", "--p12", "x.p12"]])
+def test_sign_and_approve_refuse_an_output_naming_a_folder(tmp_path, command):
+    # SPEC.md "Command line": -o names the file to write; "out/" names a folder.
+    done = _run(*command, "-o", str(tmp_path) + "/")
+    assert done.exit_code == 2 and "names a folder" in done.output

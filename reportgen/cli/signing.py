@@ -16,7 +16,7 @@ from pathlib import Path
 
 import click
 
-from reportgen.cli.group import main
+from reportgen.cli.group import OutputFile, main
 from reportgen.errors import InputError
 
 EXIT_CODES = """\b
@@ -130,7 +130,7 @@ integrity checks.
 @_with_identity
 @click.option("--reason", help="Reason shown in the signature.")
 @click.option("--location", help="Place of signing.")
-@click.option("-o", "--output", "output", required=True, type=click.Path(path_type=Path),
+@click.option("-o", "--output", "output", required=True, type=OutputFile(),
               help="The signed PDF to write (a new file).")
 @click.option("--force", is_flag=True, help="Replace an existing output file.")
 @_escaped
@@ -255,7 +255,7 @@ Example:
 """ + EXIT_CODES)
 @click.argument("vessel_file", metavar="VESSEL.yaml", type=click.Path(path_type=Path))
 @_with_identity
-@click.option("-o", "--output", "output", type=click.Path(path_type=Path),
+@click.option("-o", "--output", "output", type=OutputFile(),
               help="The approval to write (default: VESSEL.yaml.p7s beside the file).")
 @click.option("--force", is_flag=True, help="Replace an existing approval.")
 @_escaped

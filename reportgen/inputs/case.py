@@ -8,7 +8,7 @@ from dataclasses import dataclass
 from functools import cached_property
 from pathlib import Path
 
-from reportgen.docinfo import APPROVAL_SUFFIX
+from reportgen.docinfo import approval_name
 from reportgen.errors import InputError
 from reportgen.files import not_a_file, read_input
 from reportgen.inputs.condition import Condition
@@ -206,7 +206,7 @@ def load_case(condition_path: str | Path) -> Case:
 
 def approval_beside(vessel_path: Path) -> bytes | None:
     """The bytes of the vessel's approval VESSEL.yaml.p7s beside its file, None without one."""
-    path = vessel_path.with_name(vessel_path.name + APPROVAL_SUFFIX)
+    path = vessel_path.with_name(approval_name(vessel_path.name))
     return read_input(path, "vessel data approval") if path.is_file() else None
 
 

@@ -176,7 +176,7 @@ def approval_described(p7s: bytes | None, vessel_bytes: bytes, vessel_name: str)
         return None
     approval = provenance.read_approval(p7s, vessel_bytes)
     if not approval.intact:
-        raise InputError(f"{vessel_name}{provenance.APPROVAL_SUFFIX}: {approval.problem}; "
+        raise InputError(f"{approval_name(vessel_name)}: {approval.problem}; "
                          f"remove it or approve the vessel data again")
     return approval.describe()
 

@@ -22,9 +22,10 @@ from pathlib import Path
 from typing import Any
 
 import reportgen.signing.identity as ids
+from reportgen.docinfo import approval_name
 from reportgen.errors import InputError
 from reportgen.files import check_output, command_scope, make_folder, read_input, write_atomic
-from reportgen.provenance import APPROVAL_SUFFIX, read_approval
+from reportgen.provenance import read_approval
 from reportgen.signing.recompute import Inputs, check_vessel, vessel_reference
 from reportgen.signing.sheetfile import Document, read_document
 from reportgen.signing.trust import signing_usage_problems, validity_problem
@@ -50,7 +51,7 @@ def _approve_vessel(vessel_path: Path, out_path: Path | None = None, *,
 
     vessel_path = Path(vessel_path)
     out_path = Path(out_path) if out_path is not None else \
-        vessel_path.with_name(vessel_path.name + APPROVAL_SUFFIX)
+        vessel_path.with_name(approval_name(vessel_path.name))
     vessel = read_input(vessel_path, "vessel data file")
     check_output(out_path, force)
     check_vessel(vessel, str(vessel_path))
@@ -122,7 +123,7 @@ def _limits_layout(sheet_path: Path, inputs: Inputs) -> dict[Path, bytes]:
         raise InputError(f"{sheet_path}: {exc}") from None
     layout = {vessel: inputs.vessel}
     if inputs.approval is not None:
-        layout[vessel.with_name(vessel.name + APPROVAL_SUFFIX)] = inputs.approval
+        layout[vessel.with_name(approval_name(vessel.name))] = inputs.approval
     return layout
 
 
@@ -161,7 +162,7 @@ def _extract_inputs(sheet_path: Path, out_dir: Path,
             raise InputError(f"{sheet_path}: {exc}") from None
         wanted = [(condition_rel, data), (vessel_rel, inputs.vessel)]
         if inputs.approval is not None:
-            wanted.append((vessel_rel.with_name(vessel_rel.name + APPROVAL_SUFFIX),
+            wanted.append((vessel_rel.with_name(approval_name(vessel_rel.name)),
                            inputs.approval))
         for rel, contents in wanted:
             if layout.setdefault(rel, contents) != contents:

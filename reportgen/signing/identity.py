@@ -26,6 +26,7 @@ from reportgen.printable import printable  # noqa: F401  (signing's modules name
 DEMO_ORGANISATION = "reportgen demo identity - not for real use"
 DEMO_VALIDITY = dt.timedelta(days=365)
 MAX_PASSPHRASE_BYTES = 4096
+MAX_COMMON_NAME = 64  # characters: RFC 5280 Appendix A.1, ub-common-name INTEGER ::= 64
 MAX_CERTIFICATE_BYTES = 1024 * 1024  # a certificate or key file: 1 MiB is generous
 
 
@@ -191,6 +192,10 @@ def keygen(name: str, out_dir: Path, passphrase: bytes | None = None,
         raise InputError("keygen: --name must not be empty")
     if any(ord(ch) < 32 or ord(ch) == 127 for ch in name):
         raise InputError("keygen: --name must not hold control characters")
+    if len(name) > MAX_COMMON_NAME:
+        raise InputError(f"keygen: --name holds {len(name)} characters; a certificate's "
+                         f"common name holds at most {MAX_COMMON_NAME} (RFC 5280, "
+                         f"ub-common-name)")
     if passphrase is not None and not passphrase:
         raise InputError("keygen: the passphrase must not be empty")
     out_dir = Path(out_dir)
