@@ -255,14 +255,19 @@ def test_a_key_yaml_reads_as_a_number_date_or_truth_is_named_as_written(work, ke
 def test_several_sheets_never_write_one_file_twice(work):
     # Two conditions of one name from two folders (or one given twice) made the same
     # out/NAME.pdf; with --force the second replaced the first sheet of the same run, exit 0.
+    # SPEC.md "Command line": every file is processed and a bad one reported (exit 2): the
+    # later one is the bad one. (The first is made unreadable here so that no PDF is drawn.)
+    (work / "d1").mkdir()
     (work / "d2").mkdir()
     text = (work / "c.yaml").read_text().replace("vessels/", "../vessels/", 1)
+    (work / "d1" / "c.yaml").write_text(text.replace("format:", "formt:", 1))
     (work / "d2" / "c.yaml").write_text(text)
     (work / "out").mkdir()
-    for second in (work / "d2" / "c.yaml", work / "c.yaml"):
-        done = _run("sheet", str(work / "c.yaml"), str(second), "-o", str(work / "out"),
-                    "--force")
-        assert done.exit_code == 2 and "one run never writes a file twice" in done.output
+    for second in (work / "d2" / "c.yaml", work / "d1" / "c.yaml"):
+        done = _run("sheet", str(work / "d1" / "c.yaml"), str(second), "-o",
+                    str(work / "out"), "--force")
+        assert done.exit_code == 2 and "nothing is written for it" in done.output
+        assert f"as is that of {work / 'd1' / 'c.yaml'} in this run" in done.output
     assert list((work / "out").iterdir()) == []
 
 

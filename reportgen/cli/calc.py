@@ -93,15 +93,16 @@ def sheet(conditions: tuple[Path, ...], output: str, force: bool) -> None:
         raise InputError(f"{output}: with several conditions, -o must name an existing folder")
     targets = [output / f"{path.stem}.pdf" for path in conditions] if several else [output]
     first: dict[Path, Path] = {}
-    for path, target in zip(conditions, targets, strict=True):
-        if first.setdefault(target, path) != path or conditions.count(path) > 1:
-            raise InputError(f"{path}: its sheet would be {target}, as would that of "
-                             f"{first[target]}; one run never writes a file twice (give each "
-                             f"condition once, or sheet them into different folders)")
     codes = []
     with progress("sheets", len(conditions)) as advance:
         for path, target in zip(conditions, targets, strict=True):
             try:
+                if target in first:  # one run never writes a file twice: the later is bad
+                    raise InputError(f"{path}: its sheet would be {target}, as is that of "
+                                     f"{first[target]} in this run; nothing is written for it "
+                                     f"(give each condition once, or sheet them into "
+                                     f"different folders)")
+                first[target] = path
                 case = load_case(path)
                 check_output(target, force)
                 results = evaluate(case)
